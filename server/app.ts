@@ -1,0 +1,81 @@
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Config } from './lib/config';
+import type { Db } from './db/client';
+import { createAuthRouter, type AuthRouterDeps } from './auth/auth.router';
+import { createPassport } from './auth/passport';
+import { SqliteSessionStore } from './auth/session-store';
+import { createUsersRouter } from './users/users.router';
+import { csrfGuard } from './middleware/csrf';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+
+export interface AppDeps {
+  db: Db;
+  config: Config;
+  signInLimit?: AuthRouterDeps['signInLimit'];
+}
+
+/** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
+export function createApp(deps: AppDeps): Express {
+  const { db, config } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // MapLibre runs its worker from a blob/same-origin URL and draws images from blobs.
+          'worker-src': ["'self'", 'blob:'],
+          'child-src': ["'self'", 'blob:'],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'connect-src': ["'self'"],
+          'font-src': ["'self'", 'data:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+
+  app.use(express.json({ limit: '1mb' }));
+
+  const passport = createPassport(db);
+  app.use(
+    session({
+      name: 'syconium.sid',
+      secret: config.sessionSecret,
+      store: new SqliteSessionStore(db),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.env === 'production' && process.env.SYCONIUM_HTTPS === 'true', maxAge: 30 * 86_400_000 },
+    }),
+  );
+  app.use(passport.session());
+
+  const api = express.Router();
+  api.use(csrfGuard);
+  api.get('/health', (_req, res) => {
+    res.json({ ok: true });
+  });
+  api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit }));
+  api.use('/users', createUsersRouter({ db }));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  const indexHtml = path.join(config.clientDir, 'index.html');
+  if (config.env !== 'test' && fs.existsSync(indexHtml)) {
+    app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
+    // Client-side routes: every other GET gets the app shell.
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(indexHtml));
+  }
+
+  app.use(errorHandler);
+  return app;
+}

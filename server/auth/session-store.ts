@@ -1,0 +1,62 @@
+import session from 'express-session';
+import { eq, lt } from 'drizzle-orm';
+import type { Db } from '../db/client';
+import { sessions } from '../db/schema';
+
+type Callback = (err?: unknown, data?: session.SessionData | null) => void;
+
+/**
+ * express-session store on the app's own SQLite database, so sessions survive restarts and are
+ * shared by several app instances. Expired rows are ignored on read and swept on write.
+ */
+export class SqliteSessionStore extends session.Store {
+  private writes = 0;
+
+  constructor(private readonly db: Db) {
+    super();
+  }
+
+  override get(sid: string, callback: Callback): void {
+    try {
+      const row = this.db.select().from(sessions).where(eq(sessions.sid, sid)).get();
+      if (!row || row.expiresAt <= Date.now()) return callback(null, null);
+      callback(null, JSON.parse(row.data));
+    } catch (err) {
+      callback(err);
+    }
+  }
+
+  override set(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
+    try {
+      const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
+      const userId = typeof data.passport?.user === 'number' ? data.passport.user : null;
+      const values = { sid, data: JSON.stringify(data), userId, expiresAt };
+      this.db.insert(sessions).values(values).onConflictDoUpdate({ target: sessions.sid, set: values }).run();
+      if (++this.writes % 100 === 0) this.db.delete(sessions).where(lt(sessions.expiresAt, Date.now())).run();
+      callback?.();
+    } catch (err) {
+      callback?.(err);
+    }
+  }
+
+  override destroy(sid: string, callback?: (err?: unknown) => void): void {
+    try {
+      this.db.delete(sessions).where(eq(sessions.sid, sid)).run();
+      callback?.();
+    } catch (err) {
+      callback?.(err);
+    }
+  }
+
+  override touch(sid: string, data: session.SessionData, callback?: () => void): void {
+    const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
+    this.db.update(sessions).set({ expiresAt }).where(eq(sessions.sid, sid)).run();
+    callback?.();
+  }
+}
+
+declare module 'express-session' {
+  interface SessionData {
+    passport?: { user?: number };
+  }
+}

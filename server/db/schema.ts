@@ -1,0 +1,316 @@
+import { sql } from 'drizzle-orm';
+import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import {
+  CROPS,
+  FIG_TYPES,
+  FLAG_STATUSES,
+  GROWING_FORMS,
+  OUTCOMES,
+  PLANT_ORIGINS,
+  REPORT_STATUSES,
+  RIPENING_CLASSES,
+  ROLES,
+  VARIETY_STATUSES,
+  WASP_AREA_STATUSES,
+} from '../../shared/domain/codes';
+
+/*
+ * One file for the whole schema: drizzle.config.ts points here and `npm run db:generate` writes
+ * migrations to drizzle/. Keys are camelCase in TypeScript, columns snake_case in SQLite.
+ * Timestamps are ISO-8601 text in UTC; calendar dates are 'YYYY-MM-DD' text.
+ * Spatial look-ups use R*Tree virtual tables (reports_rtree, stations_rtree) kept in step by
+ * triggers in a custom migration, since drizzle-kit does not model virtual tables.
+ */
+
+const createdAt = () => text('created_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`);
+const updatedAt = () => text('updated_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`);
+
+export const users = sqliteTable('users', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  email: text('email').notNull().unique(),
+  displayName: text('display_name').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  role: text('role', { enum: ROLES }).notNull().default('grower'),
+  emailVerifiedAt: text('email_verified_at'),
+  isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+});
+
+export const sessions = sqliteTable(
+  'sessions',
+  {
+    sid: text('sid').primaryKey(),
+    data: text('data').notNull(),
+    userId: integer('user_id'),
+    expiresAt: integer('expires_at').notNull(),
+  },
+  (t) => [index('sessions_expires_idx').on(t.expiresAt), index('sessions_user_idx').on(t.userId)],
+);
+
+/** Rate-limit counters live in the database so several app instances share them. */
+export const rateLimitHits = sqliteTable('rate_limit_hits', {
+  key: text('key').primaryKey(),
+  hits: integer('hits').notNull(),
+  resetAt: integer('reset_at').notNull(),
+});
+
+export const savedPlaces = sqliteTable(
+  'saved_places',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    lat: real('lat').notNull(),
+    lon: real('lon').notNull(),
+    form: text('form', { enum: GROWING_FORMS }).notNull().default('ground'),
+    isHome: integer('is_home', { mode: 'boolean' }).notNull().default(false),
+    createdAt: createdAt(),
+  },
+  (t) => [index('saved_places_user_idx').on(t.userId)],
+);
+
+export const varieties = sqliteTable(
+  'varieties',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    name: text('name').notNull(),
+    figType: text('fig_type', { enum: FIG_TYPES }).notNull().default('unknown'),
+    bearsBreba: integer('bears_breba', { mode: 'boolean' }).notNull().default(false),
+    bearsMain: integer('bears_main', { mode: 'boolean' }).notNull().default(true),
+    ripeningClass: text('ripening_class', { enum: RIPENING_CLASSES }),
+    /** Typical days from the last spring frost to the first ripe main-crop fig, where known. */
+    typicalDaysToRipen: integer('typical_days_to_ripen'),
+    notes: text('notes').notNull().default(''),
+    /** Where each claim comes from (free text, one source per line). */
+    sources: text('sources').notNull().default(''),
+    status: text('status', { enum: VARIETY_STATUSES }).notNull().default('accepted'),
+    proposedByUserId: integer('proposed_by_user_id').references(() => users.id, { onDelete: 'set null' }),
+    reviewNote: text('review_note'),
+    mergedIntoId: integer('merged_into_id'),
+    isFictional: integer('is_fictional', { mode: 'boolean' }).notNull().default(false),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex('varieties_name_idx').on(sql`lower(${t.name})`), index('varieties_status_idx').on(t.status)],
+);
+
+export const varietySynonyms = sqliteTable(
+  'variety_synonyms',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    varietyId: integer('variety_id')
+      .notNull()
+      .references(() => varieties.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+  },
+  (t) => [uniqueIndex('variety_synonyms_name_idx').on(sql`lower(${t.name})`), index('variety_synonyms_variety_idx').on(t.varietyId)],
+);
+
+/** A tree (or one planting) keeps its identity across seasons: its reports count as one tree. */
+export const trees = sqliteTable(
+  'trees',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    label: text('label').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('trees_user_idx').on(t.userId)],
+);
+
+export const reports = sqliteTable(
+  'reports',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    treeId: integer('tree_id')
+      .notNull()
+      .references(() => trees.id),
+    /** Null while the grower's proposed name waits for an editor. */
+    varietyId: integer('variety_id').references(() => varieties.id),
+    proposedVarietyName: text('proposed_variety_name'),
+    /** Exact place: only the owner and editors ever see it. */
+    lat: real('lat').notNull(),
+    lon: real('lon').notNull(),
+    /** Public grid cell centre (shared/domain/public-grid.ts). */
+    gridLat: real('grid_lat').notNull(),
+    gridLon: real('grid_lon').notNull(),
+    form: text('form', { enum: GROWING_FORMS }).notNull(),
+    origin: text('origin', { enum: PLANT_ORIGINS }).notNull().default('unknown'),
+    yearPlanted: integer('year_planted'),
+    season: integer('season').notNull(),
+    crop: text('crop', { enum: CROPS }).notNull(),
+    outcome: text('outcome', { enum: OUTCOMES }).notNull(),
+    firstRipeDate: text('first_ripe_date'),
+    lastHarvestDate: text('last_harvest_date'),
+    springFrostDate: text('spring_frost_date'),
+    fallFrostDate: text('fall_frost_date'),
+    pinched: integer('pinched', { mode: 'boolean' }).notNull().default(false),
+    pinchedDate: text('pinched_date'),
+    winterProtection: text('winter_protection').notNull().default(''),
+    feeding: text('feeding').notNull().default(''),
+    watering: text('watering').notNull().default(''),
+    notes: text('notes').notNull().default(''),
+    status: text('status', { enum: REPORT_STATUSES }).notNull().default('published'),
+    hiddenReason: text('hidden_reason'),
+    hiddenById: integer('hidden_by_id').references(() => users.id, { onDelete: 'set null' }),
+    hiddenAt: text('hidden_at'),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+    updatedById: integer('updated_by_id').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    index('reports_user_idx').on(t.userId),
+    index('reports_tree_idx').on(t.treeId),
+    index('reports_variety_idx').on(t.varietyId),
+    index('reports_status_created_idx').on(t.status, t.createdAt),
+    index('reports_grid_idx').on(t.gridLat, t.gridLon),
+  ],
+);
+
+export const reportPhotos = sqliteTable(
+  'report_photos',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    reportId: integer('report_id')
+      .notNull()
+      .references(() => reports.id, { onDelete: 'cascade' }),
+    /** File names under the uploads folder, generated by the server (never from the client). */
+    fileName: text('file_name').notNull(),
+    thumbName: text('thumb_name').notNull(),
+    mime: text('mime').notNull(),
+    width: integer('width').notNull(),
+    height: integer('height').notNull(),
+    bytes: integer('bytes').notNull(),
+    position: integer('position').notNull().default(0),
+    createdAt: createdAt(),
+  },
+  (t) => [index('report_photos_report_idx').on(t.reportId)],
+);
+
+export const reportFlags = sqliteTable(
+  'report_flags',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    reportId: integer('report_id')
+      .notNull()
+      .references(() => reports.id, { onDelete: 'cascade' }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    reason: text('reason').notNull(),
+    status: text('status', { enum: FLAG_STATUSES }).notNull().default('open'),
+    resolvedById: integer('resolved_by_id').references(() => users.id, { onDelete: 'set null' }),
+    resolvedAt: text('resolved_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [index('report_flags_status_idx').on(t.status), index('report_flags_report_idx').on(t.reportId)],
+);
+
+/** Every editor and admin action, and every change to a report: who, when, what, before and after. */
+export const auditLog = sqliteTable(
+  'audit_log',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    actorId: integer('actor_id').references(() => users.id, { onDelete: 'set null' }),
+    action: text('action').notNull(),
+    entityType: text('entity_type').notNull(),
+    entityId: integer('entity_id'),
+    before: text('before', { mode: 'json' }),
+    after: text('after', { mode: 'json' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('audit_log_entity_idx').on(t.entityType, t.entityId), index('audit_log_created_idx').on(t.createdAt)],
+);
+
+/** An area where editors recorded the fig wasp as established. Retired areas stay for history. */
+export const waspAreas = sqliteTable(
+  'wasp_areas',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    name: text('name').notNull(),
+    /** GeoJSON Polygon or MultiPolygon geometry, lon/lat. */
+    geometry: text('geometry', { mode: 'json' }).notNull(),
+    minLat: real('min_lat').notNull(),
+    maxLat: real('max_lat').notNull(),
+    minLon: real('min_lon').notNull(),
+    maxLon: real('max_lon').notNull(),
+    source: text('source').notNull(),
+    observedOn: text('observed_on').notNull(),
+    status: text('status', { enum: WASP_AREA_STATUSES }).notNull().default('active'),
+    retiredAt: text('retired_at'),
+    createdById: integer('created_by_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('wasp_areas_status_idx').on(t.status)],
+);
+
+export const stations = sqliteTable('stations', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  /** The station's own identifier where it has one (for example a GHCN id). */
+  code: text('code').unique(),
+  name: text('name').notNull(),
+  lat: real('lat').notNull(),
+  lon: real('lon').notNull(),
+  elevationM: real('elevation_m'),
+  firstDate: text('first_date'),
+  lastDate: text('last_date'),
+  dayCount: integer('day_count').notNull().default(0),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+});
+
+export const stationDays = sqliteTable(
+  'station_days',
+  {
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    date: text('date').notNull(),
+    tminC: real('tmin_c').notNull(),
+    tmaxC: real('tmax_c'),
+  },
+  (t) => [primaryKey({ columns: [t.stationId, t.date] })],
+);
+
+/** Per-year freeze dates of a station at each threshold, computed when its data is loaded. */
+export const stationFreezeYears = sqliteTable(
+  'station_freeze_years',
+  {
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    thresholdF: integer('threshold_f').notNull(),
+    year: integer('year').notNull(),
+    /** Day of year of the last spring freeze; null when the year had none. */
+    lastSpringDoy: integer('last_spring_doy'),
+    firstFallDoy: integer('first_fall_doy'),
+    seasonDays: integer('season_days'),
+  },
+  (t) => [primaryKey({ columns: [t.stationId, t.thresholdF, t.year] })],
+);
+
+/** Across-years summary of a station: dates and lengths at 10/50/90 % probability. */
+export const stationSummaries = sqliteTable(
+  'station_summaries',
+  {
+    stationId: integer('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    thresholdF: integer('threshold_f').notNull(),
+    probability: integer('probability').notNull(),
+    lastSpringDoy: integer('last_spring_doy'),
+    firstFallDoy: integer('first_fall_doy'),
+    seasonDays: integer('season_days'),
+    years: integer('years').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.stationId, t.thresholdF, t.probability] })],
+);

@@ -1,0 +1,76 @@
+import { count, eq } from 'drizzle-orm';
+import type { Db } from '../db/client';
+import { reports, trees, users, varieties, varietySynonyms } from '../db/schema';
+import { hashPassword } from '../auth/password';
+import type { Config } from '../lib/config';
+import { findUserByEmail, insertUser } from '../users/users.repo';
+import { buildDemoReports } from './demo-reports';
+import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES } from './demo-scenario';
+
+/**
+ * Load the demo scenario into an empty atlas, and the first admin from the environment.
+ * Idempotent: each part checks what is already there and adds only what is missing.
+ */
+export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'adminEmail' | 'adminPassword'>): Promise<void> {
+  if (config.adminEmail && config.adminPassword && !findUserByEmail(db, config.adminEmail)) {
+    insertUser(db, {
+      email: config.adminEmail,
+      displayName: 'Administrator',
+      passwordHash: await hashPassword(config.adminPassword),
+      role: 'admin',
+      emailVerifiedAt: new Date().toISOString(),
+    });
+  }
+  if (!config.seedDemo) return;
+  await seedDemoAccounts(db);
+  seedDemoVarieties(db);
+  seedDemoReports(db);
+}
+
+async function seedDemoAccounts(db: Db): Promise<void> {
+  const existing = db.select({ n: count() }).from(users).where(eq(users.isDemo, true)).get()!.n;
+  if (existing > 0) return;
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  const verified = new Date().toISOString();
+  db.transaction(() => {
+    for (const account of DEMO_ACCOUNTS) insertUser(db, { ...account, passwordHash, emailVerifiedAt: verified, isDemo: true });
+    for (const name of DEMO_GROWER_NAMES) {
+      const email = `${name.toLowerCase().replace(/[^a-z]+/g, '.')}@demo.syconium.test`;
+      insertUser(db, { email, displayName: `${name} (demo)`, passwordHash, role: 'grower', emailVerifiedAt: verified, isDemo: true });
+    }
+  });
+}
+
+function seedDemoVarieties(db: Db): void {
+  const existing = db.select({ n: count() }).from(varieties).where(eq(varieties.isFictional, true)).get()!.n;
+  if (existing > 0) return;
+  db.transaction(() => {
+    for (const { synonyms, ...variety } of DEMO_VARIETIES) {
+      const row = db
+        .insert(varieties)
+        .values({ ...variety, isFictional: true, sources: 'Invented for the Syconium demo; not a real cultivar.' })
+        .returning({ id: varieties.id })
+        .get();
+      for (const name of synonyms) db.insert(varietySynonyms).values({ varietyId: row.id, name }).run();
+    }
+  });
+}
+
+function seedDemoReports(db: Db): void {
+  if (db.select({ n: count() }).from(reports).get()!.n > 0) return;
+  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@'));
+  const varietyIds = new Map(db.select({ id: varieties.id, name: varieties.name }).from(varieties).all().map((v) => [v.name, v.id]));
+  const demoReports = buildDemoReports(demoGrowers.length, DEMO_VARIETIES);
+  db.transaction(() => {
+    const treeIds = new Map<string, number>();
+    for (const { growerIndex, treeKey, varietyName, ...report } of demoReports) {
+      const userId = demoGrowers[growerIndex]!.id;
+      let treeId = treeIds.get(treeKey);
+      if (treeId === undefined) {
+        treeId = db.insert(trees).values({ userId, label: `${varietyName} #${Number(treeKey.split(':')[1]) + 1}` }).returning({ id: trees.id }).get().id;
+        treeIds.set(treeKey, treeId);
+      }
+      db.insert(reports).values({ ...report, userId, treeId, varietyId: varietyIds.get(varietyName)! }).run();
+    }
+  });
+}

@@ -1,0 +1,41 @@
+import { asc, eq } from 'drizzle-orm';
+import type { CurrentUser } from '../../shared/schemas/auth';
+import type { Role } from '../../shared/domain/codes';
+import type { Db } from '../db/client';
+import { users } from '../db/schema';
+
+type UserRow = typeof users.$inferSelect;
+
+export function toCurrentUser(row: UserRow): CurrentUser {
+  return {
+    id: row.id,
+    email: row.email,
+    displayName: row.displayName,
+    role: row.role,
+    emailVerified: row.emailVerifiedAt !== null,
+    createdAt: row.createdAt,
+  };
+}
+
+export function findUserByEmail(db: Db, email: string): UserRow | undefined {
+  return db.select().from(users).where(eq(users.email, email.toLowerCase())).get();
+}
+
+export function findUserById(db: Db, id: number): UserRow | undefined {
+  return db.select().from(users).where(eq(users.id, id)).get();
+}
+
+export function insertUser(
+  db: Db,
+  values: { email: string; displayName: string; passwordHash: string; role?: Role; emailVerifiedAt?: string | null; isDemo?: boolean },
+): UserRow {
+  return db.insert(users).values({ ...values, email: values.email.toLowerCase() }).returning().get();
+}
+
+export function listUsers(db: Db): UserRow[] {
+  return db.select().from(users).orderBy(asc(users.id)).all();
+}
+
+export function setUserRole(db: Db, id: number, role: Role): UserRow | undefined {
+  return db.update(users).set({ role, updatedAt: new Date().toISOString() }).where(eq(users.id, id)).returning().get();
+}

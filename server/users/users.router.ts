@@ -1,0 +1,35 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { changeRoleInputSchema, userListSchema } from '../../shared/schemas/auth';
+import type { Db } from '../db/client';
+import { recordAudit } from '../audit/audit.repo';
+import { notFound } from '../lib/http-error';
+import { requireRole } from '../middleware/require-role';
+import { findUserById, listUsers, setUserRole, toCurrentUser } from './users.repo';
+
+const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+
+/** Admin-only user management: list accounts, change a role. */
+export function createUsersRouter({ db }: { db: Db }): Router {
+  const router = Router();
+  router.use(requireRole('admin'));
+
+  router.get('/', (_req, res) => {
+    res.json(userListSchema.parse({ users: listUsers(db).map(toCurrentUser) }));
+  });
+
+  router.patch('/:id/role', (req, res) => {
+    const { id } = idParamsSchema.parse(req.params);
+    const { role } = changeRoleInputSchema.parse(req.body);
+    const before = findUserById(db, id);
+    if (!before) throw notFound('User');
+    const after = db.transaction(() => {
+      const updated = setUserRole(db, id, role)!;
+      recordAudit(db, { actorId: req.user!.id, action: 'user.role', entityType: 'user', entityId: id, before: { role: before.role }, after: { role } });
+      return updated;
+    });
+    res.json({ user: toCurrentUser(after) });
+  });
+
+  return router;
+}

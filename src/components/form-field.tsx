@@ -1,0 +1,37 @@
+import { useId, type InputHTMLAttributes, type ReactNode } from 'react';
+
+interface FormFieldProps extends InputHTMLAttributes<HTMLInputElement> {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+}
+
+/** A labelled input with a hint under it and the field's error in plain words. */
+export function FormField({ label, hint, error, ...input }: FormFieldProps) {
+  const id = useId();
+  const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="text-sm font-medium text-ink">
+        {label}
+      </label>
+      <input
+        id={id}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy}
+        className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600"
+        {...input}
+      />
+      {hint && (
+        <p id={`${id}-hint`} className="text-xs text-ink/70">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}

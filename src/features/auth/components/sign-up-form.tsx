@@ -1,0 +1,43 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { signUpInputSchema, type SignUpInput } from '@shared/schemas/auth';
+import { Button } from '../../../components/button';
+import { FormField } from '../../../components/form-field';
+import { ApiError } from '../../../lib/api-client';
+import { useSignUp } from '../api';
+
+export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
+  const signUp = useSignUp();
+  const form = useForm<SignUpInput>({ resolver: zodResolver(signUpInputSchema) });
+  const { errors } = form.formState;
+  const serverFields = signUp.error instanceof ApiError ? signUp.error.fields : {};
+
+  return (
+    <form noValidate className="flex flex-col gap-4" onSubmit={form.handleSubmit((input) => signUp.mutate(input, { onSuccess: onSignedUp }))}>
+      <FormField
+        label="Name shown with your reports"
+        autoComplete="nickname"
+        hint="Other growers see this name, never your e-mail."
+        error={errors.displayName?.message ?? serverFields.displayName?.[0]}
+        {...form.register('displayName')}
+      />
+      <FormField label="E-mail" type="email" autoComplete="email" error={errors.email?.message ?? serverFields.email?.[0]} {...form.register('email')} />
+      <FormField
+        label="Password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters. A short sentence is easy to remember."
+        error={errors.password?.message ?? serverFields.password?.[0]}
+        {...form.register('password')}
+      />
+      {signUp.error && !Object.keys(serverFields).length && (
+        <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
+          {signUp.error.message}
+        </p>
+      )}
+      <Button type="submit" disabled={signUp.isPending}>
+        {signUp.isPending ? 'Creating your account…' : 'Create account'}
+      </Button>
+    </form>
+  );
+}

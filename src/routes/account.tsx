@@ -1,0 +1,26 @@
+import { LABELS } from '@shared/domain/codes';
+import { Page } from '../components/page';
+import { RequireRole } from '../features/auth/components/require-role';
+import { useCurrentUser } from '../features/auth/api';
+
+export default function AccountRoute() {
+  const { user } = useCurrentUser();
+  return (
+    <RequireRole role="grower">
+      {user && (
+        <Page title="My account">
+          <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-2 rounded-lg border border-fig-100 bg-white p-5">
+            <dt className="text-ink/70">Name</dt>
+            <dd>{user.displayName}</dd>
+            <dt className="text-ink/70">E-mail</dt>
+            <dd>{user.email}</dd>
+            <dt className="text-ink/70">Role</dt>
+            <dd>{LABELS.role[user.role]}</dd>
+            <dt className="text-ink/70">Member since</dt>
+            <dd>{new Date(user.createdAt).toLocaleDateString()}</dd>
+          </dl>
+        </Page>
+      )}
+    </RequireRole>
+  );
+}

@@ -1,0 +1,30 @@
+import { NavLink, Outlet } from 'react-router';
+import { RequireRole } from '../features/auth/components/require-role';
+import { hasRole, useCurrentUser } from '../features/auth/api';
+
+const tabClass = ({ isActive }: { isActive: boolean }) =>
+  `whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-medium ${isActive ? 'bg-fig-600 text-white' : 'text-ink/80 hover:bg-fig-50'}`;
+
+/** The editors' workspace: a row of tabs over the selected tool. */
+export default function EditorsRoute() {
+  const { user } = useCurrentUser();
+  return (
+    <RequireRole role="editor">
+      <div className="flex h-full flex-col">
+        <nav aria-label="Editors' tools" className="flex gap-1 overflow-x-auto border-b border-fig-100 bg-white px-4 py-2">
+          <NavLink to="/editors" end className={tabClass}>
+            Overview
+          </NavLink>
+          {hasRole(user, 'admin') && (
+            <NavLink to="/editors/people" className={tabClass}>
+              People
+            </NavLink>
+          )}
+        </nav>
+        <div className="min-h-0 flex-1 overflow-y-auto">
+          <Outlet />
+        </div>
+      </div>
+    </RequireRole>
+  );
+}
