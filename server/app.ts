@@ -9,6 +9,8 @@ import { createAuthRouter, type AuthRouterDeps } from './auth/auth.router';
 import { createPassport } from './auth/passport';
 import { SqliteSessionStore } from './auth/session-store';
 import { createUsersRouter } from './users/users.router';
+import { createVarietiesRouter } from './varieties/varieties.router';
+import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
 import { csrfGuard } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -66,6 +68,8 @@ export function createApp(deps: AppDeps): Express {
   });
   api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit }));
   api.use('/users', createUsersRouter({ db }));
+  api.use('/varieties', createVarietiesRouter({ db }));
+  api.use('/wasp-areas', createWaspAreasRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -70,3 +70,19 @@ export const DEMO_TOWNS: DemoTown[] = [
 ];
 
 export const DEMO_SEASONS = [2021, 2022, 2023, 2024, 2025] as const;
+
+/** Demo wasp areas: invented records (with invented sources) that cover the story's wasp towns. */
+export const DEMO_WASP_AREAS = [
+  {
+    name: 'Lower Sacramento Valley (demo)',
+    source: 'Demo scenario: invented survey note, not a real observation',
+    observedOn: '2024-07-15',
+    coordinates: [[[-122.1, 38.1], [-121.0, 38.05], [-120.9, 39.0], [-121.6, 39.3], [-122.2, 38.9], [-122.1, 38.1]]],
+  },
+  {
+    name: 'Fresno basin (demo)',
+    source: 'Demo scenario: invented extension-office record, not a real observation',
+    observedOn: '2023-08-02',
+    coordinates: [[[-120.4, 36.4], [-119.3, 36.3], [-119.2, 37.1], [-119.9, 37.2], [-120.4, 36.4]]],
+  },
+];

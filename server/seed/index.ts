@@ -1,11 +1,12 @@
 import { count, eq } from 'drizzle-orm';
 import type { Db } from '../db/client';
-import { reports, trees, users, varieties, varietySynonyms } from '../db/schema';
+import { reports, trees, users, varieties, varietySynonyms, waspAreas } from '../db/schema';
+import { geometryBounds } from '../wasp-areas/wasp-areas.repo';
 import { hashPassword } from '../auth/password';
 import type { Config } from '../lib/config';
 import { findUserByEmail, insertUser } from '../users/users.repo';
 import { buildDemoReports } from './demo-reports';
-import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES } from './demo-scenario';
+import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
  * Load the demo scenario into an empty atlas, and the first admin from the environment.
@@ -25,6 +26,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   await seedDemoAccounts(db);
   seedDemoVarieties(db);
   seedDemoReports(db);
+  seedDemoWaspAreas(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {
@@ -71,6 +73,17 @@ function seedDemoReports(db: Db): void {
         treeIds.set(treeKey, treeId);
       }
       db.insert(reports).values({ ...report, userId, treeId, varietyId: varietyIds.get(varietyName)! }).run();
+    }
+  });
+}
+
+function seedDemoWaspAreas(db: Db): void {
+  if (db.select({ n: count() }).from(waspAreas).get()!.n > 0) return;
+  const editor = findUserByEmail(db, 'editor@demo.syconium.test');
+  db.transaction(() => {
+    for (const { coordinates, ...area } of DEMO_WASP_AREAS) {
+      const geometry = { type: 'Polygon' as const, coordinates };
+      db.insert(waspAreas).values({ ...area, geometry, ...geometryBounds(geometry), createdById: editor?.id ?? null }).run();
     }
   });
 }

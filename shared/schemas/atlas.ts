@@ -1,0 +1,127 @@
+import { z } from 'zod';
+import { CROPS, FIG_TYPES, GROWING_FORMS, RIPENING_CLASSES, SEASON_FIT_VERDICTS } from '../domain/codes';
+
+/*
+ * The regional engine's wire shapes: GET /api/atlas/near and GET /api/varieties/:id/fit.
+ * The pure functions in shared/domain produce these pieces; the server only gathers the rows.
+ */
+
+export const latSchema = z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' });
+export const lonSchema = z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' });
+
+export const nearQuerySchema = z.object({
+  lat: latSchema,
+  lon: lonSchema,
+  radiusKm: z.coerce.number({ message: 'radiusKm must be a number' }).gt(0, { message: 'radiusKm must be more than 0' }).max(500, { message: 'radiusKm must be at most 500' }).default(100),
+  /** Rank for this growing form (season fit and ranking); all forms are counted either way. */
+  form: z.enum(GROWING_FORMS).optional(),
+});
+export type NearQuery = z.infer<typeof nearQuerySchema>;
+
+export const fitQuerySchema = z.object({
+  lat: latSchema,
+  lon: lonSchema,
+  form: z.enum(GROWING_FORMS).default('ground'),
+  radiusKm: nearQuerySchema.shape.radiusKm,
+});
+export type FitQuery = z.infer<typeof fitQuerySchema>;
+
+/** A count of trees and the share of them that ripened, with a 90 % interval on the share. */
+export const shareSchema = z.object({
+  trees: z.number(),
+  reports: z.number().int(),
+  ripened: z.number(),
+  share: z.number().nullable(),
+  interval90: z.object({ low: z.number(), high: z.number() }).nullable(),
+});
+export type Share = z.infer<typeof shareSchema>;
+
+/** Frost-free season length at a point, estimated from stations (and growers' frost dates). */
+export const seasonEstimateSchema = z.object({
+  thresholdF: z.number().int(),
+  /** Frost-free days not exceeded in 10 / 50 / 90 % of years (10 % = a short year). */
+  days10: z.number().nullable(),
+  days50: z.number().nullable(),
+  days90: z.number().nullable(),
+  lastSpringDoy50: z.number().nullable(),
+  firstFallDoy50: z.number().nullable(),
+  stationCount: z.number().int(),
+  reportFrostCount: z.number().int(),
+  nearestStationKm: z.number().nullable(),
+  /** Plain words: how the number was made, or why there is none. */
+  method: z.string(),
+  stations: z.array(z.object({ id: z.number().int(), name: z.string(), distanceKm: z.number(), days50: z.number().nullable(), weight: z.number() })),
+});
+export type SeasonEstimate = z.infer<typeof seasonEstimateSchema>;
+
+export const pollinationCheckSchema = z.object({
+  figType: z.enum(FIG_TYPES),
+  crop: z.enum(CROPS),
+  needsWasp: z.boolean().nullable(),
+  waspEstablished: z.boolean(),
+  /** Can fruit of this crop be expected here without the grower arranging caprification? */
+  fruitExpected: z.enum(['yes', 'no', 'uncertain']),
+  explanation: z.string(),
+});
+export type PollinationCheck = z.infer<typeof pollinationCheckSchema>;
+
+export const seasonFitSchema = z.object({
+  verdict: z.enum(SEASON_FIT_VERDICTS),
+  form: z.enum(GROWING_FORMS),
+  localSeasonDays: z.number().nullable(),
+  /** Season days the variety needed: from reports elsewhere, else its catalogue class. */
+  neededDays: z.number().nullable(),
+  neededFrom: z.enum(['reports', 'catalogue', 'none']),
+  /** The assumed head start of this form over a tree in the ground (adjustable assumption). */
+  headStartDays: z.number(),
+  marginDays: z.number().nullable(),
+  explanation: z.string(),
+});
+export type SeasonFit = z.infer<typeof seasonFitSchema>;
+
+export const varietyEvidenceSchema = z.object({
+  rank: z.number().int(),
+  varietyId: z.number().int(),
+  name: z.string(),
+  figType: z.enum(FIG_TYPES),
+  ripeningClass: z.enum(RIPENING_CLASSES).nullable(),
+  isFictional: z.boolean(),
+  growers: z.number().int(),
+  all: shareSchema,
+  byCrop: z.object({ breba: shareSchema, main: shareSchema }),
+  byForm: z.object({ ground: shareSchema, container: shareSchema, wall: shareSchema, greenhouse: shareSchema }),
+  /** Distance-weighted share pulled toward the variety's overall rate when local trees are few. */
+  adjustedShare: z.number().nullable(),
+  overallShare: z.number().nullable(),
+  medianFirstRipeDoy: z.number().nullable(),
+  medianDaysFrostToRipe: z.number().nullable(),
+  pollination: z.object({ breba: pollinationCheckSchema, main: pollinationCheckSchema }),
+  seasonFit: seasonFitSchema,
+  /** One line in plain words: why this rank. */
+  reason: z.string(),
+});
+export type VarietyEvidence = z.infer<typeof varietyEvidenceSchema>;
+
+export const nearResponseSchema = z.object({
+  point: z.object({ lat: z.number(), lon: z.number() }),
+  radiusKm: z.number(),
+  form: z.enum(GROWING_FORMS),
+  season: seasonEstimateSchema,
+  wasp: z.object({
+    established: z.boolean(),
+    areas: z.array(z.object({ id: z.number().int(), name: z.string(), source: z.string(), observedOn: z.string() })),
+  }),
+  totals: z.object({ reports: z.number().int(), trees: z.number().int(), growers: z.number().int() }),
+  varieties: z.array(varietyEvidenceSchema),
+  /** How the shares were adjusted and ranked, in plain words. */
+  method: z.string(),
+});
+export type NearResponse = z.infer<typeof nearResponseSchema>;
+
+export const fitResponseSchema = z.object({
+  variety: z.object({ id: z.number().int(), name: z.string(), figType: z.enum(FIG_TYPES) }),
+  season: seasonEstimateSchema,
+  seasonFit: seasonFitSchema,
+  pollination: z.object({ breba: pollinationCheckSchema, main: pollinationCheckSchema }),
+});
+export type FitResponse = z.infer<typeof fitResponseSchema>;
