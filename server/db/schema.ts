@@ -314,3 +314,61 @@ export const stationSummaries = sqliteTable(
   },
   (t) => [primaryKey({ columns: [t.stationId, t.thresholdF, t.probability] })],
 );
+
+/** Single-use e-mail links (verify an address, reset a password). Only a SHA-256 of the token is kept. */
+export const emailTokens = sqliteTable(
+  'email_tokens',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    purpose: text('purpose', { enum: ['verify', 'reset'] }).notNull(),
+    tokenHash: text('token_hash').notNull().unique(),
+    expiresAt: text('expires_at').notNull(),
+    usedAt: text('used_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [index('email_tokens_user_idx').on(t.userId, t.purpose)],
+);
+
+/**
+ * Scheduled jobs: every app instance ticks, but only the one that takes the lease runs a job.
+ * Times are epoch milliseconds; `state` holds a job's own watermark (JSON).
+ */
+export const jobs = sqliteTable('jobs', {
+  name: text('name').primaryKey(),
+  nextRunAt: integer('next_run_at').notNull(),
+  leaseUntil: integer('lease_until'),
+  leaseOwner: text('lease_owner'),
+  lastRunAt: text('last_run_at'),
+  lastError: text('last_error'),
+  state: text('state', { mode: 'json' }),
+});
+
+/** A grower's weekly digest of ripening reports near their home place. */
+export const digestSubscriptions = sqliteTable('digest_subscriptions', {
+  userId: integer('user_id')
+    .primaryKey()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  radiusKm: real('radius_km').notNull().default(50),
+  active: integer('active', { mode: 'boolean' }).notNull().default(true),
+  /** End of the window the last digest covered; the next one lists reports after it. */
+  lastSentAt: text('last_sent_at'),
+  /** Random, per user: the unsubscribe link works without signing in. */
+  unsubscribeToken: text('unsubscribe_token').notNull().unique(),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+});
+
+/** Every message the development mail server received (development and tests only). */
+export const devMailMessages = sqliteTable('dev_mail_messages', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  messageId: text('message_id'),
+  from: text('from').notNull(),
+  to: text('to').notNull(),
+  subject: text('subject').notNull().default(''),
+  text: text('text'),
+  html: text('html'),
+  receivedAt: createdAt(),
+});
