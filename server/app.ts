@@ -11,6 +11,7 @@ import { SqliteSessionStore } from './auth/session-store';
 import { createUsersRouter } from './users/users.router';
 import { createVarietiesRouter } from './varieties/varieties.router';
 import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
+import { createSavedPlacesRouter } from './saved-places/saved-places.router';
 import { csrfGuard } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -70,6 +71,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/users', createUsersRouter({ db }));
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
+  api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -6,6 +6,7 @@ import { hashPassword } from '../auth/password';
 import type { Config } from '../lib/config';
 import { findUserByEmail, insertUser } from '../users/users.repo';
 import { buildDemoReports } from './demo-reports';
+import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
@@ -27,6 +28,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   seedDemoVarieties(db);
   seedDemoReports(db);
   seedDemoWaspAreas(db);
+  seedDemoSavedPlaces(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {

@@ -23,3 +23,18 @@ export const savedPlaceInputSchema = z.object({
   isHome: z.boolean().default(false),
 });
 export type SavedPlaceInput = z.infer<typeof savedPlaceInputSchema>;
+
+/** PATCH /api/saved-places/:id: any of the fields; no defaults, so what is left out stays as it was. */
+export const savedPlacePatchSchema = z
+  .object({
+    name: savedPlaceInputSchema.shape.name,
+    lat: latSchema,
+    lon: lonSchema,
+    form: z.enum(GROWING_FORMS),
+    isHome: z.boolean(),
+  })
+  .partial();
+export type SavedPlacePatch = z.infer<typeof savedPlacePatchSchema>;
+
+/** POST and PATCH answer with the place as saved. */
+export const savedPlaceResponseSchema = z.object({ place: savedPlaceSchema });
