@@ -10,8 +10,14 @@ import { createPassport } from './auth/passport';
 import { SqliteSessionStore } from './auth/session-store';
 import { createUsersRouter } from './users/users.router';
 import { createVarietiesRouter } from './varieties/varieties.router';
+import { createCatalogueRouter } from './varieties/catalogue.router';
+import { createModerationRouter } from './moderation/moderation.router';
+import { createAuditRouter } from './audit/audit.router';
 import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
+import { createReportsRouter } from './reports/reports.router';
+import { createUploadsRouter } from './photos/uploads.router';
 import { createSavedPlacesRouter } from './saved-places/saved-places.router';
+import { createGuidanceRouter } from './guidance/guidance.router';
 import { csrfGuard } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -69,11 +75,17 @@ export function createApp(deps: AppDeps): Express {
   });
   api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit }));
   api.use('/users', createUsersRouter({ db }));
+  api.use('/varieties', createCatalogueRouter({ db }));
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
+  api.use('/reports', createReportsRouter({ db, config }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
+  api.use('/guidance', createGuidanceRouter({ db }));
+  api.use('/moderation', createModerationRouter({ db }));
+  api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
+  app.use('/uploads', createUploadsRouter({ db, config }));
 
   const indexHtml = path.join(config.clientDir, 'index.html');
   if (config.env !== 'test' && fs.existsSync(indexHtml)) {

@@ -1,5 +1,7 @@
+import { and, asc, count, desc, eq, gte, lt, type SQL } from 'drizzle-orm';
+import type { AuditPage, AuditQuery } from '../../shared/schemas/audit';
 import type { Db } from '../db/client';
-import { auditLog } from '../db/schema';
+import { auditLog, users } from '../db/schema';
 
 export interface AuditEntry {
   actorId: number | null;
@@ -15,4 +17,44 @@ export function recordAudit(db: Db, entry: AuditEntry): void {
   db.insert(auditLog)
     .values({ ...entry, entityId: entry.entityId ?? null, before: entry.before ?? null, after: entry.after ?? null })
     .run();
+}
+
+/** Read the log, newest first, with filters and server-side pagination. */
+export function listAudit(db: Db, query: AuditQuery): AuditPage {
+  const conditions: SQL[] = [];
+  if (query.actorId) conditions.push(eq(auditLog.actorId, query.actorId));
+  if (query.action) conditions.push(eq(auditLog.action, query.action));
+  if (query.entityType) conditions.push(eq(auditLog.entityType, query.entityType));
+  if (query.entityId) conditions.push(eq(auditLog.entityId, query.entityId));
+  if (query.from) conditions.push(gte(auditLog.createdAt, query.from));
+  // the whole "to" day counts: timestamps are ISO text, so compare with the next day's start
+  if (query.to) conditions.push(lt(auditLog.createdAt, nextDay(query.to)));
+  const where = conditions.length ? and(...conditions) : undefined;
+  const total = db.select({ n: count() }).from(auditLog).where(where).get()!.n;
+  const rows = db
+    .select({ entry: auditLog, actor: users.displayName })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.actorId))
+    .where(where)
+    .orderBy(desc(auditLog.createdAt), desc(auditLog.id))
+    .limit(query.limit)
+    .offset(query.offset)
+    .all();
+  const facets = {
+    actions: db.selectDistinct({ v: auditLog.action }).from(auditLog).orderBy(asc(auditLog.action)).all().map((r) => r.v),
+    entityTypes: db.selectDistinct({ v: auditLog.entityType }).from(auditLog).orderBy(asc(auditLog.entityType)).all().map((r) => r.v),
+    actors: db
+      .selectDistinct({ id: users.id, name: users.displayName })
+      .from(auditLog)
+      .innerJoin(users, eq(users.id, auditLog.actorId))
+      .orderBy(asc(users.displayName))
+      .all(),
+  };
+  return { items: rows.map(({ entry, actor }) => ({ ...entry, actor })), total, facets };
+}
+
+function nextDay(date: string): string {
+  const d = new Date(`${date}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + 1);
+  return d.toISOString().slice(0, 10);
 }
