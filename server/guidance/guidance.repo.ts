@@ -1,0 +1,135 @@
+import { eq } from 'drizzle-orm';
+import { boundingBox, distanceKm, type BoundingBox } from '../../shared/domain/geo';
+import { dayOfYear, seasonDaysFromFrostDates, type SeasonReport } from '../../shared/domain/guidance';
+import type { Crop, FigType, GrowingForm } from '../../shared/domain/codes';
+import type { Db } from '../db/client';
+import { varieties } from '../db/schema';
+
+/*
+ * Row gathering for the guidance charts. Spatial look-ups go through the R*Tree tables
+ * (reports_rtree, stations_rtree; drizzle/0001_spatial-index.sql), then an exact great-circle
+ * distance. The computation itself lives in shared/domain/guidance.ts.
+ */
+
+/** Half the diagonal of a public grid cell (0.05 deg), rounded up: the box is padded by it. */
+const GRID_PAD_KM = 5;
+
+export function findVarietyBrief(db: Db, id: number): { id: number; name: string; figType: FigType } | undefined {
+  return db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType }).from(varieties).where(eq(varieties.id, id)).get();
+}
+
+const boxWhere = (alias: string) => `${alias}.max_lat >= ? AND ${alias}.min_lat <= ? AND ${alias}.max_lon >= ? AND ${alias}.min_lon <= ?`;
+const boxParams = (b: BoundingBox) => [b.minLat, b.maxLat, b.minLon, b.maxLon];
+
+/**
+ * First-ripe days of year of one variety's ripened reports within the radius. The distance is
+ * measured to each report's public grid point, not its exact place, so that narrowing the radius
+ * cannot be used to find where a grower lives.
+ */
+export function ripeDatesNear(db: Db, q: { varietyId: number; lat: number; lon: number; radiusKm: number; crop: Crop }): { doys: number[]; trees: number } {
+  const centre = { lat: q.lat, lon: q.lon };
+  const stmt = db.sqlite.prepare(
+    `SELECT r.tree_id AS treeId, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.first_ripe_date AS firstRipeDate
+       FROM reports_rtree t JOIN reports r ON r.id = t.id
+      WHERE ${boxWhere('t')}
+        AND r.variety_id = ? AND r.status = 'published' AND r.crop = ? AND r.outcome = 'ripened' AND r.first_ripe_date IS NOT NULL`,
+  );
+  const doys: number[] = [];
+  const trees = new Set<number>();
+  for (const box of boundingBox(centre, q.radiusKm + GRID_PAD_KM)) {
+    const rows = stmt.all(...boxParams(box), q.varietyId, q.crop) as { treeId: number; gridLat: number; gridLon: number; firstRipeDate: string }[];
+    for (const row of rows) {
+      if (distanceKm(centre, { lat: row.gridLat, lon: row.gridLon }) > q.radiusKm) continue;
+      const doy = dayOfYear(row.firstRipeDate);
+      if (doy === null) continue;
+      doys.push(doy);
+      trees.add(row.treeId);
+    }
+  }
+  return { doys, trees: trees.size };
+}
+
+/** How far to look for a station when a report has no frost dates of its own. */
+export const STATION_SEARCH_KM = 150;
+
+/** The nearest station's frost-free days at 32 deg F, 50 % level, within STATION_SEARCH_KM. */
+function nearestStationSeason(db: Db): (lat: number, lon: number) => number | null {
+  const stmt = db.sqlite.prepare(
+    `SELECT s.lat AS lat, s.lon AS lon, ss.season_days AS seasonDays
+       FROM stations_rtree t JOIN stations s ON s.id = t.id
+       JOIN station_summaries ss ON ss.station_id = s.id AND ss.threshold_f = 32 AND ss.probability = 50
+      WHERE ${boxWhere('t')} AND ss.season_days IS NOT NULL`,
+  );
+  const cache = new Map<string, number | null>();
+  return (lat, lon) => {
+    const key = `${lat},${lon}`;
+    if (cache.has(key)) return cache.get(key)!;
+    let best: { km: number; days: number } | null = null;
+    for (const box of boundingBox({ lat, lon }, STATION_SEARCH_KM)) {
+      for (const s of stmt.all(...boxParams(box)) as { lat: number; lon: number; seasonDays: number }[]) {
+        const km = distanceKm({ lat, lon }, s);
+        if (km <= STATION_SEARCH_KM && (!best || km < best.km)) best = { km, days: s.seasonDays };
+      }
+    }
+    cache.set(key, best?.days ?? null);
+    return best?.days ?? null;
+  };
+}
+
+export interface SeasonRows {
+  rows: SeasonReport[];
+  /** Reports the season decided (ripened or unripe) that had no season length. */
+  withoutSeason: number;
+  fromOwnFrostDates: number;
+  fromStations: number;
+}
+
+/**
+ * Published reports whose outcome the season decides (ripened, or still unripe at frost), each with
+ * a season length: the report's own frost dates when the grower gave both, else the nearest
+ * station's 50 % value. Reports of no fruit or dropped fruit are left out: those come from other
+ * causes (age, water, pollination) and would blur the picture.
+ */
+export function reportsWithSeason(db: Db, q: { crop: Crop; form?: GrowingForm; varietyId?: number }): SeasonRows {
+  const rows = db.sqlite
+    .prepare(
+      `SELECT tree_id AS treeId, user_id AS userId, variety_id AS varietyId, outcome, spring_frost_date AS spring, fall_frost_date AS fall,
+              grid_lat AS gridLat, grid_lon AS gridLon
+         FROM reports
+        WHERE status = 'published' AND variety_id IS NOT NULL AND crop = ? AND outcome IN ('ripened', 'unripe')
+          ${q.form ? 'AND form = ?' : ''} ${q.varietyId ? 'AND variety_id = ?' : ''}`,
+    )
+    .all(...[q.crop, q.form, q.varietyId].filter((v) => v !== undefined)) as {
+    treeId: number;
+    userId: number;
+    varietyId: number;
+    outcome: string;
+    spring: string | null;
+    fall: string | null;
+    gridLat: number;
+    gridLon: number;
+  }[];
+  const stationSeason = nearestStationSeason(db);
+  const out: SeasonReport[] = [];
+  let withoutSeason = 0;
+  let fromOwnFrostDates = 0;
+  let fromStations = 0;
+  for (const r of rows) {
+    let seasonDays = seasonDaysFromFrostDates(r.spring, r.fall);
+    if (seasonDays !== null) fromOwnFrostDates++;
+    else {
+      seasonDays = stationSeason(r.gridLat, r.gridLon);
+      if (seasonDays === null) {
+        withoutSeason++;
+        continue;
+      }
+      fromStations++;
+    }
+    out.push({ treeId: r.treeId, userId: r.userId, varietyId: r.varietyId, ripened: r.outcome === 'ripened', seasonDays });
+  }
+  return { rows: out, withoutSeason, fromOwnFrostDates, fromStations };
+}
+
+export function varietyBriefs(db: Db): Map<number, { name: string; figType: FigType }> {
+  return new Map(db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType }).from(varieties).all().map((v) => [v.id, { name: v.name, figType: v.figType }]));
+}
