@@ -7,6 +7,7 @@ import type { Config } from '../lib/config';
 import { findUserByEmail, insertUser } from '../users/users.repo';
 import { buildDemoReports } from './demo-reports';
 import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
+import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
@@ -29,6 +30,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   seedDemoReports(db);
   seedDemoWaspAreas(db);
   seedDemoSavedPlaces(db);
+  seedEditorsDemo(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {
