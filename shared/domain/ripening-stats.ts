@@ -1,0 +1,191 @@
+import type { Crop, GrowingForm, Outcome } from './codes';
+import type { Share } from '../schemas/atlas';
+
+/**
+ * Ripening statistics of one variety near a point: shares of trees that ripened, their 90 %
+ * interval, a distance-weighted share shrunk toward the variety's overall rate, and medians.
+ *
+ * Unit of evidence: the TREE. A tree reported over several seasons (and for both crops) is one
+ * tree; it contributes the fraction of its reports that ripened (3 seasons, 2 ripened = 0.667 of a
+ * success). So `trees` = distinct treeIds, `ripened` = the sum of those fractions (not always a
+ * whole number), `share` = ripened / trees.
+ */
+
+/** One report, as the server gathers it for the engine. */
+export type EvidenceReport = {
+  reportId: number;
+  treeId: number;
+  userId: number;
+  varietyId: number;
+  crop: Crop;
+  form: GrowingForm;
+  outcome: Outcome;
+  season: number;
+  /** Distance from the query point to the report's place, km. */
+  distanceKm: number;
+  firstRipeDoy: number | null;
+  springFrostDoy: number | null;
+};
+
+/**
+ * Inverse of the standard normal distribution function (Acklam's rational approximation, relative
+ * error below 1.2e-9), for the z of a confidence level.
+ */
+export function normalQuantile(p: number): number {
+  if (!(p > 0 && p < 1)) throw new RangeError('p must lie strictly between 0 and 1');
+  const a = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
+  const b = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
+  const c = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
+  const d = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
+  const low = 0.02425;
+  if (p < low) {
+    const q = Math.sqrt(-2 * Math.log(p));
+    return (((((c[0] * q + c[1]) * q + c[2]) * q + c[3]) * q + c[4]) * q + c[5]) / ((((d[0] * q + d[1]) * q + d[2]) * q + d[3]) * q + 1);
+  }
+  if (p > 1 - low) return -normalQuantile(1 - p);
+  const q = p - 0.5;
+  const r = q * q;
+  return ((((((a[0] * r + a[1]) * r + a[2]) * r + a[3]) * r + a[4]) * r + a[5]) * q) / (((((b[0] * r + b[1]) * r + b[2]) * r + b[3]) * r + b[4]) * r + 1);
+}
+
+/**
+ * Wilson score interval for a proportion (E. B. Wilson, 1927; "method 3" of Newcombe, 1998), two-sided
+ * at `confidence` (default 0.9). `successes` may be fractional (trees count fractions of seasons).
+ * Null when n is 0.
+ */
+export function wilsonInterval(successes: number, n: number, confidence = 0.9): { low: number; high: number } | null {
+  if (!(n > 0)) return null;
+  const z = normalQuantile(1 - (1 - confidence) / 2);
+  const p = Math.min(1, Math.max(0, successes / n));
+  const z2 = z * z;
+  const denom = 1 + z2 / n;
+  const centre = (p + z2 / (2 * n)) / denom;
+  const half = (z / denom) * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
+  return { low: Math.max(0, centre - half), high: Math.min(1, centre + half) };
+}
+
+type TreeTally = { reports: number; ripened: number; distanceKm: number };
+
+function tallyTrees(reports: EvidenceReport[]): Map<number, TreeTally> {
+  const trees = new Map<number, TreeTally>();
+  for (const r of reports) {
+    const t = trees.get(r.treeId) ?? { reports: 0, ripened: 0, distanceKm: r.distanceKm };
+    t.reports++;
+    if (r.outcome === 'ripened') t.ripened++;
+    t.distanceKm = Math.min(t.distanceKm, r.distanceKm);
+    trees.set(r.treeId, t);
+  }
+  return trees;
+}
+
+/**
+ * Trees, reports, ripened trees (fractional, see the module comment), the share and its 90 % Wilson
+ * interval (n = trees).
+ */
+export function summarizeShare(reports: EvidenceReport[]): Share {
+  const trees = tallyTrees(reports);
+  let ripened = 0;
+  for (const t of trees.values()) ripened += t.ripened / t.reports;
+  const n = trees.size;
+  return {
+    trees: n,
+    reports: reports.length,
+    ripened,
+    share: n > 0 ? ripened / n : null,
+    interval90: wilsonInterval(ripened, n, 0.9),
+  };
+}
+
+/** Default kernel bandwidth (km) and prior strength (in trees) of `adjustedShare`. */
+export const ADJUSTED_SHARE_DEFAULTS = { bandwidthKm: 50, priorStrength: 3 } as const;
+
+/** Plain words for the API's `method` field. */
+export const ADJUSTED_SHARE_METHOD =
+  'Each tree counts once, as the fraction of its reported seasons that ripened. Nearby trees weigh more: ' +
+  'a Gaussian distance kernel (weight exp(-d²/2h²), h = 50 km). The weighted share is then pulled toward the ' +
+  'variety’s rate everywhere, as if 3 more trees at that rate had been reported here (a beta-binomial, ' +
+  'empirical-Bayes estimate), so a variety with few local trees is not ranked on luck.';
+
+/**
+ * Distance-weighted share of ripened trees, shrunk toward the variety's overall rate:
+ *
+ *   adjusted = (Σ wᵢ fᵢ + k · p₀) / (Σ wᵢ + k),   wᵢ = exp(-dᵢ² / (2h²))
+ *
+ * where fᵢ is tree i's ripened fraction, dᵢ its distance from the point (km), h = `bandwidthKm`,
+ * p₀ = `overallShare` and k = `priorStrength`. With all weights 1 this is the posterior mean of a
+ * Beta(k·p₀, k·(1-p₀)) prior updated by the local trees. With no overall rate it is the plain weighted
+ * share; with neither, null.
+ */
+export function adjustedShare(
+  local: EvidenceReport[],
+  overallShare: number | null,
+  options: { bandwidthKm?: number; priorStrength?: number } = {},
+): number | null {
+  const h = options.bandwidthKm ?? ADJUSTED_SHARE_DEFAULTS.bandwidthKm;
+  const k = options.priorStrength ?? ADJUSTED_SHARE_DEFAULTS.priorStrength;
+  let s = 0;
+  let w = 0;
+  for (const t of tallyTrees(local).values()) {
+    const weight = Math.exp(-(t.distanceKm * t.distanceKm) / (2 * h * h));
+    s += weight * (t.ripened / t.reports);
+    w += weight;
+  }
+  if (overallShare === null) return w > 0 ? s / w : null;
+  return (s + k * overallShare) / (w + k);
+}
+
+/** Median of the finite values (mean of the middle two when even); null when there are none. */
+export function median(values: readonly (number | null | undefined)[]): number | null {
+  const xs = values.filter((v): v is number => typeof v === 'number' && Number.isFinite(v)).sort((a, b) => a - b);
+  if (xs.length === 0) return null;
+  const mid = xs.length >> 1;
+  return xs.length % 2 === 1 ? xs[mid] : (xs[mid - 1] + xs[mid]) / 2;
+}
+
+/** The median over trees of each tree's median value, so one tree's many seasons count once. */
+function medianOverTrees(reports: EvidenceReport[], value: (r: EvidenceReport) => number | null): number | null {
+  const perTree = new Map<number, number[]>();
+  for (const r of reports) {
+    const v = value(r);
+    if (v === null || !Number.isFinite(v)) continue;
+    const list = perTree.get(r.treeId) ?? [];
+    list.push(v);
+    perTree.set(r.treeId, list);
+  }
+  return median([...perTree.values()].map((list) => median(list)));
+}
+
+/** Median first-ripe day of year over trees (each tree's own median first). */
+export function medianFirstRipeDoy(reports: EvidenceReport[]): number | null {
+  return medianOverTrees(reports, (r) => r.firstRipeDoy);
+}
+
+/**
+ * Days from the last spring frost to the first ripe fig of a report; across the new year (southern
+ * hemisphere) a negative difference gains 365 days. Null when either date is missing.
+ */
+export function daysFrostToRipe(r: Pick<EvidenceReport, 'firstRipeDoy' | 'springFrostDoy'>): number | null {
+  if (r.firstRipeDoy === null || r.springFrostDoy === null) return null;
+  const d = r.firstRipeDoy - r.springFrostDoy;
+  return d < 0 ? d + 365 : d;
+}
+
+/** Median days from the last spring frost to the first ripe fig, over trees. */
+export function medianDaysFrostToRipe(reports: EvidenceReport[]): number | null {
+  return medianOverTrees(reports, daysFrostToRipe);
+}
+
+/**
+ * A variety's figures over ALL its reports (not only near the point): the overall share that the
+ * local share is shrunk toward, and the days from spring frost to first ripe main-crop fig of trees
+ * in the ground, which season fit compares with the local season. `treesBehindNeed` counts the trees
+ * that gave a days figure.
+ */
+export function varietyOverall(reports: EvidenceReport[]): { share: number | null; neededDays: number | null; treesBehindNeed: number } {
+  const need = reports.filter((r) => r.crop === 'main' && r.form === 'ground' && daysFrostToRipe(r) !== null);
+  return {
+    share: summarizeShare(reports).share,
+    neededDays: medianDaysFrostToRipe(need),
+    treesBehindNeed: new Set(need.map((r) => r.treeId)).size,
+  };
+}
