@@ -16,6 +16,8 @@ import { createAuditRouter } from './audit/audit.router';
 import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
 import { createReportsRouter } from './reports/reports.router';
 import { createUploadsRouter } from './photos/uploads.router';
+import { createReportsRouter } from './reports/reports.router';
+import { createUploadsRouter } from './photos/uploads.router';
 import { createSavedPlacesRouter } from './saved-places/saved-places.router';
 import { createGuidanceRouter } from './guidance/guidance.router';
 import { csrfGuard } from './middleware/csrf';
@@ -79,12 +81,14 @@ export function createApp(deps: AppDeps): Express {
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
   api.use('/reports', createReportsRouter({ db, config }));
+  api.use('/reports', createReportsRouter({ db, config }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use('/guidance', createGuidanceRouter({ db }));
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
+  app.use('/uploads', createUploadsRouter({ db, config }));
   app.use('/uploads', createUploadsRouter({ db, config }));
 
   const indexHtml = path.join(config.clientDir, 'index.html');

@@ -1,0 +1,381 @@
+import { and, asc, count, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import type { PublicReportRow } from '../../shared/domain/report-csv';
+import { toPublicPoint } from '../../shared/domain/public-grid';
+import type { CreateReportValues, Report, ReportFilter, ReportListItem, ReportPhoto, ReportSort, Tree } from '../../shared/schemas/reports';
+import type { Db } from '../db/client';
+import { reportFlags, reportPhotos, reports, trees, users, varieties, varietySynonyms } from '../db/schema';
+import { HttpError } from '../lib/http-error';
+import { isEditor } from '../middleware/require-role';
+import { photoUrl } from '../photos/photos';
+
+export type ReportRow = typeof reports.$inferSelect;
+type Viewer = Express.User | undefined;
+
+/** Who may see a report at all: drafts only their owner, hidden ones the owner and editors. */
+export function canView(row: Pick<ReportRow, 'status' | 'userId'>, viewer: Viewer): boolean {
+  if (row.status === 'published') return true;
+  if (viewer?.id === row.userId) return true;
+  return row.status === 'hidden' && isEditor(viewer);
+}
+
+/** Exact place and tree label: the owner's and editors' only. */
+const seesExact = (row: Pick<ReportRow, 'userId'>, viewer: Viewer) => viewer?.id === row.userId || isEditor(viewer);
+
+export function findReportRow(db: Db, id: number): ReportRow | undefined {
+  return db.select().from(reports).where(eq(reports.id, id)).get();
+}
+
+function photosOf(db: Db, reportId: number): (ReportPhoto & { fileName: string; thumbName: string })[] {
+  return db
+    .select()
+    .from(reportPhotos)
+    .where(eq(reportPhotos.reportId, reportId))
+    .orderBy(asc(reportPhotos.position), asc(reportPhotos.id))
+    .all()
+    .map((p) => ({ id: p.id, url: photoUrl(p.fileName), thumbUrl: photoUrl(p.thumbName), width: p.width, height: p.height, fileName: p.fileName, thumbName: p.thumbName }));
+}
+
+export function photoCount(db: Db, reportId: number): number {
+  return db.select({ n: count() }).from(reportPhotos).where(eq(reportPhotos.reportId, reportId)).get()!.n;
+}
+
+/** The report as this viewer may see it (call canView first). */
+export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
+  const exact = seesExact(row, viewer);
+  const isOwner = viewer?.id === row.userId;
+  const moderator = isEditor(viewer);
+  const variety = row.varietyId ? db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType, status: varieties.status }).from(varieties).where(eq(varieties.id, row.varietyId)).get() : undefined;
+  const tree = db.select({ label: trees.label }).from(trees).where(eq(trees.id, row.treeId)).get();
+  const grower = db.select({ displayName: users.displayName }).from(users).where(eq(users.id, row.userId)).get();
+  const hasOpenFlag = viewer
+    ? !!db.select({ id: reportFlags.id }).from(reportFlags).where(and(eq(reportFlags.reportId, row.id), eq(reportFlags.userId, viewer.id), eq(reportFlags.status, 'open'))).get()
+    : false;
+  const openFlags = moderator ? db.select({ n: count() }).from(reportFlags).where(and(eq(reportFlags.reportId, row.id), eq(reportFlags.status, 'open'))).get()!.n : 0;
+  return {
+    id: row.id,
+    treeId: row.treeId,
+    treeLabel: exact ? (tree?.label ?? null) : null,
+    variety: variety ?? null,
+    proposedVarietyName: row.proposedVarietyName,
+    lat: exact ? row.lat : null,
+    lon: exact ? row.lon : null,
+    gridLat: row.gridLat,
+    gridLon: row.gridLon,
+    form: row.form,
+    origin: row.origin,
+    yearPlanted: row.yearPlanted,
+    season: row.season,
+    crop: row.crop,
+    outcome: row.outcome,
+    firstRipeDate: row.firstRipeDate,
+    lastHarvestDate: row.lastHarvestDate,
+    springFrostDate: row.springFrostDate,
+    fallFrostDate: row.fallFrostDate,
+    pinched: row.pinched,
+    pinchedDate: row.pinchedDate,
+    winterProtection: row.winterProtection,
+    feeding: row.feeding,
+    watering: row.watering,
+    notes: row.notes,
+    status: row.status,
+    hiddenReason: isOwner || moderator ? row.hiddenReason : null,
+    hiddenAt: isOwner || moderator ? row.hiddenAt : null,
+    grower: { displayName: grower?.displayName ?? 'A grower' },
+    photos: photosOf(db, row.id).map(({ fileName: _f, thumbName: _t, ...photo }) => photo),
+    createdAt: row.createdAt,
+    updatedAt: row.updatedAt,
+    viewer: { isOwner, canModerate: moderator, hasOpenFlag, openFlags },
+  };
+}
+
+export { photosOf };
+
+// ---------------------------------------------------------------- lists and exports
+
+function filterConditions(filter: ReportFilter): SQL[] {
+  const conditions: SQL[] = [];
+  if (filter.varietyId !== undefined) conditions.push(eq(reports.varietyId, filter.varietyId));
+  if (filter.figType) conditions.push(eq(varieties.figType, filter.figType));
+  if (filter.crop) conditions.push(eq(reports.crop, filter.crop));
+  if (filter.outcome) conditions.push(eq(reports.outcome, filter.outcome));
+  if (filter.form) conditions.push(eq(reports.form, filter.form));
+  if (filter.seasonFrom !== undefined) conditions.push(gte(reports.season, filter.seasonFrom));
+  if (filter.seasonTo !== undefined) conditions.push(lte(reports.season, filter.seasonTo));
+  return conditions;
+}
+
+const varietyName = sql<string>`coalesce(${varieties.name}, ${reports.proposedVarietyName}, '')`;
+
+const SORT_COLUMNS: Record<ReportSort, SQL | typeof reports.season> = {
+  season: reports.season,
+  createdAt: sql`${reports.createdAt}`,
+  updatedAt: sql`${reports.updatedAt}`,
+  variety: sql`lower(${varietyName})`,
+  crop: sql`${reports.crop}`,
+  outcome: sql`${reports.outcome}`,
+  form: sql`${reports.form}`,
+  status: sql`${reports.status}`,
+};
+
+export interface ListOptions extends ReportFilter {
+  mine: boolean;
+  status?: ReportRow['status'];
+  q?: string;
+  sort: ReportSort;
+  dir: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+}
+
+/**
+ * The grower's own reports (mine, any status, exact place) or the public list (published only,
+ * grid place only).
+ */
+export function listReports(db: Db, options: ListOptions, viewer: Viewer): { reports: ReportListItem[]; total: number } {
+  const conditions = filterConditions(options);
+  if (options.mine) {
+    conditions.push(eq(reports.userId, viewer!.id));
+    if (options.status) conditions.push(eq(reports.status, options.status));
+  } else {
+    conditions.push(eq(reports.status, 'published'));
+  }
+  if (options.q) {
+    const pattern = `%${options.q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    conditions.push(options.mine ? sql`(lower(${varietyName}) LIKE ${pattern} ESCAPE '\\' OR lower(${trees.label}) LIKE ${pattern} ESCAPE '\\')` : sql`lower(${varietyName}) LIKE ${pattern} ESCAPE '\\'`);
+  }
+  const where = and(...conditions);
+  const total = db.select({ n: count() }).from(reports).leftJoin(varieties, eq(varieties.id, reports.varietyId)).innerJoin(trees, eq(trees.id, reports.treeId)).where(where).get()!.n;
+  const order = options.dir === 'asc' ? asc : desc;
+  const rows = db
+    .select({
+      id: reports.id,
+      userId: reports.userId,
+      treeId: reports.treeId,
+      treeLabel: trees.label,
+      varietyId: reports.varietyId,
+      varietyName,
+      varietyStatus: varieties.status,
+      figType: sql<ReportListItem['figType']>`coalesce(${varieties.figType}, 'unknown')`,
+      lat: reports.lat,
+      lon: reports.lon,
+      gridLat: reports.gridLat,
+      gridLon: reports.gridLon,
+      form: reports.form,
+      origin: reports.origin,
+      season: reports.season,
+      crop: reports.crop,
+      outcome: reports.outcome,
+      firstRipeDate: reports.firstRipeDate,
+      status: reports.status,
+      photoCount: sql<number>`(SELECT count(*) FROM ${reportPhotos} WHERE ${reportPhotos.reportId} = ${reports.id})`,
+      thumbName: sql<string | null>`(SELECT ${reportPhotos.thumbName} FROM ${reportPhotos} WHERE ${reportPhotos.reportId} = ${reports.id} ORDER BY ${reportPhotos.position}, ${reportPhotos.id} LIMIT 1)`,
+      growerName: users.displayName,
+      createdAt: reports.createdAt,
+      updatedAt: reports.updatedAt,
+    })
+    .from(reports)
+    .leftJoin(varieties, eq(varieties.id, reports.varietyId))
+    .innerJoin(trees, eq(trees.id, reports.treeId))
+    .innerJoin(users, eq(users.id, reports.userId))
+    .where(where)
+    .orderBy(order(SORT_COLUMNS[options.sort]), order(reports.id))
+    .limit(options.pageSize)
+    .offset((options.page - 1) * options.pageSize)
+    .all();
+  return {
+    total,
+    reports: rows.map(({ userId, thumbName, lat, lon, treeLabel, ...row }) => {
+      const exact = options.mine || seesExact({ userId }, viewer);
+      return { ...row, lat: exact ? lat : null, lon: exact ? lon : null, treeLabel: exact ? treeLabel : null, thumbUrl: thumbName ? photoUrl(thumbName) : null };
+    }),
+  };
+}
+
+/**
+ * Published reports for download. Only grid columns are selected, so an exact place cannot leak
+ * into an export by mistake.
+ */
+export function exportPublicRows(db: Db, filter: ReportFilter): PublicReportRow[] {
+  return db
+    .select({
+      reportId: reports.id,
+      treeId: reports.treeId,
+      variety: varietyName,
+      varietyStatus: sql<string>`coalesce(${varieties.status}, 'proposed')`,
+      figType: sql<PublicReportRow['figType']>`coalesce(${varieties.figType}, 'unknown')`,
+      season: reports.season,
+      crop: reports.crop,
+      outcome: reports.outcome,
+      form: reports.form,
+      origin: reports.origin,
+      yearPlanted: reports.yearPlanted,
+      gridLat: reports.gridLat,
+      gridLon: reports.gridLon,
+      firstRipeDate: reports.firstRipeDate,
+      lastHarvestDate: reports.lastHarvestDate,
+      springFrostDate: reports.springFrostDate,
+      fallFrostDate: reports.fallFrostDate,
+      pinched: reports.pinched,
+    })
+    .from(reports)
+    .leftJoin(varieties, eq(varieties.id, reports.varietyId))
+    .where(and(eq(reports.status, 'published'), ...filterConditions(filter)))
+    .orderBy(asc(reports.id))
+    .all();
+}
+
+/** The grower's trees with what their latest report said, to prefill the form. */
+export function listTrees(db: Db, userId: number): Tree[] {
+  const rows = db.select().from(trees).where(eq(trees.userId, userId)).orderBy(asc(sql`lower(${trees.label})`)).all();
+  return rows.map((tree) => {
+    const latest = db
+      .select({ varietyId: reports.varietyId, varietyName, lat: reports.lat, lon: reports.lon, form: reports.form, origin: reports.origin, yearPlanted: reports.yearPlanted })
+      .from(reports)
+      .leftJoin(varieties, eq(varieties.id, reports.varietyId))
+      .where(eq(reports.treeId, tree.id))
+      .orderBy(desc(reports.season), desc(reports.id))
+      .limit(1)
+      .get();
+    const reportCount = db.select({ n: count() }).from(reports).where(eq(reports.treeId, tree.id)).get()!.n;
+    return {
+      id: tree.id,
+      label: tree.label,
+      reportCount,
+      lastVarietyId: latest?.varietyId ?? null,
+      lastVarietyName: latest?.varietyName || null,
+      lastLat: latest?.lat ?? null,
+      lastLon: latest?.lon ?? null,
+      lastForm: latest?.form ?? null,
+      lastOrigin: latest?.origin ?? null,
+      lastYearPlanted: latest?.yearPlanted ?? null,
+    };
+  });
+}
+
+// ---------------------------------------------------------------- writes (call inside a transaction)
+
+/** A catalogue variety by name or synonym (case-insensitive), for CSV rows. */
+export function findVarietyByName(db: Db, name: string): { id: number; status: string } | undefined {
+  const lower = name.trim().toLowerCase();
+  const direct = db.select({ id: varieties.id, status: varieties.status, mergedIntoId: varieties.mergedIntoId }).from(varieties).where(sql`lower(${varieties.name}) = ${lower}`).get();
+  if (direct) return direct.status === 'merged' && direct.mergedIntoId ? { id: direct.mergedIntoId, status: 'accepted' } : direct;
+  const synonym = db
+    .select({ id: varieties.id, status: varieties.status })
+    .from(varietySynonyms)
+    .innerJoin(varieties, eq(varieties.id, varietySynonyms.varietyId))
+    .where(sql`lower(${varietySynonyms.name}) = ${lower}`)
+    .get();
+  return synonym;
+}
+
+/**
+ * The variety a report links to: a listed one (accepted, or a proposal still waiting), or the
+ * grower's proposed name, reusing a waiting proposal of the same name or creating one.
+ */
+export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyId' | 'proposedVarietyName'>, userId: number): { varietyId: number; proposedVarietyName: string | null; name: string } {
+  if (input.varietyId !== null) {
+    const row = db.select().from(varieties).where(eq(varieties.id, input.varietyId)).get();
+    if (!row || (row.status !== 'accepted' && row.status !== 'proposed')) {
+      throw new HttpError(400, 'invalid_input', 'Please check: varietyId', { varietyId: ['Choose a variety from the catalogue'] });
+    }
+    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? row.name : null, name: row.name };
+  }
+  const name = input.proposedVarietyName!;
+  const existing = findVarietyByName(db, name);
+  if (existing) {
+    if (existing.status === 'rejected') {
+      throw new HttpError(400, 'invalid_input', 'Please check: proposedVarietyName', { proposedVarietyName: ['Editors have declined this name; choose a listed variety or a different name'] });
+    }
+    const row = db.select().from(varieties).where(eq(varieties.id, existing.id)).get()!;
+    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? name : null, name: row.name };
+  }
+  const created = db.insert(varieties).values({ name, status: 'proposed', proposedByUserId: userId, figType: 'unknown' }).returning().get();
+  return { varietyId: created.id, proposedVarietyName: name, name };
+}
+
+/** The grower's existing tree, or a new one with the given label. */
+export function resolveTree(db: Db, userId: number, treeId: number | null, label: string | null, fallbackLabel: string): number {
+  if (treeId !== null) {
+    const tree = db.select().from(trees).where(eq(trees.id, treeId)).get();
+    if (!tree || tree.userId !== userId) throw new HttpError(400, 'invalid_input', 'Please check: treeId', { treeId: ['Choose one of your own trees, or a new tree'] });
+    return tree.id;
+  }
+  return db.insert(trees).values({ userId, label: label ?? fallbackLabel }).returning({ id: trees.id }).get().id;
+}
+
+/** A tree of this grower with this label (case-insensitive), for CSV rows. */
+export function findTreeByLabel(db: Db, userId: number, label: string): number | undefined {
+  return db.select({ id: trees.id }).from(trees).where(and(eq(trees.userId, userId), sql`lower(${trees.label}) = ${label.toLowerCase()}`)).get()?.id;
+}
+
+/** The stored columns of a validated input (everything but variety and tree resolution). */
+export function reportColumns(input: CreateReportValues) {
+  const grid = toPublicPoint(input.lat, input.lon);
+  return {
+    lat: input.lat,
+    lon: input.lon,
+    gridLat: grid.lat,
+    gridLon: grid.lon,
+    form: input.form,
+    origin: input.origin,
+    yearPlanted: input.yearPlanted,
+    season: input.season,
+    crop: input.crop,
+    outcome: input.outcome,
+    firstRipeDate: input.firstRipeDate,
+    lastHarvestDate: input.lastHarvestDate,
+    springFrostDate: input.springFrostDate,
+    fallFrostDate: input.fallFrostDate,
+    pinched: input.pinched,
+    pinchedDate: input.pinchedDate,
+    winterProtection: input.winterProtection,
+    feeding: input.feeding,
+    watering: input.watering,
+    notes: input.notes,
+  };
+}
+
+export function insertReport(db: Db, values: typeof reports.$inferInsert): ReportRow {
+  return db.insert(reports).values(values).returning().get();
+}
+
+export function updateReportRow(db: Db, id: number, values: Partial<typeof reports.$inferInsert>): ReportRow {
+  return db.update(reports).set(values).where(eq(reports.id, id)).returning().get()!;
+}
+
+export function deleteReportRow(db: Db, id: number): void {
+  db.delete(reports).where(eq(reports.id, id)).run();
+}
+
+export function openFlagBy(db: Db, reportId: number, userId: number) {
+  return db.select().from(reportFlags).where(and(eq(reportFlags.reportId, reportId), eq(reportFlags.userId, userId), eq(reportFlags.status, 'open'))).get();
+}
+
+export function insertFlag(db: Db, values: typeof reportFlags.$inferInsert) {
+  return db.insert(reportFlags).values(values).returning().get();
+}
+
+export function insertPhotoRow(db: Db, values: typeof reportPhotos.$inferInsert) {
+  return db.insert(reportPhotos).values(values).returning().get();
+}
+
+export function findPhotoRow(db: Db, reportId: number, photoId: number) {
+  return db.select().from(reportPhotos).where(and(eq(reportPhotos.id, photoId), eq(reportPhotos.reportId, reportId))).get();
+}
+
+export function deletePhotoRow(db: Db, photoId: number): void {
+  db.delete(reportPhotos).where(eq(reportPhotos.id, photoId)).run();
+}
+
+/** The photo row behind a stored file name (main or thumbnail) and its report, for serving files. */
+export function findPhotoByFile(db: Db, name: string): { report: ReportRow } | undefined {
+  const photo = db
+    .select({ reportId: reportPhotos.reportId })
+    .from(reportPhotos)
+    .where(sql`${reportPhotos.fileName} = ${name} OR ${reportPhotos.thumbName} = ${name}`)
+    .get();
+  if (!photo) return undefined;
+  const report = findReportRow(db, photo.reportId);
+  return report ? { report } : undefined;
+}
+
