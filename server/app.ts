@@ -6,6 +6,12 @@ import path from 'node:path';
 import type { Config } from './lib/config';
 import type { Db } from './db/client';
 import { createAuthRouter, type AuthRouterDeps } from './auth/auth.router';
+import { createPasswordResetRouter, type PasswordResetDeps } from './auth/password-reset.router';
+import { sendVerificationEmail } from './auth/verification';
+import { createVerificationRouter } from './auth/verification.router';
+import { createDevMailRouter } from './email/dev-mail.router';
+import { createDigestRouter } from './email/digest.router';
+import { createMailer, type Mailer } from './email/mailer';
 import { createPassport } from './auth/passport';
 import { SqliteSessionStore } from './auth/session-store';
 import { createUsersRouter } from './users/users.router';
@@ -14,8 +20,6 @@ import { createCatalogueRouter } from './varieties/catalogue.router';
 import { createModerationRouter } from './moderation/moderation.router';
 import { createAuditRouter } from './audit/audit.router';
 import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
-import { createReportsRouter } from './reports/reports.router';
-import { createUploadsRouter } from './photos/uploads.router';
 import { createReportsRouter } from './reports/reports.router';
 import { createUploadsRouter } from './photos/uploads.router';
 import { createSavedPlacesRouter } from './saved-places/saved-places.router';
@@ -27,6 +31,9 @@ export interface AppDeps {
   db: Db;
   config: Config;
   signInLimit?: AuthRouterDeps['signInLimit'];
+  /** Outgoing mail (server/email/index.ts starts it); without one, mail follows the SMTP settings. */
+  mailer?: Mailer;
+  forgotLimit?: PasswordResetDeps['forgotLimit'];
 }
 
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
@@ -75,12 +82,16 @@ export function createApp(deps: AppDeps): Express {
   api.get('/health', (_req, res) => {
     res.json({ ok: true });
   });
-  api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit }));
+  const mail = { db, mailer: deps.mailer ?? createMailer(config), appUrl: config.appUrl };
+  const onSignedUp = async (user: Express.User) => void (await sendVerificationEmail(mail, user));
+  api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, onSignedUp }));
+  api.use('/auth', createVerificationRouter(mail), createPasswordResetRouter({ ...mail, forgotLimit: deps.forgotLimit }));
+  api.use('/email', createDigestRouter({ db }));
+  if (config.devMail) api.use('/dev/mail', createDevMailRouter({ db }));
   api.use('/users', createUsersRouter({ db }));
   api.use('/varieties', createCatalogueRouter({ db }));
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
-  api.use('/reports', createReportsRouter({ db, config }));
   api.use('/reports', createReportsRouter({ db, config }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use('/guidance', createGuidanceRouter({ db }));
@@ -88,7 +99,6 @@ export function createApp(deps: AppDeps): Express {
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
-  app.use('/uploads', createUploadsRouter({ db, config }));
   app.use('/uploads', createUploadsRouter({ db, config }));
 
   const indexHtml = path.join(config.clientDir, 'index.html');

@@ -13,6 +13,15 @@ export interface Config {
   seedDemo: boolean;
   adminEmail?: string;
   adminPassword?: string;
+  /** Public base URL used in e-mailed links. */
+  appUrl: string;
+  /** Outgoing mail (production): the SMTP relay; unset host means no mail leaves the machine. */
+  smtp: { host?: string; port: number; user?: string; pass?: string; secure: boolean };
+  mailFrom: string;
+  /** Start the local development mail server and send all mail to it (default: outside production). */
+  devMail: boolean;
+  /** Its port; 0 picks a free one. */
+  devMailPort: number;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -29,5 +38,16 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     seedDemo: env.SYCONIUM_SEED_DEMO !== 'false',
     adminEmail: env.SYCONIUM_ADMIN_EMAIL,
     adminPassword: env.SYCONIUM_ADMIN_PASSWORD,
+    appUrl: (env.APP_URL ?? `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? 3030}`).replace(/\/+$/, ''),
+    smtp: {
+      host: env.SMTP_HOST || undefined,
+      port: Number(env.SMTP_PORT ?? (env.SMTP_SECURE === 'true' ? 465 : 587)),
+      user: env.SMTP_USER || undefined,
+      pass: env.SMTP_PASS || undefined,
+      secure: env.SMTP_SECURE === 'true',
+    },
+    mailFrom: env.MAIL_FROM ?? 'Syconium <atlas@syconium.invalid>',
+    devMail: env.SYCONIUM_DEV_MAIL ? env.SYCONIUM_DEV_MAIL === 'true' : mode !== 'production',
+    devMailPort: Number(env.SYCONIUM_DEV_MAIL_PORT ?? 0),
   };
 }

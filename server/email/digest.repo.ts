@@ -1,0 +1,102 @@
+import { randomBytes } from 'node:crypto';
+import { and, desc, eq, isNull, lte, or, sql } from 'drizzle-orm';
+import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
+import type { Crop, GrowingForm } from '../../shared/domain/codes';
+import type { Db } from '../db/client';
+import { digestSubscriptions, savedPlaces, users } from '../db/schema';
+
+export type DigestSubscriptionRow = typeof digestSubscriptions.$inferSelect;
+
+export const newUnsubscribeToken = () => randomBytes(24).toString('base64url');
+
+export function findSubscription(db: Db, userId: number): DigestSubscriptionRow | undefined {
+  return db.select().from(digestSubscriptions).where(eq(digestSubscriptions.userId, userId)).get();
+}
+
+/** Create or change a grower's subscription; the unsubscribe token is made once and kept. */
+export function upsertSubscription(db: Db, userId: number, values: { active: boolean; radiusKm: number }): DigestSubscriptionRow {
+  const updatedAt = new Date().toISOString();
+  return db
+    .insert(digestSubscriptions)
+    .values({ userId, ...values, unsubscribeToken: newUnsubscribeToken() })
+    .onConflictDoUpdate({ target: digestSubscriptions.userId, set: { ...values, updatedAt } })
+    .returning()
+    .get();
+}
+
+/** Turn a subscription off by its token alone. A token that matches nothing changes nothing. */
+export function unsubscribeByToken(db: Db, token: string): boolean {
+  const row = db
+    .update(digestSubscriptions)
+    .set({ active: false, updatedAt: new Date().toISOString() })
+    .where(eq(digestSubscriptions.unsubscribeToken, token))
+    .returning({ userId: digestSubscriptions.userId })
+    .get();
+  return !!row;
+}
+
+/** The grower's home place (the newest one marked as home). */
+export function findHomePlace(db: Db, userId: number): { name: string; lat: number; lon: number } | undefined {
+  return db
+    .select({ name: savedPlaces.name, lat: savedPlaces.lat, lon: savedPlaces.lon })
+    .from(savedPlaces)
+    .where(and(eq(savedPlaces.userId, userId), eq(savedPlaces.isHome, true)))
+    .orderBy(desc(savedPlaces.id))
+    .limit(1)
+    .get();
+}
+
+/** Active subscriptions whose last digest is at least `dueBefore` old (or that never had one). */
+export function dueSubscriptions(db: Db, dueBefore: string) {
+  return db
+    .select({ sub: digestSubscriptions, email: users.email, displayName: users.displayName })
+    .from(digestSubscriptions)
+    .innerJoin(users, eq(users.id, digestSubscriptions.userId))
+    .where(and(eq(digestSubscriptions.active, true), or(isNull(digestSubscriptions.lastSentAt), lte(digestSubscriptions.lastSentAt, dueBefore))))
+    .all();
+}
+
+export function markDigestSent(db: Db, userId: number, at: string): void {
+  db.update(digestSubscriptions).set({ lastSentAt: at }).where(eq(digestSubscriptions.userId, userId)).run();
+}
+
+export interface NearbyRipening {
+  id: number;
+  gridLat: number;
+  gridLon: number;
+  season: number;
+  crop: Crop;
+  form: GrowingForm;
+  firstRipeDate: string | null;
+  createdAt: string;
+  varietyName: string | null;
+  proposedVarietyName: string | null;
+  distanceKm: number;
+}
+
+/**
+ * Published 'ripened' reports created in (since, until] within radiusKm of a point, other growers'
+ * only: the R*Tree narrows to bounding boxes, then the exact great-circle distance decides.
+ */
+export function nearbyRipenedReports(db: Db, centre: LatLon, radiusKm: number, since: string, until: string, excludeUserId: number): NearbyRipening[] {
+  const boxes = boundingBox(centre, radiusKm);
+  const inBox = sql.join(
+    boxes.map((b) => sql`(t.min_lat >= ${b.minLat} AND t.max_lat <= ${b.maxLat} AND t.min_lon >= ${b.minLon} AND t.max_lon <= ${b.maxLon})`),
+    sql` OR `,
+  );
+  const rows = db.all<Omit<NearbyRipening, 'distanceKm'> & { lat: number; lon: number }>(sql`
+    SELECT r.id, r.lat, r.lon, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.season, r.crop, r.form,
+           r.first_ripe_date AS firstRipeDate, r.created_at AS createdAt,
+           v.name AS varietyName, r.proposed_variety_name AS proposedVarietyName
+    FROM reports_rtree t
+    JOIN reports r ON r.id = t.id
+    LEFT JOIN varieties v ON v.id = r.variety_id
+    WHERE (${inBox})
+      AND r.status = 'published' AND r.outcome = 'ripened'
+      AND r.created_at > ${since} AND r.created_at <= ${until}
+      AND r.user_id <> ${excludeUserId}
+    ORDER BY r.created_at, r.id`);
+  return rows
+    .map(({ lat, lon, ...row }) => ({ ...row, distanceKm: distanceKm(centre, { lat, lon }) }))
+    .filter((row) => row.distanceKm <= radiusKm);
+}

@@ -1,0 +1,56 @@
+import { LABELS } from '../../shared/domain/codes';
+import type { MailDeps } from './mailer';
+import { dueSubscriptions, findHomePlace, markDigestSent, nearbyRipenedReports, type NearbyRipening } from './digest.repo';
+import { describePlace } from './digest-wording';
+import { digestMessage, type DigestItem } from './templates';
+
+export const DIGEST_PERIOD_MS = 7 * 86_400_000;
+
+const longDate = (iso: string) => new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+
+function toItem(report: NearbyRipening, home: { name: string; lat: number; lon: number }): DigestItem {
+  return {
+    variety: report.varietyName ?? `“${report.proposedVarietyName ?? 'unnamed'}” (name awaiting review)`,
+    crop: report.crop === 'breba' ? 'breba' : 'main crop',
+    form: LABELS.growingForm[report.form].toLowerCase(),
+    season: report.season,
+    firstRipe: report.firstRipeDate ? longDate(report.firstRipeDate) : 'date not given',
+    where: describePlace(home, { lat: report.gridLat, lon: report.gridLon }, 'your home place'),
+    grid: `${report.gridLat.toFixed(2)}, ${report.gridLon.toFixed(2)}`,
+  };
+}
+
+/**
+ * The weekly nearby digest. Each active subscription whose last digest is a week old (or that
+ * never had one) gets the published 'ripened' reports created within its radius of the home place
+ * since then (a first digest looks back one week). A week with nothing new sends nothing but
+ * still moves the window on. Growers without a home place are skipped until they save one.
+ */
+export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise<{ sent: number; checked: number }> {
+  const nowIso = now.toISOString();
+  const weekAgo = new Date(now.getTime() - DIGEST_PERIOD_MS).toISOString();
+  let sent = 0;
+  const due = dueSubscriptions(deps.db, weekAgo);
+  for (const { sub, email, displayName } of due) {
+    const home = findHomePlace(deps.db, sub.userId);
+    if (!home) continue;
+    const since = sub.lastSentAt ?? weekAgo;
+    const reports = nearbyRipenedReports(deps.db, home, sub.radiusKm, since, nowIso, sub.userId);
+    if (reports.length) {
+      const message = digestMessage({
+        displayName,
+        homeName: home.name,
+        radiusKm: sub.radiusKm,
+        since: longDate(since),
+        items: reports.map((r) => toItem(r, home)),
+        atlasUrl: `${deps.appUrl}/?lat=${home.lat.toFixed(3)}&lon=${home.lon.toFixed(3)}`,
+        settingsUrl: `${deps.appUrl}/account`,
+        unsubscribeUrl: `${deps.appUrl}/unsubscribe?token=${sub.unsubscribeToken}`,
+      });
+      await deps.mailer.send({ to: email, ...message, headers: { 'List-Unsubscribe': `<${deps.appUrl}/unsubscribe?token=${sub.unsubscribeToken}>` } });
+      sent++;
+    }
+    markDigestSent(deps.db, sub.userId, nowIso);
+  }
+  return { sent, checked: due.length };
+}

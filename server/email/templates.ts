@@ -1,0 +1,110 @@
+import { renderEmail, type Block, type RenderedEmail } from './layout';
+
+/** Syconium's messages, in its own voice. Every function returns both parts. */
+
+const SIGN_OFF: Block = { kind: 'p', text: 'Happy growing,\nthe Syconium atlas' };
+
+export function verifyEmailMessage(input: { displayName: string; url: string; expiresHours: number }): RenderedEmail {
+  return renderEmail({
+    subject: 'Confirm your e-mail for Syconium',
+    heading: `Welcome to the atlas, ${input.displayName}`,
+    blocks: [
+      { kind: 'p', text: 'Thank you for joining Syconium. One step is left: confirm that this address is yours. Until then you can browse the atlas and draft your harvest reports; they go public once the address is confirmed.' },
+      { kind: 'button', label: 'Confirm my e-mail', url: input.url },
+      { kind: 'p', text: `The link works once and for ${input.expiresHours} hours. You can ask for a new one from the banner on the site.` },
+      SIGN_OFF,
+    ],
+    footer: [{ kind: 'p', text: 'You get this message because someone created a Syconium account with this address. If it was not you, ignore it: nothing is published until the address is confirmed.' }],
+  });
+}
+
+export function resetPasswordMessage(input: { displayName: string; url: string; expiresMinutes: number }): RenderedEmail {
+  return renderEmail({
+    subject: 'Choose a new Syconium password',
+    heading: 'A new password for your account',
+    blocks: [
+      { kind: 'p', text: `Hello ${input.displayName}, someone (we hope you) asked to reset the password of your Syconium account.` },
+      { kind: 'button', label: 'Choose a new password', url: input.url },
+      { kind: 'p', text: `The link works once and for ${input.expiresMinutes} minutes. Setting a new password signs your account out everywhere else.` },
+      SIGN_OFF,
+    ],
+    footer: [{ kind: 'p', text: 'If you did not ask for this, ignore this message: your password stays as it is.' }],
+  });
+}
+
+export interface DigestItem {
+  variety: string;
+  crop: string;
+  form: string;
+  season: number;
+  firstRipe: string;
+  /** Town-level wording, e.g. "about 12 km north-east of your home place". */
+  where: string;
+  /** Public grid position, never the exact point. */
+  grid: string;
+}
+
+export function digestMessage(input: {
+  displayName: string;
+  homeName: string;
+  radiusKm: number;
+  since: string;
+  items: DigestItem[];
+  atlasUrl: string;
+  settingsUrl: string;
+  unsubscribeUrl: string;
+}): RenderedEmail {
+  const count = input.items.length;
+  const varieties = new Set(input.items.map((i) => i.variety)).size;
+  return renderEmail({
+    subject: `${count} fig${count === 1 ? '' : 's'} ripened near ${input.homeName} this week`,
+    heading: `New ripening reports within ${input.radiusKm} km`,
+    blocks: [
+      {
+        kind: 'p',
+        text: `Hello ${input.displayName}, since ${input.since} growers posted ${count} report${count === 1 ? '' : 's'} of figs that ripened within ${input.radiusKm} km of ${input.homeName}, covering ${varieties} variet${varieties === 1 ? 'y' : 'ies'}.`,
+      },
+      { kind: 'table', head: ['Variety', 'Season and crop', 'Grown', 'First ripe', 'Where'], rows: input.items.map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} (grid ${i.grid})`]) },
+      { kind: 'note', text: 'Places are shown on the atlas’s public 5 km grid; growers’ exact gardens stay private.' },
+      { kind: 'button', label: 'See the atlas around your home', url: input.atlasUrl },
+      SIGN_OFF,
+    ],
+    footer: [
+      { kind: 'p', text: `You get this weekly digest because you asked for it on your Syconium account page (radius ${input.radiusKm} km).` },
+      { kind: 'link', label: 'Change the radius', url: input.settingsUrl },
+      { kind: 'link', label: 'Unsubscribe from this digest', url: input.unsubscribeUrl },
+    ],
+  });
+}
+
+export interface AlertFlag {
+  reportId: number;
+  variety: string;
+  reason: string;
+  flaggedBy: string;
+}
+export interface AlertProposal {
+  name: string;
+  proposedBy: string;
+}
+
+export function editorAlertMessage(input: { displayName: string; flags: AlertFlag[]; proposals: AlertProposal[]; editorsUrl: string }): RenderedEmail {
+  const parts = [
+    input.flags.length ? `${input.flags.length} flagged report${input.flags.length === 1 ? '' : 's'}` : null,
+    input.proposals.length ? `${input.proposals.length} proposed variety name${input.proposals.length === 1 ? '' : 's'}` : null,
+  ].filter(Boolean);
+  const blocks: Block[] = [{ kind: 'p', text: `Hello ${input.displayName}, this is what arrived for editors since the last summary.` }];
+  if (input.flags.length) {
+    blocks.push({ kind: 'table', head: ['Report', 'Variety', 'Reason', 'Flagged by'], rows: input.flags.map((f) => [`#${f.reportId}`, f.variety, f.reason, f.flaggedBy]) });
+  }
+  if (input.proposals.length) {
+    blocks.push({ kind: 'list', items: input.proposals.map((p) => `“${p.name}”, proposed by ${p.proposedBy}`) });
+  }
+  blocks.push({ kind: 'button', label: 'Open the editors’ desk', url: input.editorsUrl }, SIGN_OFF);
+  return renderEmail({
+    subject: `Syconium editors: ${parts.join(' and ')}`,
+    heading: 'Waiting for an editor',
+    blocks,
+    footer: [{ kind: 'p', text: 'Editors and admins get one summary every few minutes at most, however many flags arrive.' }],
+  });
+}

@@ -1,0 +1,22 @@
+import { runNearbyDigest } from '../email/digest';
+import { EDITOR_ALERT_EVERY_MS, runEditorAlerts, type AlertWatermark } from '../email/editor-alerts';
+import type { MailDeps } from '../email/mailer';
+import type { JobDefinition } from './scheduler';
+
+/** Syconium's scheduled jobs. */
+export function appJobs(deps: MailDeps): JobDefinition<any>[] {
+  const editorAlerts: JobDefinition<AlertWatermark> = {
+    name: 'editor-alerts',
+    everyMs: EDITOR_ALERT_EVERY_MS,
+    run: ({ state }) => runEditorAlerts(deps, state),
+  };
+  const nearbyDigest: JobDefinition = {
+    name: 'nearby-digest',
+    // Hourly: each subscription is due a week after its own last digest.
+    everyMs: 60 * 60_000,
+    run: async ({ now }) => {
+      await runNearbyDigest(deps, now);
+    },
+  };
+  return [editorAlerts, nearbyDigest];
+}
