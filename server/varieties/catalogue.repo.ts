@@ -203,7 +203,11 @@ export function importCatalogue(db: Db, rows: VarietyInput[], actorId: number): 
         }
       } catch (error) {
         // name the CSV row (header is row 1) so the editor can find it
-        if (error instanceof HttpError) throw new HttpError(error.status, error.code, `Row ${index + 2}: ${error.message}`, { rows: [`Row ${index + 2}: ${error.message}`] });
+        if (error instanceof HttpError) {
+          const row = index + 2;
+          const fields = Object.fromEntries(Object.entries(error.fields ?? { _: [error.message] }).map(([key, messages]) => [`row ${row}.${key}`, messages]));
+          throw new HttpError(400, 'invalid_csv', `Nothing was imported. Row ${row}: ${error.message}`, fields);
+        }
         throw error;
       }
     });
