@@ -1,0 +1,95 @@
+// Synthetic (invented) growers, trees and reports in bulk, for the load script and reliability tests.
+// One transaction with prepared statements: 200,000 reports take a few seconds.
+import type Database from 'better-sqlite3';
+import { CROPS, GROWING_FORMS, OUTCOMES, PLANT_ORIGINS } from '../shared/domain/codes';
+import { snapToGrid } from '../shared/domain/public-grid';
+
+/** A small deterministic generator (mulberry32), so runs are repeatable. */
+function random(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Towns where the synthetic growers cluster (lat, lon): real places, invented growers. */
+const CENTRES: [number, number][] = [
+  [42.65, -73.75], [40.71, -74.0], [47.61, -122.33], [45.52, -122.68], [37.77, -122.42], [34.05, -118.24],
+  [51.51, -0.13], [48.86, 2.35], [52.52, 13.4], [41.9, 12.5], [40.42, -3.7], [-33.87, 151.21],
+  [-37.81, 144.96], [35.68, 139.69], [43.65, -79.38], [39.95, -75.17], [38.9, -77.04], [53.35, -6.26],
+];
+
+export interface SyntheticOptions {
+  reports: number;
+  growers: number;
+  /** argon2 hash given to every synthetic account. */
+  passwordHash: string;
+  /** E-mail of grower i: default `load-grower-<i>@synthetic.syconium.test`. */
+  emailOf?: (i: number) => string;
+  seed?: number;
+  /** Latest season year (reports spread over the ten years before it). */
+  lastSeason?: number;
+}
+
+export const syntheticEmail = (i: number) => `load-grower-${i}@synthetic.syconium.test`;
+
+/**
+ * Insert growers (verified e-mail), one to five trees each, and `reports` published reports on
+ * them, all in one transaction. Needs at least one variety in the catalogue. Returns the new ids.
+ */
+export function insertSyntheticData(sqlite: Database.Database, options: SyntheticOptions): { userIds: number[]; firstReportId: number; lastReportId: number } {
+  const rand = random(options.seed ?? 2026);
+  const pick = <T>(list: readonly T[]): T => list[Math.floor(rand() * list.length)]!;
+  const emailOf = options.emailOf ?? syntheticEmail;
+  const lastSeason = options.lastSeason ?? new Date().getUTCFullYear() - 1;
+  const varietyIds = sqlite.prepare("SELECT id FROM varieties WHERE status = 'accepted'").pluck().all() as number[];
+  if (varietyIds.length === 0) throw new Error('insertSyntheticData needs at least one accepted variety');
+
+  const insertUser = sqlite.prepare(
+    "INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo) VALUES (?, ?, ?, 'grower', strftime('%Y-%m-%dT%H:%M:%fZ','now'), 0)",
+  );
+  const insertTree = sqlite.prepare('INSERT INTO trees (user_id, label) VALUES (?, ?)');
+  const insertReport = sqlite.prepare(`INSERT INTO reports
+    (user_id, tree_id, variety_id, lat, lon, grid_lat, grid_lon, form, origin, year_planted, season, crop, outcome,
+     first_ripe_date, last_harvest_date, pinched, notes, status)
+    VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'published')`);
+
+  return sqlite.transaction(() => {
+    const growers: { userId: number; lat: number; lon: number; trees: { id: number; varietyId: number }[] }[] = [];
+    for (let i = 0; i < options.growers; i++) {
+      const userId = Number(insertUser.run(emailOf(i), `Synthetic grower ${i}`, options.passwordHash).lastInsertRowid);
+      const [clat, clon] = pick(CENTRES);
+      const lat = clat + (rand() - 0.5) * 1.5;
+      const lon = clon + (rand() - 0.5) * 2;
+      const trees = Array.from({ length: 1 + Math.floor(rand() * 5) }, (_, t) => {
+        const varietyId = pick(varietyIds);
+        return { id: Number(insertTree.run(userId, `Synthetic tree ${t + 1}`).lastInsertRowid), varietyId };
+      });
+      growers.push({ userId, lat, lon, trees });
+    }
+    let firstReportId = 0;
+    let lastReportId = 0;
+    for (let r = 0; r < options.reports; r++) {
+      const grower = growers[r % growers.length]!;
+      const tree = pick(grower.trees);
+      const lat = Math.round((grower.lat + (rand() - 0.5) * 0.02) * 1e5) / 1e5;
+      const lon = Math.round((grower.lon + (rand() - 0.5) * 0.02) * 1e5) / 1e5;
+      const season = lastSeason - Math.floor(rand() * 10);
+      const outcome = pick(OUTCOMES);
+      const ripe = outcome === 'ripened' ? `${season}-08-${String(10 + Math.floor(rand() * 19)).padStart(2, '0')}` : null;
+      const id = Number(
+        insertReport.run(
+          grower.userId, tree.id, tree.varietyId, lat, lon, snapToGrid(lat), snapToGrid(lon), pick(GROWING_FORMS), pick(PLANT_ORIGINS),
+          season - 1 - Math.floor(rand() * 8), season, pick(CROPS), outcome, ripe, ripe ? `${season}-09-30` : null, 0, 'Synthetic load-test report',
+        ).lastInsertRowid,
+      );
+      if (!firstReportId) firstReportId = id;
+      lastReportId = id;
+    }
+    return { userIds: growers.map((g) => g.userId), firstReportId, lastReportId };
+  })();
+}
