@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { buildFitResponse, buildNearResponse, type VarietyInfo } from '../../shared/domain/evidence';
+import type { EvidenceReport } from '../../shared/domain/ripening-stats';
+import { varietyOverall } from '../../shared/domain/ripening-stats';
+import { estimateSeason } from '../../shared/domain/season-estimate';
+import { fitResponseSchema, nearResponseSchema } from '../../shared/schemas/atlas';
+
+let nextId = 1;
+const r = (over: Partial<EvidenceReport>): EvidenceReport => ({
+  reportId: nextId++,
+  treeId: 1,
+  userId: 1,
+  varietyId: 1,
+  crop: 'main',
+  form: 'ground',
+  outcome: 'ripened',
+  season: 2024,
+  distanceKm: 10,
+  firstRipeDoy: null,
+  springFrostDoy: null,
+  ...over,
+});
+
+const common: VarietyInfo = { id: 1, name: 'Fictional Amber', figType: 'common', ripeningClass: 'early', isFictional: true, typicalDaysToRipen: null };
+const smyrna: VarietyInfo = { id: 2, name: 'Fictional Brass', figType: 'smyrna', ripeningClass: 'mid', isFictional: true, typicalDaysToRipen: 125 };
+const season = estimateSeason({
+  point: { lat: 42.7, lon: -73.8 },
+  stations: [{ id: 1, name: 'Albany', lat: 42.7431, lon: -73.8092, days10: 145, days50: 161, days90: 180, lastSpringDoy50: 119, firstFallDoy50: 285 }],
+  reportFrostSeasons: [],
+  radiusKm: 100,
+});
+
+describe('buildNearResponse', () => {
+  it('gives the wire shape, counts trees and growers once, and ranks', () => {
+    const amber = [
+      r({ varietyId: 1, treeId: 10, userId: 100, season: 2022, springFrostDoy: 120, firstRipeDoy: 235 }),
+      r({ varietyId: 1, treeId: 10, userId: 100, season: 2023, springFrostDoy: 118, firstRipeDoy: 240 }),
+      r({ varietyId: 1, treeId: 10, userId: 100, season: 2023, crop: 'breba', outcome: 'dropped' }),
+      r({ varietyId: 1, treeId: 11, userId: 101, form: 'container', outcome: 'unripe' }),
+    ];
+    const brass = [r({ varietyId: 2, treeId: 20, userId: 100 }), r({ varietyId: 2, treeId: 21, userId: 102 })];
+    const response = buildNearResponse({
+      point: { lat: 42.7, lon: -73.8 },
+      radiusKm: 100,
+      season,
+      wasp: { established: false, areas: [] },
+      varieties: [
+        { variety: smyrna, localReports: brass, overall: varietyOverall(brass) },
+        { variety: common, localReports: amber, overall: { share: 0.6, neededDays: null, treesBehindNeed: 0 } },
+        { variety: { ...common, id: 3, name: 'Fictional Unreported' }, localReports: [], overall: { share: null, neededDays: null, treesBehindNeed: 0 } },
+      ],
+    });
+    expect(nearResponseSchema.parse(response)).toEqual(response);
+    expect(response.totals).toEqual({ reports: 6, trees: 4, growers: 3 });
+    expect(response.varieties.map((v) => v.name)).toEqual(['Fictional Amber', 'Fictional Brass']);
+    const [amberEvidence, brassEvidence] = response.varieties;
+    // Tree 10: 2 of 3 reports ripened; tree 11: 0 of 1. Two trees, 0.667 ripened.
+    expect(amberEvidence.all).toMatchObject({ trees: 2, reports: 4 });
+    expect(amberEvidence.all.share).toBeCloseTo(1 / 3, 12);
+    expect(amberEvidence.byCrop.breba).toMatchObject({ trees: 1, share: 0 });
+    expect(amberEvidence.byForm.container).toMatchObject({ trees: 1, share: 0 });
+    expect(amberEvidence.growers).toBe(2);
+    expect(amberEvidence.medianFirstRipeDoy).toBe(237.5);
+    expect(amberEvidence.medianDaysFrostToRipe).toBe(118.5);
+    expect(amberEvidence.seasonFit).toMatchObject({ neededFrom: 'catalogue', neededDays: 110, localSeasonDays: 161, verdict: 'likely' });
+    expect(brassEvidence.pollination.main.fruitExpected).toBe('no');
+    expect(brassEvidence.all.share).toBe(1);
+    expect(response.method).toMatch(/Gaussian/);
+  });
+});
+
+describe('buildFitResponse', () => {
+  it('gives the fit for a form with the pollination of both crops', () => {
+    const fit = buildFitResponse({ variety: smyrna, overall: { share: null, neededDays: null, treesBehindNeed: 0 }, season, waspEstablished: true, form: 'container' });
+    expect(fitResponseSchema.parse(fit)).toEqual(fit);
+    expect(fit.seasonFit).toMatchObject({ neededDays: 125, headStartDays: 21, marginDays: 161 + 21 - 125, verdict: 'likely' });
+    expect(fit.pollination.main.fruitExpected).toBe('yes');
+  });
+});
