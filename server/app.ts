@@ -24,6 +24,10 @@ import { createReportsRouter } from './reports/reports.router';
 import { createUploadsRouter } from './photos/uploads.router';
 import { createSavedPlacesRouter } from './saved-places/saved-places.router';
 import { createGuidanceRouter } from './guidance/guidance.router';
+import { createPinsRouter } from './atlas-pins/pins.router';
+import { createPlacesRouter } from './places/places.router';
+import { createTilesRouter } from './tiles/tiles.router';
+import { createAtlasRouter } from './atlas/atlas.router';
 import { csrfGuard } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -89,17 +93,21 @@ export function createApp(deps: AppDeps): Express {
   api.use('/email', createDigestRouter({ db }));
   if (config.devMail) api.use('/dev/mail', createDevMailRouter({ db }));
   api.use('/users', createUsersRouter({ db }));
+  api.use(createAtlasRouter({ db })); // /atlas/near and /varieties/:id/fit
   api.use('/varieties', createCatalogueRouter({ db }));
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
   api.use('/reports', createReportsRouter({ db, config }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use('/guidance', createGuidanceRouter({ db }));
+  api.use('/atlas/pins', createPinsRouter({ db }));
+  api.use('/places', createPlacesRouter());
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
   app.use('/uploads', createUploadsRouter({ db, config }));
+  app.use('/tiles', createTilesRouter({ tilesDir: config.tilesDir }));
 
   const indexHtml = path.join(config.clientDir, 'index.html');
   if (config.env !== 'test' && fs.existsSync(indexHtml)) {

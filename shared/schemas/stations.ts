@@ -18,3 +18,55 @@ export type StationListItem = z.infer<typeof stationListItemSchema>;
 
 /** GET /api/stations (public). */
 export const stationListSchema = z.object({ stations: z.array(stationListItemSchema) });
+
+/** Units a station file's temperatures may be in; they are stored in deg C. */
+export const STATION_UNITS = ['C', 'F'] as const;
+export type StationUnit = (typeof STATION_UNITS)[number];
+
+const emptyToUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+
+/**
+ * POST /api/stations/upload: the form fields sent beside the CSV file (multipart, so every value
+ * arrives as text). A station with the same code is replaced; without a code, a new one is made.
+ */
+export const stationUploadFieldsSchema = z.object({
+  name: z.string({ message: 'name is required' }).trim().min(1, { message: 'name is required' }).max(120, { message: 'name must be at most 120 characters' }),
+  code: z.preprocess(emptyToUndefined, z.string().trim().max(40, { message: 'code must be at most 40 characters' }).optional()),
+  lat: z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' }),
+  lon: z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' }),
+  elevationM: z.preprocess(
+    emptyToUndefined,
+    z.coerce.number({ message: 'elevationM must be a number' }).min(-450, { message: 'elevationM must be at least -450' }).max(9000, { message: 'elevationM must be at most 9000' }).optional(),
+  ),
+  unit: z.enum(STATION_UNITS, { message: 'unit must be C or F' }),
+});
+export type StationUploadFields = z.infer<typeof stationUploadFieldsSchema>;
+
+/** One year's freeze dates at one threshold (day of year; null = no freeze that half-year). */
+export const stationFreezeYearSchema = z.object({
+  thresholdF: z.number().int(),
+  year: z.number().int(),
+  lastSpringDoy: z.number().int().nullable(),
+  firstFallDoy: z.number().int().nullable(),
+  seasonDays: z.number().int().nullable(),
+});
+export type StationFreezeYear = z.infer<typeof stationFreezeYearSchema>;
+
+/** Dates and season length at one threshold and probability (10 / 50 / 90 %), over `years` years. */
+export const stationSummarySchema = z.object({
+  thresholdF: z.number().int(),
+  probability: z.number().int(),
+  lastSpringDoy: z.number().int().nullable(),
+  firstFallDoy: z.number().int().nullable(),
+  seasonDays: z.number().int().nullable(),
+  years: z.number().int(),
+});
+export type StationSummary = z.infer<typeof stationSummarySchema>;
+
+/** GET /api/stations/:id and the answer to an upload. */
+export const stationDetailSchema = z.object({
+  station: stationListItemSchema,
+  freezeYears: z.array(stationFreezeYearSchema),
+  summaries: z.array(stationSummarySchema),
+});
+export type StationDetail = z.infer<typeof stationDetailSchema>;

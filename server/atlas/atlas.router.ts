@@ -1,0 +1,63 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
+import { estimateSeason } from '../../shared/domain/season-estimate';
+import { fitQuerySchema, fitResponseSchema, nearQuerySchema, nearResponseSchema, type NearResponse } from '../../shared/schemas/atlas';
+import type { Db } from '../db/client';
+import { notFound } from '../lib/http-error';
+import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
+import { acceptedVarieties, reportFrostSeasons, reportsNear, stationSeasonsNear, type NearReport } from './atlas.repo';
+import { overallByVariety } from './overall-cache';
+
+const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+const NO_OVERALL = { share: null, neededDays: null, treesBehindNeed: 0 };
+
+function waspAt(db: Db, lat: number, lon: number): NearResponse['wasp'] {
+  const areas = findWaspAreasAt(db, lat, lon).map((a) => ({ id: a.id, name: a.name, source: a.source, observedOn: a.observedOn }));
+  return { established: areas.length > 0, areas };
+}
+
+/**
+ * The regional engine's reads: GET /atlas/near and GET /varieties/:id/fit. Mounted on /api before
+ * the varieties router, so /varieties/:id/fit never reaches it. Public: answers carry only counts
+ * and shares, never a report's place.
+ */
+export function createAtlasRouter({ db }: { db: Db }): Router {
+  const router = Router();
+
+  router.get('/atlas/near', (req, res) => {
+    const query = nearQuerySchema.parse(req.query);
+    const point = { lat: query.lat, lon: query.lon };
+    const reports = reportsNear(db, point, query.radiusKm);
+    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(reports), radiusKm: query.radiusKm });
+    const catalogue = acceptedVarieties(db);
+    const overall = overallByVariety(db);
+    const byVariety = new Map<number, NearReport[]>();
+    for (const r of reports) {
+      let list = byVariety.get(r.varietyId);
+      if (!list) byVariety.set(r.varietyId, (list = []));
+      list.push(r);
+    }
+    const varieties: VarietyEvidenceInput[] = [];
+    for (const [id, localReports] of byVariety) {
+      const variety = catalogue.get(id);
+      if (variety) varieties.push({ variety, localReports, overall: overall.get(id) ?? NO_OVERALL });
+    }
+    const body = buildNearResponse({ point, radiusKm: query.radiusKm, form: query.form, season, wasp: waspAt(db, query.lat, query.lon), varieties });
+    res.json(nearResponseSchema.parse(body));
+  });
+
+  router.get('/varieties/:id/fit', (req, res) => {
+    const { id } = idParamsSchema.parse(req.params);
+    const query = fitQuerySchema.parse(req.query);
+    const variety = acceptedVarieties(db).get(id);
+    if (!variety) throw notFound('Variety');
+    const point = { lat: query.lat, lon: query.lon };
+    const reports = reportsNear(db, point, query.radiusKm);
+    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(reports), radiusKm: query.radiusKm });
+    const body = buildFitResponse({ variety, overall: overallByVariety(db).get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
+    res.json(fitResponseSchema.parse(body));
+  });
+
+  return router;
+}

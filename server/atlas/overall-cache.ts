@@ -1,0 +1,38 @@
+import { varietyOverall } from '../../shared/domain/ripening-stats';
+import type { Db } from '../db/client';
+import type { VarietyOverall } from '../../shared/domain/evidence';
+import { dataVersion, reportsByVariety } from './atlas.repo';
+
+/**
+ * Each variety's rate over all its reports everywhere, which local shares lean toward. It reads every
+ * published report, so it is kept per database and recomputed only when the data changed. When one
+ * computation is slow (a large atlas), a changed atlas is re-read at most every `MAX_STALE_MS`: the
+ * overall rates may then lag new reports by that much.
+ */
+export const MAX_STALE_MS = 30_000;
+const SLOW_MS = 50;
+
+interface Entry {
+  version: string;
+  computedAt: number;
+  tookMs: number;
+  overall: Map<number, VarietyOverall>;
+}
+
+const cache = new WeakMap<Db, Entry>();
+
+export function computeOverall(db: Db): Map<number, VarietyOverall> {
+  const overall = new Map<number, VarietyOverall>();
+  for (const { varietyId, reports } of reportsByVariety(db)) overall.set(varietyId, varietyOverall(reports));
+  return overall;
+}
+
+export function overallByVariety(db: Db, now = Date.now()): Map<number, VarietyOverall> {
+  const version = dataVersion(db);
+  const entry = cache.get(db);
+  if (entry && (entry.version === version || (entry.tookMs >= SLOW_MS && now - entry.computedAt < MAX_STALE_MS))) return entry.overall;
+  const started = performance.now();
+  const overall = computeOverall(db);
+  cache.set(db, { version, computedAt: now, tookMs: performance.now() - started, overall });
+  return overall;
+}

@@ -1,0 +1,94 @@
+import { freezeSummary, freezeYears } from '../../shared/domain/frost';
+import type { Db } from '../db/client';
+import { computeFreezeTables } from '../stations/station-import';
+import { findStationIdByCode, writeStation, type StationDayRow, type StationMeta } from '../stations/stations.repo';
+import { DEMO_TOWNS, type DemoTown } from './demo-scenario';
+import { seededRandom } from './random';
+
+/** Years of synthetic record for the invented stations (kept short so seeding stays quick). */
+const SYNTHETIC_YEARS = { first: 2001, last: 2020 };
+
+/** Towns that have a real station in the demo instead of a synthetic one. */
+const TOWNS_WITH_REAL_STATIONS = new Set(['Albany, NY', 'Milwaukee, WI']);
+
+function isoDate(epochDay: number): string {
+  return new Date(epochDay * 86_400_000).toISOString().slice(0, 10);
+}
+
+/**
+ * Invented daily minima for a demo town: a yearly cosine that crosses 0 deg C `halfWidth` days either
+ * side of mid-season, plus day-to-day weather (autocorrelated noise) and a yearly offset.
+ * Deterministic for a given seed. Not climate data: it only makes the demo's frost layer agree with
+ * the demo story's season lengths.
+ */
+function syntheticDays(town: DemoTown, halfWidth: number, seed: number): StationDayRow[] {
+  const random = seededRandom(seed);
+  const gauss = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
+  const amplitude = 11;
+  const mid = town.springFrostDoy + town.seasonDays / 2;
+  const offset = -amplitude * Math.cos((2 * Math.PI * halfWidth) / 365);
+  const days: StationDayRow[] = [];
+  let weather = 0;
+  for (let year = SYNTHETIC_YEARS.first; year <= SYNTHETIC_YEARS.last; year++) {
+    const yearShift = gauss() * 1.2;
+    const start = Math.round(Date.UTC(year, 0, 1) / 86_400_000);
+    const length = year % 4 === 0 ? 366 : 365;
+    for (let doy = 1; doy <= length; doy++) {
+      weather = 0.7 * weather + gauss() * 2.2;
+      const tminC = amplitude * Math.cos((2 * Math.PI * (doy - mid)) / 365) + offset + yearShift + weather;
+      days.push({ date: isoDate(start + doy - 1), tminC: Math.round(tminC * 10) / 10, tmaxC: Math.round((tminC + 9 + gauss()) * 10) / 10 });
+    }
+  }
+  return days;
+}
+
+/** Median 32 deg F season of a synthetic record, used to tune it to the story's season length. */
+function median32(days: StationDayRow[]): number {
+  return freezeSummary(freezeYears(days, 0), [50])[0]?.seasonDays ?? 0;
+}
+
+/** Synthetic days whose median 32 deg F season is within a few days of the town's story. */
+export function calibratedSyntheticDays(town: DemoTown, seed: number): StationDayRow[] {
+  // Day-to-day weather brings the freezes inward, so widen the warm half until the median fits.
+  // Two correction steps at most: "roughly" is enough, and seeding stays quick.
+  let halfWidth = town.seasonDays / 2 + 14;
+  let days = syntheticDays(town, halfWidth, seed);
+  for (let step = 0; step < 2; step++) {
+    const miss = town.seasonDays - median32(days);
+    if (Math.abs(miss) <= 4) break;
+    halfWidth += miss * 0.5;
+    days = syntheticDays(town, halfWidth, seed);
+  }
+  return days;
+}
+
+export const demoStationCode = (town: DemoTown) => `DEMO-${town.name.toUpperCase().replace(/[^A-Z]+/g, '-').replace(/-+$/, '')}`;
+
+/** The invented stations: one a few km from each demo town that has no real station. */
+export function syntheticStationMetas(): { town: DemoTown; meta: StationMeta }[] {
+  return DEMO_TOWNS.filter((town) => !TOWNS_WITH_REAL_STATIONS.has(town.name)).map((town, i) => ({
+    town,
+    meta: {
+      name: `${town.name} (demo, synthetic)`,
+      code: demoStationCode(town),
+      lat: Math.round((town.lat + 0.06 * (i % 2 === 0 ? 1 : -1)) * 1e4) / 1e4,
+      lon: Math.round((town.lon + 0.08) * 1e4) / 1e4,
+      elevationM: null,
+    },
+  }));
+}
+
+/**
+ * Demo climate stations: synthetic ones for the demo towns. Idempotent: a station whose code is
+ * already there is left alone.
+ */
+export function seedDemoStations(db: Db): void {
+  const missing = syntheticStationMetas().filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
+  if (missing.length === 0) return;
+  db.transaction(() => {
+    missing.forEach(({ town, meta }, i) => {
+      const days = calibratedSyntheticDays(town, 1991 + i);
+      writeStation(db, meta, { days, ...computeFreezeTables(days, meta.lat) });
+    });
+  });
+}

@@ -1,0 +1,187 @@
+import type { Statement } from 'better-sqlite3';
+import { and, asc, eq } from 'drizzle-orm';
+import type { BoundingBox } from '../../shared/domain/geo';
+import type { StationDetail, StationListItem } from '../../shared/schemas/stations';
+import type { Db } from '../db/client';
+import { stationDays, stationFreezeYears, stations, stationSummaries } from '../db/schema';
+import { recordAudit } from '../audit/audit.repo';
+
+export interface StationDayRow {
+  date: string;
+  tminC: number;
+  tmaxC: number | null;
+}
+
+export interface StationMeta {
+  name: string;
+  code: string | null;
+  lat: number;
+  lon: number;
+  elevationM: number | null;
+}
+
+export interface StationData {
+  days: StationDayRow[];
+  freezeYears: StationDetail['freezeYears'];
+  summaries: StationDetail['summaries'];
+}
+
+const listColumns = {
+  id: stations.id,
+  code: stations.code,
+  name: stations.name,
+  lat: stations.lat,
+  lon: stations.lon,
+  elevationM: stations.elevationM,
+  firstDate: stations.firstDate,
+  lastDate: stations.lastDate,
+  dayCount: stations.dayCount,
+  days50: stationSummaries.seasonDays,
+};
+
+const summary32At50 = and(eq(stationSummaries.stationId, stations.id), eq(stationSummaries.thresholdF, 32), eq(stationSummaries.probability, 50));
+
+export function listStations(db: Db): StationListItem[] {
+  return db.select(listColumns).from(stations).leftJoin(stationSummaries, summary32At50).orderBy(asc(stations.name)).all();
+}
+
+export function findStation(db: Db, id: number): StationListItem | undefined {
+  return db.select(listColumns).from(stations).leftJoin(stationSummaries, summary32At50).where(eq(stations.id, id)).get();
+}
+
+export function findStationIdByCode(db: Db, code: string): number | undefined {
+  return db.select({ id: stations.id }).from(stations).where(eq(stations.code, code)).get()?.id;
+}
+
+export function findStationDetail(db: Db, id: number): StationDetail | undefined {
+  const station = findStation(db, id);
+  if (!station) return undefined;
+  const freezeYears = db
+    .select({
+      thresholdF: stationFreezeYears.thresholdF,
+      year: stationFreezeYears.year,
+      lastSpringDoy: stationFreezeYears.lastSpringDoy,
+      firstFallDoy: stationFreezeYears.firstFallDoy,
+      seasonDays: stationFreezeYears.seasonDays,
+    })
+    .from(stationFreezeYears)
+    .where(eq(stationFreezeYears.stationId, id))
+    .orderBy(asc(stationFreezeYears.year), asc(stationFreezeYears.thresholdF))
+    .all();
+  const summaries = db
+    .select({
+      thresholdF: stationSummaries.thresholdF,
+      probability: stationSummaries.probability,
+      lastSpringDoy: stationSummaries.lastSpringDoy,
+      firstFallDoy: stationSummaries.firstFallDoy,
+      seasonDays: stationSummaries.seasonDays,
+      years: stationSummaries.years,
+    })
+    .from(stationSummaries)
+    .where(eq(stationSummaries.stationId, id))
+    .orderBy(asc(stationSummaries.thresholdF), asc(stationSummaries.probability))
+    .all();
+  return { station, freezeYears, summaries };
+}
+
+/**
+ * Create or update a station (matched by code when it has one) and replace all of its days,
+ * freeze years and summaries. Call it inside a transaction; `saveStation` does, with the audit.
+ */
+export function writeStation(db: Db, meta: StationMeta, data: StationData): { id: number; before: StationListItem | undefined } {
+  const { sqlite } = db;
+  const existingId = meta.code ? findStationIdByCode(db, meta.code) : undefined;
+  const before = existingId ? findStation(db, existingId) : undefined;
+  let firstDate: string | null = null;
+  let lastDate: string | null = null;
+  for (const { date } of data.days) {
+    if (firstDate === null || date < firstDate) firstDate = date;
+    if (lastDate === null || date > lastDate) lastDate = date;
+  }
+  const span = { firstDate, lastDate, dayCount: data.days.length };
+  let id: number;
+  if (existingId) {
+    id = existingId;
+    db.update(stations)
+      .set({ ...meta, ...span, updatedAt: new Date().toISOString() })
+      .where(eq(stations.id, id))
+      .run();
+    db.delete(stationDays).where(eq(stationDays.stationId, id)).run();
+    db.delete(stationFreezeYears).where(eq(stationFreezeYears.stationId, id)).run();
+    db.delete(stationSummaries).where(eq(stationSummaries.stationId, id)).run();
+  } else {
+    id = db.insert(stations).values({ ...meta, ...span }).returning({ id: stations.id }).get().id;
+  }
+  // Tens of thousands of days: one prepared statement, not one ORM call per row.
+  const insertDay = sqlite.prepare('INSERT INTO station_days (station_id, date, tmin_c, tmax_c) VALUES (?, ?, ?, ?)');
+  for (const day of data.days) insertDay.run(id, day.date, day.tminC, day.tmaxC);
+  const insertYear = sqlite.prepare('INSERT INTO station_freeze_years (station_id, threshold_f, year, last_spring_doy, first_fall_doy, season_days) VALUES (?, ?, ?, ?, ?, ?)');
+  for (const y of data.freezeYears) insertYear.run(id, y.thresholdF, y.year, y.lastSpringDoy, y.firstFallDoy, y.seasonDays);
+  const insertSummary = sqlite.prepare('INSERT INTO station_summaries (station_id, threshold_f, probability, last_spring_doy, first_fall_doy, season_days, years) VALUES (?, ?, ?, ?, ?, ?, ?)');
+  for (const s of data.summaries) insertSummary.run(id, s.thresholdF, s.probability, s.lastSpringDoy, s.firstFallDoy, s.seasonDays, s.years);
+  return { id, before };
+}
+
+/**
+ * An editor's upload: `writeStation` and its audit entry in one transaction, so a failure anywhere
+ * leaves the station's earlier data as it was.
+ */
+export function saveStation(db: Db, meta: StationMeta, data: StationData, actorId: number | null): number {
+  return db.transaction(() => {
+    const { id, before } = writeStation(db, meta, data);
+    recordAudit(db, {
+      actorId,
+      action: before ? 'station.replace' : 'station.create',
+      entityType: 'station',
+      entityId: id,
+      before: before ?? null,
+      after: findStation(db, id),
+    });
+    return id;
+  });
+}
+
+/** Delete a station with its days and computed dates (cascade), recording who did it. */
+export function deleteStation(db: Db, id: number, actorId: number | null): boolean {
+  return db.transaction(() => {
+    const before = findStation(db, id);
+    if (!before) return false;
+    db.delete(stations).where(eq(stations.id, id)).run();
+    recordAudit(db, { actorId, action: 'station.delete', entityType: 'station', entityId: id, before, after: null });
+    return true;
+  });
+}
+
+export interface StationNearRow {
+  id: number;
+  name: string;
+  lat: number;
+  lon: number;
+  thresholdF: number;
+  probability: number;
+  lastSpringDoy: number | null;
+  firstFallDoy: number | null;
+  seasonDays: number | null;
+  years: number;
+}
+
+const statements = new WeakMap<Db, Statement>();
+
+/** Stations inside the boxes (R*Tree), one row per summary probability at the given threshold. */
+export function stationsInBoxes(db: Db, boxes: BoundingBox[], thresholdF = 32): StationNearRow[] {
+  let statement = statements.get(db);
+  if (!statement) {
+    statement = db.sqlite.prepare(
+      `SELECT s.id, s.name, s.lat, s.lon, m.threshold_f AS thresholdF, m.probability, m.last_spring_doy AS lastSpringDoy,
+              m.first_fall_doy AS firstFallDoy, m.season_days AS seasonDays, m.years
+         FROM stations_rtree r
+         JOIN stations s ON s.id = r.id
+         JOIN station_summaries m ON m.station_id = s.id AND m.threshold_f = ?
+        WHERE r.min_lat <= ? AND r.max_lat >= ? AND r.min_lon <= ? AND r.max_lon >= ?`,
+    );
+    statements.set(db, statement);
+  }
+  const rows: StationNearRow[] = [];
+  for (const box of boxes) rows.push(...(statement.all(thresholdF, box.maxLat, box.minLat, box.maxLon, box.minLon) as StationNearRow[]));
+  return rows;
+}
