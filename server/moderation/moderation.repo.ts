@@ -137,37 +137,6 @@ function reportState(db: Db, id: number) {
   return row;
 }
 
-/** Hide a report with a reason its grower will see; its open flags count as dealt with. */
-export function hideReport(db: Db, id: number, reason: string, actorId: number) {
-  return db.transaction(() => {
-    const before = reportState(db, id);
-    if (before.status === 'hidden') throw new HttpError(409, 'already_hidden', 'This report is already hidden');
-    if (before.status === 'draft') throw new HttpError(409, 'draft', 'Drafts are not public; there is nothing to hide');
-    const at = new Date().toISOString();
-    db.update(reports).set({ status: 'hidden', hiddenReason: reason, hiddenById: actorId, hiddenAt: at, updatedAt: at, updatedById: actorId }).where(eq(reports.id, id)).run();
-    const flags = db
-      .update(reportFlags)
-      .set({ status: 'actioned', resolvedById: actorId, resolvedAt: at })
-      .where(and(eq(reportFlags.reportId, id), eq(reportFlags.status, 'open')))
-      .run().changes;
-    const after = reportState(db, id);
-    recordAudit(db, { actorId, action: 'report.hide', entityType: 'report', entityId: id, before, after: { ...after, flagsActioned: flags } });
-    return after;
-  });
-}
-
-export function restoreReport(db: Db, id: number, actorId: number) {
-  return db.transaction(() => {
-    const before = reportState(db, id);
-    if (before.status !== 'hidden') throw new HttpError(409, 'not_hidden', 'Only hidden reports can be restored');
-    const at = new Date().toISOString();
-    db.update(reports).set({ status: 'published', hiddenReason: null, hiddenById: null, hiddenAt: null, updatedAt: at, updatedById: actorId }).where(eq(reports.id, id)).run();
-    const after = reportState(db, id);
-    recordAudit(db, { actorId, action: 'report.restore', entityType: 'report', entityId: id, before, after });
-    return after;
-  });
-}
-
 /** Clear a flag that needs no action (the report stays as it is). */
 export function clearFlag(db: Db, flagId: number, actorId: number) {
   return db.transaction(() => {

@@ -1,14 +1,16 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { hideReportInputSchema, moderationQueueQuerySchema, moderationQueueSchema, moderationSummarySchema } from '../../shared/schemas/moderation';
+import { moderationQueueQuerySchema, moderationQueueSchema, moderationSummarySchema } from '../../shared/schemas/moderation';
 import type { Db } from '../db/client';
 import { requireRole } from '../middleware/require-role';
-import { clearFlag, hideReport, markReviewed, moderationQueue, moderationSummary, restoreReport, suspiciousReports } from './moderation.repo';
+import { clearFlag, markReviewed, moderationQueue, moderationSummary, suspiciousReports } from './moderation.repo';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
-const reportStateSchema = z.object({ report: z.object({ status: z.string(), hiddenReason: z.string().nullable(), hiddenAt: z.string().nullable() }) });
 
-/** The editors' moderation queue and its actions. */
+/**
+ * The editors' moderation queue and its actions. Hiding and restoring a report live with the
+ * reports (POST /api/reports/:id/hide and /restore); the queue's screen calls those.
+ */
 export function createModerationRouter({ db }: { db: Db }): Router {
   const router = Router();
   router.use(requireRole('editor'));
@@ -19,17 +21,6 @@ export function createModerationRouter({ db }: { db: Db }): Router {
 
   router.get('/summary', (_req, res) => {
     res.json(moderationSummarySchema.parse(moderationSummary(db)));
-  });
-
-  router.post('/reports/:id/hide', (req, res) => {
-    const { id } = idParamsSchema.parse(req.params);
-    const { reason } = hideReportInputSchema.parse(req.body);
-    res.json(reportStateSchema.parse({ report: hideReport(db, id, reason, req.user!.id) }));
-  });
-
-  router.post('/reports/:id/restore', (req, res) => {
-    const { id } = idParamsSchema.parse(req.params);
-    res.json(reportStateSchema.parse({ report: restoreReport(db, id, req.user!.id) }));
   });
 
   router.post('/reports/:id/reviewed', (req, res) => {

@@ -50,8 +50,6 @@ export const moderationItemSchema = z.object({
 export type ModerationItem = z.infer<typeof moderationItemSchema>;
 export const moderationQueueSchema = z.object({ items: z.array(moderationItemSchema), total: z.number().int() });
 
-export const hideReportInputSchema = z.object({ reason: z.string().trim().min(5, 'Tell the grower why, in a sentence').max(500) });
-
 /** GET /api/moderation/summary: what needs an editor's attention, for the overview tab. */
 export const moderationSummarySchema = z.object({
   openFlags: z.number().int(),

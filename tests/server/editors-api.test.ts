@@ -45,8 +45,8 @@ describe('role boundaries on every editor route', () => {
     ['post', '/api/wasp-areas/1/retire'],
     ['get', '/api/moderation/queue'],
     ['get', '/api/moderation/summary'],
-    ['post', '/api/moderation/reports/1/hide', { reason: 'Looks invented' }],
-    ['post', '/api/moderation/reports/1/restore'],
+    ['post', '/api/reports/1/hide', { reason: 'Looks invented' }],
+    ['post', '/api/reports/1/restore'],
     ['post', '/api/moderation/reports/1/reviewed'],
     ['post', '/api/moderation/flags/1/clear'],
     ['get', '/api/audit'],
@@ -250,21 +250,21 @@ describe('moderation', () => {
     expect(page.body.items[0].report.id).toBe(all.body.items[1].report.id);
   });
 
-  it('hides a flagged report with a reason (flags actioned), shows it to the owner’s row, then restores it', async () => {
+  it('hides a flagged report with a reason (flags actioned, through the reports API), lists it as hidden, then restores it', async () => {
     const flagged = (await editor.get('/api/moderation/queue?kind=flagged')).body.items[0];
     const reportId = flagged.report.id;
-    const hide = await editor.post(`/api/moderation/reports/${reportId}/hide`).send({ reason: 'The photo is of a different tree.' });
+    const hide = await editor.post(`/api/reports/${reportId}/hide`).send({ reason: 'The photo is of a different tree.' });
     expect(hide.status).toBe(200);
     expect(sql('SELECT status, hidden_reason FROM reports WHERE id = ?', reportId)).toEqual({ status: 'hidden', hidden_reason: 'The photo is of a different tree.' });
     expect(sql<{ n: number }>("SELECT count(*) n FROM report_flags WHERE report_id = ? AND status = 'open'", reportId).n).toBe(0);
     const hidden = await editor.get('/api/moderation/queue?kind=hidden');
     expect(hidden.body.items.map((i: { report: { id: number } }) => i.report.id)).toContain(reportId);
-    expect(JSON.parse(auditFor('report.hide', reportId)[0]!.after!)).toMatchObject({ status: 'hidden', hiddenReason: 'The photo is of a different tree.', flagsActioned: 1 });
+    expect(JSON.parse(auditFor('report.hide', reportId)[0]!.after!)).toMatchObject({ status: 'hidden', hiddenReason: 'The photo is of a different tree.' });
 
-    const restore = await editor.post(`/api/moderation/reports/${reportId}/restore`);
-    expect(restore.body.report).toEqual({ status: 'published', hiddenReason: null, hiddenAt: null });
+    const restore = await editor.post(`/api/reports/${reportId}/restore`);
+    expect(restore.body.report).toMatchObject({ status: 'published', hiddenReason: null });
     expect(JSON.parse(auditFor('report.restore', reportId)[0]!.before!)).toMatchObject({ status: 'hidden' });
-    expect((await editor.post(`/api/moderation/reports/${reportId}/hide`).send({ reason: 'x' })).status).toBe(400);
+    expect((await editor.post(`/api/reports/${reportId}/hide`).send({ reason: 'x' })).status).toBe(400);
   });
 
   it('clears a flag and marks a suspicious report as reviewed, each audited', async () => {
