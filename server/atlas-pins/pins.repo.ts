@@ -1,0 +1,82 @@
+import { and, count, desc, eq, gte, lte, max, sql, type SQL } from 'drizzle-orm';
+import type { CellQuery, PinFilters, PinReportSummary } from '../../shared/schemas/pins';
+import type { Db } from '../db/client';
+import { reports, varieties } from '../db/schema';
+import type { GridCell } from './pin-index';
+
+/** Conditions for published reports matching the map's filters. */
+function filterConditions(filters: PinFilters): SQL[] {
+  const conditions: SQL[] = [eq(reports.status, 'published')];
+  if (filters.varietyId !== undefined) conditions.push(eq(reports.varietyId, filters.varietyId));
+  if (filters.crop) conditions.push(eq(reports.crop, filters.crop));
+  if (filters.outcome) conditions.push(eq(reports.outcome, filters.outcome));
+  if (filters.form) conditions.push(eq(reports.form, filters.form));
+  if (filters.seasonFrom !== undefined) conditions.push(gte(reports.season, filters.seasonFrom));
+  if (filters.seasonTo !== undefined) conditions.push(lte(reports.season, filters.seasonTo));
+  // A report whose variety is still a proposal has no type yet: it counts as "unknown".
+  if (filters.figType) conditions.push(sql`coalesce(${varieties.figType}, 'unknown') = ${filters.figType}`);
+  return conditions;
+}
+
+/** Published reports matching the filters, counted per public grid cell. */
+export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
+  const rows = db
+    .select({ gridLat: reports.gridLat, gridLon: reports.gridLon, reports: count(), firstId: sql<number>`min(${reports.id})` })
+    .from(reports)
+    .leftJoin(varieties, eq(varieties.id, reports.varietyId))
+    .where(and(...filterConditions(filters)))
+    .groupBy(reports.gridLat, reports.gridLon)
+    .all();
+  return rows.map((r) => ({ gridLat: r.gridLat, gridLon: r.gridLon, reports: r.reports, reportId: r.reports === 1 ? r.firstId : null }));
+}
+
+/**
+ * Changes whenever a report or variety is added, edited or removed: the pin indexes are rebuilt
+ * when it does. Counting is included so a deletion of the newest row is seen too.
+ */
+export function pinDataVersion(db: Db): string {
+  const r = db.select({ n: count(), updated: max(reports.updatedAt), maxId: max(reports.id) }).from(reports).get()!;
+  const v = db.select({ n: count(), updated: max(varieties.updatedAt) }).from(varieties).get()!;
+  return `${r.n}:${r.maxId ?? 0}:${r.updated ?? ''}|${v.n}:${v.updated ?? ''}`;
+}
+
+/**
+ * A cheap stamp that moves on any write to the database (by this connection or another one): the
+ * full version above is only recomputed when it has moved.
+ */
+export function writeStamp(db: Db): string {
+  const dataVersion = db.sqlite.pragma('data_version', { simple: true }) as number;
+  const changes = (db.sqlite.prepare('SELECT total_changes() AS n').get() as { n: number }).n;
+  return `${dataVersion}:${changes}`;
+}
+
+const CELL_EPSILON = 1e-6;
+
+/** The published reports on one grid cell (newest first), as public summaries. */
+export function listCellReports(db: Db, query: CellQuery, limit = 50): { total: number; reports: PinReportSummary[] } {
+  const where = and(
+    ...filterConditions(query),
+    gte(reports.gridLat, query.lat - CELL_EPSILON),
+    lte(reports.gridLat, query.lat + CELL_EPSILON),
+    gte(reports.gridLon, query.lon - CELL_EPSILON),
+    lte(reports.gridLon, query.lon + CELL_EPSILON),
+  );
+  const total = db.select({ n: count() }).from(reports).leftJoin(varieties, eq(varieties.id, reports.varietyId)).where(where).get()!.n;
+  const rows = db
+    .select({
+      id: reports.id,
+      varietyName: sql<string>`coalesce(${varieties.name}, ${reports.proposedVarietyName}, 'Unnamed variety')`,
+      figType: sql<PinReportSummary['figType']>`coalesce(${varieties.figType}, 'unknown')`,
+      crop: reports.crop,
+      outcome: reports.outcome,
+      season: reports.season,
+      form: reports.form,
+    })
+    .from(reports)
+    .leftJoin(varieties, eq(varieties.id, reports.varietyId))
+    .where(where)
+    .orderBy(desc(reports.season), desc(reports.id))
+    .limit(limit)
+    .all();
+  return { total, reports: rows };
+}

@@ -1,0 +1,72 @@
+import { Router } from 'express';
+import { cellQuerySchema, cellResponseSchema, pinsQuerySchema, pinsResponseSchema, type PinFilters } from '../../shared/schemas/pins';
+import type { Db } from '../db/client';
+import { buildPinIndex, type PinIndex } from './pin-index';
+import { listCellReports, listPinCells, pinDataVersion, writeStamp } from './pins.repo';
+
+const MAX_CACHED_FILTER_SETS = 24;
+
+/** A filter set as a stable cache key. */
+export function filterKey(filters: PinFilters): string {
+  const entries = Object.entries(filters).filter(([, v]) => v !== undefined);
+  return JSON.stringify(entries.sort(([a], [b]) => a.localeCompare(b)));
+}
+
+/**
+ * Pin indexes kept in memory per filter set, valid for one data version. The data version is
+ * only recomputed after some write has happened, so a quiet database answers from memory alone.
+ */
+export function createPinCache(db: Db) {
+  let stamp = '';
+  let version = '';
+  const indexes = new Map<string, { version: string; index: PinIndex }>();
+
+  const currentVersion = (): string => {
+    const now = writeStamp(db);
+    if (now !== stamp) {
+      version = pinDataVersion(db);
+      stamp = now;
+    }
+    return version;
+  };
+
+  return {
+    get(filters: PinFilters): { version: string; index: PinIndex } {
+      const v = currentVersion();
+      const key = filterKey(filters);
+      const hit = indexes.get(key);
+      if (hit && hit.version === v) {
+        // Refresh its place in the least-recently-used order.
+        indexes.delete(key);
+        indexes.set(key, hit);
+        return hit;
+      }
+      const entry = { version: v, index: buildPinIndex(listPinCells(db, filters)) };
+      indexes.delete(key);
+      indexes.set(key, entry);
+      while (indexes.size > MAX_CACHED_FILTER_SETS) indexes.delete(indexes.keys().next().value!);
+      return entry;
+    },
+  };
+}
+
+/** GET /api/atlas/pins and /api/atlas/pins/cell: public, published reports on the coarse grid only. */
+export function createPinsRouter({ db }: { db: Db }): Router {
+  const router = Router();
+  const cache = createPinCache(db);
+
+  router.get('/', (req, res) => {
+    const { bbox, zoom, ...filters } = pinsQuerySchema.parse(req.query);
+    const { version, index } = cache.get(filters);
+    res.setHeader('Cache-Control', 'no-cache');
+    res.json(pinsResponseSchema.parse({ type: 'FeatureCollection', features: index.query(bbox, zoom), totalReports: index.totalReports, dataVersion: version }));
+  });
+
+  router.get('/cell', (req, res) => {
+    const query = cellQuerySchema.parse(req.query);
+    const { total, reports } = listCellReports(db, query);
+    res.json(cellResponseSchema.parse({ cell: { lat: query.lat, lon: query.lon }, total, reports }));
+  });
+
+  return router;
+}

