@@ -1,13 +1,18 @@
 import { createBrowserRouter } from 'react-router';
 import { AppShell } from './components/app-shell';
 import AccountRoute from './routes/account';
+import DevMailRoute from './routes/dev-mail';
 import EditorsRoute from './routes/editors';
+import ForgotPasswordRoute from './routes/forgot-password';
 import EditorsOverviewRoute from './routes/editors-overview';
 import EditorsPeopleRoute from './routes/editors-people';
 import HomeRoute from './routes/home';
 import NotFoundRoute from './routes/not-found';
+import ResetPasswordRoute from './routes/reset-password';
 import SignInRoute from './routes/sign-in';
 import SignUpRoute from './routes/sign-up';
+import UnsubscribeRoute from './routes/unsubscribe';
+import VerifyRoute from './routes/verify';
 
 /** Every page of the client. Route files stay thin: they compose features. */
 export const routes = [
@@ -18,6 +23,11 @@ export const routes = [
       { path: 'sign-in', element: <SignInRoute /> },
       { path: 'sign-up', element: <SignUpRoute /> },
       { path: 'account', element: <AccountRoute /> },
+      { path: 'verify', element: <VerifyRoute /> },
+      { path: 'forgot-password', element: <ForgotPasswordRoute /> },
+      { path: 'reset-password', element: <ResetPasswordRoute /> },
+      { path: 'unsubscribe', element: <UnsubscribeRoute /> },
+      { path: 'dev/mail', element: <DevMailRoute /> },
       {
         path: 'editors',
         element: <EditorsRoute />,

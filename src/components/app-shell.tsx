@@ -1,6 +1,7 @@
 import { NavLink, Outlet, useNavigate } from 'react-router';
 import { LABELS } from '@shared/domain/codes';
 import { hasRole, useCurrentUser, useSignOut } from '../features/auth/api';
+import { VerifyBanner } from '../features/email/components/verify-banner';
 import { Logo } from './logo';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
@@ -55,6 +56,7 @@ export function AppShell() {
           )}
         </div>
       </header>
+      <VerifyBanner />
       <main className="relative min-h-0 flex-1">
         <Outlet />
       </main>

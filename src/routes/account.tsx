@@ -2,6 +2,7 @@ import { LABELS } from '@shared/domain/codes';
 import { Page } from '../components/page';
 import { RequireRole } from '../features/auth/components/require-role';
 import { useCurrentUser } from '../features/auth/api';
+import { DigestSettings } from '../features/email/components/digest-settings';
 
 export default function AccountRoute() {
   const { user } = useCurrentUser();
@@ -19,6 +20,9 @@ export default function AccountRoute() {
             <dt className="text-ink/70">Member since</dt>
             <dd>{new Date(user.createdAt).toLocaleDateString()}</dd>
           </dl>
+          <div className="mt-6">
+            <DigestSettings />
+          </div>
         </Page>
       )}
     </RequireRole>
