@@ -240,3 +240,30 @@ export function freezeSummary(years: FreezeYear[], probabilities: number[] = [10
     };
   });
 }
+
+/** The hemisphere of a latitude (the equator counts as north). */
+export function hemisphereOf(lat: number): Hemisphere {
+  return lat < 0 ? 'south' : 'north';
+}
+
+/**
+ * Everything a station upload stores, at each normals threshold (32, 28, 24 °F by default): the
+ * per-year freeze dates (with `complete`) and the 10/50/90 % summaries over complete years, flat
+ * rows ready for station_freeze_years and station_summaries.
+ */
+export function stationFreezeTables(
+  days: DailyMin[],
+  options: { hemisphere?: Hemisphere; thresholdsF?: readonly number[]; probabilities?: number[]; maxMissingDays?: number } = {},
+): {
+  years: (FreezeYear & { thresholdF: number })[];
+  summaries: (FreezeSummaryRow & { thresholdF: number })[];
+} {
+  const years: (FreezeYear & { thresholdF: number })[] = [];
+  const summaries: (FreezeSummaryRow & { thresholdF: number })[] = [];
+  for (const thresholdF of options.thresholdsF ?? [32, 28, 24]) {
+    const ys = freezeYears(days, thresholdFToC(thresholdF), options);
+    for (const y of ys) years.push({ thresholdF, ...y });
+    for (const s of freezeSummary(ys, options.probabilities)) summaries.push({ thresholdF, ...s });
+  }
+  return { years, summaries };
+}

@@ -6,6 +6,8 @@ import {
   doyToMonthDay,
   freezeSummary,
   freezeYears,
+  hemisphereOf,
+  stationFreezeTables,
   thresholdFToC,
 } from '../../shared/domain/frost';
 
@@ -192,5 +194,24 @@ describe('freezeSummary', () => {
   it('shows a day of year as month and day', () => {
     expect(doyToMonthDay(117)).toBe('04-27');
     expect(doyToMonthDay(61, 2024)).toBe('03-01');
+  });
+});
+
+describe('stationFreezeTables', () => {
+  it('gives years and summaries at 32, 28 and 24 F, and finds the hemisphere', () => {
+    const days = series('2022-01-01', '2023-12-31', { '2022-03-01': -5, '2022-11-01': -5, '2023-03-02': -3, '2023-11-02': -1 });
+    const { years, summaries } = stationFreezeTables(days);
+    expect(years.map((y) => [y.thresholdF, y.year, y.lastSpringDoy])).toEqual([
+      [32, 2022, 60],
+      [32, 2023, 61],
+      [28, 2022, 60],
+      [28, 2023, null], // only -3 C on 2 March reaches 28 F (-2.2 C): one freeze, freeze-free (NCEI rule)
+      [24, 2022, 60],
+      [24, 2023, null],
+    ]);
+    expect(summaries).toHaveLength(9);
+    expect(summaries[0]).toMatchObject({ thresholdF: 32, probability: 10, years: 2 });
+    expect(hemisphereOf(-33.9)).toBe('south');
+    expect(hemisphereOf(42.7)).toBe('north');
   });
 });
