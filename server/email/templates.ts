@@ -44,6 +44,9 @@ export interface DigestItem {
   grid: string;
 }
 
+/** A digest lists at most this many reports; the rest are counted and left to the atlas. */
+export const DIGEST_MAX_ROWS = 30;
+
 export function digestMessage(input: {
   displayName: string;
   homeName: string;
@@ -64,7 +67,12 @@ export function digestMessage(input: {
         kind: 'p',
         text: `Hello ${input.displayName}, since ${input.since} growers posted ${count} report${count === 1 ? '' : 's'} of figs that ripened within ${input.radiusKm} km of ${input.homeName}, covering ${varieties} variet${varieties === 1 ? 'y' : 'ies'}.`,
       },
-      { kind: 'table', head: ['Variety', 'Season and crop', 'Grown', 'First ripe', 'Where'], rows: input.items.map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} (grid ${i.grid})`]) },
+      {
+        kind: 'table',
+        head: ['Variety', 'Season and crop', 'Grown', 'First ripe', 'Where'],
+        rows: input.items.slice(0, DIGEST_MAX_ROWS).map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} (grid ${i.grid})`]),
+      },
+      ...(count > DIGEST_MAX_ROWS ? [{ kind: 'p' as const, text: `…and ${count - DIGEST_MAX_ROWS} more on the atlas.` }] : []),
       { kind: 'note', text: 'Places are shown on the atlas’s public 5 km grid; growers’ exact gardens stay private.' },
       { kind: 'button', label: 'See the atlas around your home', url: input.atlasUrl },
       SIGN_OFF,

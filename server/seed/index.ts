@@ -8,6 +8,7 @@ import { findUserByEmail, insertUser } from '../users/users.repo';
 import { buildDemoReports } from './demo-reports';
 import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
+import { seedDemoDigest } from '../email/digest.seed';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
@@ -31,6 +32,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   seedDemoWaspAreas(db);
   seedDemoSavedPlaces(db);
   seedEditorsDemo(db);
+  seedDemoDigest(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {
