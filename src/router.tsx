@@ -6,6 +6,7 @@ import EditorsRoute from './routes/editors';
 import ForgotPasswordRoute from './routes/forgot-password';
 import EditorsOverviewRoute from './routes/editors-overview';
 import EditorsPeopleRoute from './routes/editors-people';
+import HereRoute from './routes/here';
 import HomeRoute from './routes/home';
 import NotFoundRoute from './routes/not-found';
 import ResetPasswordRoute from './routes/reset-password';
@@ -13,6 +14,7 @@ import SignInRoute from './routes/sign-in';
 import SignUpRoute from './routes/sign-up';
 import UnsubscribeRoute from './routes/unsubscribe';
 import VerifyRoute from './routes/verify';
+import WhyNoFigsRoute from './routes/why-no-figs';
 
 /** Every page of the client. Route files stay thin: they compose features. */
 export const routes = [
@@ -23,6 +25,8 @@ export const routes = [
       { path: 'sign-in', element: <SignInRoute /> },
       { path: 'sign-up', element: <SignUpRoute /> },
       { path: 'account', element: <AccountRoute /> },
+      { path: 'here', element: <HereRoute /> },
+      { path: 'why-no-figs', element: <WhyNoFigsRoute /> },
       { path: 'verify', element: <VerifyRoute /> },
       { path: 'forgot-password', element: <ForgotPasswordRoute /> },
       { path: 'reset-password', element: <ResetPasswordRoute /> },

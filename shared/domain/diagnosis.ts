@@ -8,6 +8,7 @@
  * days being short) is common practice without a single published source. Wording is our own.
  */
 import type { FigType } from './codes';
+import type { FitResponse, NearResponse } from '../schemas/atlas';
 import {
   diagnosisAnswersSchema,
   diagnosisLocalDataSchema,
@@ -315,4 +316,24 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
     });
   }
   return causes;
+}
+
+/**
+ * The local data the rules use, taken from the regional engine's answers (either may be missing:
+ * no place chosen, or the engine could not answer).
+ */
+export function localDataFrom(near: NearResponse | null | undefined, fit: FitResponse | null | undefined, varietyId: number | null): DiagnosisLocalData {
+  const evidence = near && varietyId !== null ? near.varieties.find((v) => v.varietyId === varietyId) : undefined;
+  const season = fit?.season ?? near?.season;
+  const seasonFit = fit?.seasonFit ?? evidence?.seasonFit;
+  return {
+    seasonDays50: season?.days50 ?? null,
+    seasonDays10: season?.days10 ?? null,
+    waspEstablished: near ? near.wasp.established : fit ? fit.pollination.main.waspEstablished : null,
+    varietyTrees: evidence ? evidence.all.trees : null,
+    varietyShare: evidence ? evidence.all.share : null,
+    seasonFit: seasonFit?.verdict ?? null,
+    neededDays: seasonFit?.neededDays ?? null,
+    headStartDays: seasonFit?.headStartDays ?? null,
+  };
 }

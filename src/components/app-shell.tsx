@@ -24,6 +24,12 @@ export function AppShell() {
           <NavLink to="/" end className={navClass}>
             Atlas
           </NavLink>
+          <NavLink to="/here" className={navClass}>
+            What ripens here
+          </NavLink>
+          <NavLink to="/why-no-figs" className={navClass}>
+            Why no figs?
+          </NavLink>
           {hasRole(user, 'editor') && (
             <NavLink to="/editors" className={navClass}>
               Editors

@@ -3,6 +3,7 @@ import { Page } from '../components/page';
 import { RequireRole } from '../features/auth/components/require-role';
 import { useCurrentUser } from '../features/auth/api';
 import { DigestSettings } from '../features/email/components/digest-settings';
+import { SavedPlaceList } from '../features/places/components/saved-place-list';
 
 export default function AccountRoute() {
   const { user } = useCurrentUser();
@@ -23,6 +24,12 @@ export default function AccountRoute() {
           <div className="mt-6">
             <DigestSettings />
           </div>
+          <section className="mt-6" aria-labelledby="saved-places-title">
+            <h2 id="saved-places-title" className="mb-2 text-lg font-semibold text-fig-900">
+              Saved places
+            </h2>
+            <SavedPlaceList />
+          </section>
         </Page>
       )}
     </RequireRole>

@@ -144,3 +144,21 @@ describe('diagnose: fruit stayed hard and green until frost', () => {
     for (let i = 1; i < first.length; i++) expect(first[i - 1]!.score).toBeGreaterThanOrEqual(first[i]!.score);
   });
 });
+
+describe('localDataFrom', () => {
+  it('takes the season, wasp status and the variety’s record from the engine’s answers', async () => {
+    const { sampleNear, sampleFit } = await import('./atlas-samples');
+    const { localDataFrom } = await import('../../shared/domain/diagnosis');
+    expect(localDataFrom(sampleNear, sampleFit, 11)).toEqual({
+      seasonDays50: 166,
+      seasonDays10: 150,
+      waspEstablished: false,
+      varietyTrees: 8,
+      varietyShare: 0.75,
+      seasonFit: 'marginal', // the fit endpoint's answer wins over the list's
+      neededDays: 160,
+      headStartDays: 20,
+    });
+    expect(localDataFrom(null, null, null)).toMatchObject({ seasonDays50: null, waspEstablished: null, seasonFit: null });
+  });
+});

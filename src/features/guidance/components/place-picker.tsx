@@ -1,0 +1,170 @@
+import { useQuery } from '@tanstack/react-query';
+import { useEffect, useId, useState } from 'react';
+import { GROWING_FORMS, LABELS, type GrowingForm } from '@shared/domain/codes';
+import { Button } from '../../../components/button';
+import { useCurrentUser } from '../../auth/api';
+import { placeSearchQueries, savedPlaceQueries } from '../../places/api';
+
+export const RADII_KM = [25, 50, 100, 200, 300] as const;
+
+export interface PickedPoint {
+  lat: number;
+  lon: number;
+}
+
+function useDebounced<T>(value: T, ms: number): T {
+  const [debounced, setDebounced] = useState(value);
+  useEffect(() => {
+    const t = setTimeout(() => setDebounced(value), ms);
+    return () => clearTimeout(t);
+  }, [value, ms]);
+  return debounced;
+}
+
+const selectClass = 'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none';
+
+/** Choose where: a town search, the grower's saved places, or coordinates; and the form and radius. */
+export function PlacePicker({
+  point,
+  form,
+  radiusKm,
+  onPoint,
+  onForm,
+  onRadius,
+}: {
+  point: PickedPoint | null;
+  form: GrowingForm;
+  radiusKm: number;
+  onPoint: (p: PickedPoint, form?: GrowingForm) => void;
+  onForm: (f: GrowingForm) => void;
+  onRadius: (r: number) => void;
+}) {
+  const id = useId();
+  const { user } = useCurrentUser();
+  const [q, setQ] = useState('');
+  const debounced = useDebounced(q.trim(), 250);
+  const search = useQuery(placeSearchQueries.search(debounced));
+  const saved = useQuery({ ...savedPlaceQueries.list(), enabled: !!user });
+  const [lat, setLat] = useState(point ? String(point.lat) : '');
+  const [lon, setLon] = useState(point ? String(point.lon) : '');
+  useEffect(() => {
+    if (point) {
+      setLat(String(point.lat));
+      setLon(String(point.lon));
+    }
+  }, [point?.lat, point?.lon]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  const latN = Number(lat);
+  const lonN = Number(lon);
+  const coordsOk = lat.trim() !== '' && lon.trim() !== '' && Math.abs(latN) <= 90 && Math.abs(lonN) <= 180;
+
+  return (
+    <div className="flex flex-col gap-4 rounded-lg border border-fig-100 bg-white p-4">
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-q`} className="text-sm font-medium">
+          Find a town
+        </label>
+        <input
+          id={`${id}-q`}
+          type="search"
+          value={q}
+          onChange={(e) => setQ(e.target.value)}
+          placeholder="e.g. Albany"
+          aria-describedby={`${id}-q-hint`}
+          className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none"
+        />
+        <p id={`${id}-q-hint`} className="text-xs text-ink/70">
+          Type two letters or more. Or click a spot on the atlas map, or use one of your saved places.
+        </p>
+        {debounced.length >= 2 && (
+          <ul aria-label="Matching towns" className="mt-1 flex flex-col divide-y divide-fig-50 rounded-md border border-fig-100">
+            {search.isLoading && <li className="px-3 py-2 text-sm text-ink/70">Searching…</li>}
+            {search.error && <li className="px-3 py-2 text-sm text-red-700">{search.error.message}</li>}
+            {search.data?.places.length === 0 && <li className="px-3 py-2 text-sm text-ink/70">No town by that name.</li>}
+            {search.data?.places.map((p) => (
+              <li key={p.id}>
+                <button
+                  type="button"
+                  className="w-full px-3 py-2 text-left text-sm hover:bg-fig-50"
+                  onClick={() => {
+                    onPoint({ lat: p.lat, lon: p.lon });
+                    setQ('');
+                  }}
+                >
+                  <span className="font-medium">{p.name}</span> <span className="text-ink/70">{p.context}</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        )}
+      </div>
+
+      {saved.data && saved.data.places.length > 0 && (
+        <div>
+          <p className="text-sm font-medium">Your places</p>
+          <div className="mt-1 flex flex-wrap gap-2">
+            {saved.data.places.map((p) => (
+              <Button key={p.id} type="button" variant="secondary" className="!px-3 !py-1" onClick={() => onPoint({ lat: p.lat, lon: p.lon }, p.form)}>
+                {p.isHome ? '⌂ ' : ''}
+                {p.name}
+              </Button>
+            ))}
+          </div>
+        </div>
+      )}
+
+      <form
+        className="flex flex-wrap items-end gap-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          if (coordsOk) onPoint({ lat: latN, lon: lonN });
+        }}
+      >
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-lat`} className="text-sm font-medium">
+            Latitude
+          </label>
+          <input id={`${id}-lat`} inputMode="decimal" value={lat} onChange={(e) => setLat(e.target.value)} className="w-28 rounded-md border border-fig-200 px-2 py-2" />
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-lon`} className="text-sm font-medium">
+            Longitude
+          </label>
+          <input id={`${id}-lon`} inputMode="decimal" value={lon} onChange={(e) => setLon(e.target.value)} className="w-28 rounded-md border border-fig-200 px-2 py-2" />
+        </div>
+        <Button type="submit" variant="secondary" disabled={!coordsOk}>
+          Use these coordinates
+        </Button>
+      </form>
+
+      <div className="flex flex-wrap gap-4">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-form`} className="text-sm font-medium">
+            How you grow it
+          </label>
+          <select id={`${id}-form`} value={form} onChange={(e) => onForm(e.target.value as GrowingForm)} className={selectClass}>
+            {GROWING_FORMS.map((f) => (
+              <option key={f} value={f}>
+                {LABELS.growingForm[f]}
+              </option>
+            ))}
+          </select>
+          <p className="text-xs text-ink/70">Containers and warm walls get a head start on the season.</p>
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor={`${id}-radius`} className="text-sm font-medium">
+            Look within
+          </label>
+          <select id={`${id}-radius`} value={radiusKm} onChange={(e) => onRadius(Number(e.target.value))} className={selectClass}>
+            {[...new Set([...RADII_KM, radiusKm])].sort((a, b) => a - b).map((r) => (
+              <option key={r} value={r}>
+                {r} km
+              </option>
+            ))}
+          </select>
+          <p className="text-xs text-ink/70">Wider finds more reports, but from less similar places.</p>
+        </div>
+      </div>
+    </div>
+  );
+}
