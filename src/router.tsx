@@ -8,7 +8,12 @@ import EditorsOverviewRoute from './routes/editors-overview';
 import EditorsPeopleRoute from './routes/editors-people';
 import HereRoute from './routes/here';
 import HomeRoute from './routes/home';
+import MyReportsRoute from './routes/my-reports';
 import NotFoundRoute from './routes/not-found';
+import ReportDetailRoute from './routes/report-detail';
+import ReportEditRoute from './routes/report-edit';
+import ReportImportRoute from './routes/report-import';
+import ReportNewRoute from './routes/report-new';
 import ResetPasswordRoute from './routes/reset-password';
 import SignInRoute from './routes/sign-in';
 import SignUpRoute from './routes/sign-up';
@@ -25,6 +30,11 @@ export const routes = [
       { path: 'sign-in', element: <SignInRoute /> },
       { path: 'sign-up', element: <SignUpRoute /> },
       { path: 'account', element: <AccountRoute /> },
+      { path: 'reports/new', element: <ReportNewRoute /> },
+      { path: 'reports/:id', element: <ReportDetailRoute /> },
+      { path: 'reports/:id/edit', element: <ReportEditRoute /> },
+      { path: 'my/reports', element: <MyReportsRoute /> },
+      { path: 'my/reports/import', element: <ReportImportRoute /> },
       { path: 'here', element: <HereRoute /> },
       { path: 'why-no-figs', element: <WhyNoFigsRoute /> },
       { path: 'verify', element: <VerifyRoute /> },

@@ -30,6 +30,11 @@ export function AppShell() {
           <NavLink to="/why-no-figs" className={navClass}>
             Why no figs?
           </NavLink>
+          {user && (
+            <NavLink to="/my/reports" className={navClass}>
+              My reports
+            </NavLink>
+          )}
           {hasRole(user, 'editor') && (
             <NavLink to="/editors" className={navClass}>
               Editors
@@ -39,6 +44,9 @@ export function AppShell() {
         <div className="flex items-center gap-2 text-sm">
           {user ? (
             <>
+              <NavLink to="/reports/new" className="rounded-md bg-fig-600 px-3 py-1.5 font-medium text-white hover:bg-fig-700">
+                Post a report
+              </NavLink>
               <NavLink to="/account" className={navClass}>
                 {user.displayName} <span className="text-ink/60">· {LABELS.role[user.role]}</span>
               </NavLink>
