@@ -12,7 +12,7 @@ export function RipeDatesChart({ varietyId, lat, lon, radiusKm }: { varietyId: n
   return (
     <figure className="mt-2">
       <div className="h-44 w-full">
-        <ResponsiveContainer width="100%" height="100%">
+        <ResponsiveContainer width="100%" height="100%" initialDimension={{ width: 480, height: 180 }}>
           <BarChart data={data.bins} margin={{ top: 8, right: 8, bottom: 4, left: -16 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" />
             <XAxis dataKey="label" tick={{ fontSize: 11 }} interval="preserveStartEnd" />

@@ -21,7 +21,7 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
   return (
     <figure>
       <div className="h-56 w-full">
-        <ResponsiveContainer width="100%" height="100%">
+        <ResponsiveContainer width="100%" height="100%" initialDimension={{ width: 480, height: 180 }}>
           <ComposedChart data={rows} margin={{ top: 8, right: 8, bottom: 4, left: -12 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" />
             <XAxis dataKey="band" tick={{ fontSize: 11 }} />

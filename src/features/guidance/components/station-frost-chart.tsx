@@ -25,7 +25,7 @@ export function StationFrostChart({ stationId, distanceKm }: { stationId: number
   return (
     <figure>
       <div className="h-40 w-full">
-        <ResponsiveContainer width="100%" height="100%">
+        <ResponsiveContainer width="100%" height="100%" initialDimension={{ width: 480, height: 180 }}>
           <BarChart data={rows} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" horizontal={false} />
             <XAxis type="number" domain={[1, 365]} ticks={[1, 60, 121, 182, 244, 305, 365]} tickFormatter={(d: number) => doyLabel(d)} tick={{ fontSize: 11 }} />
