@@ -16,12 +16,21 @@ function random(seed: number): () => number {
   };
 }
 
-/** Towns where the synthetic growers cluster (lat, lon): real places, invented growers. */
-const CENTRES: [number, number][] = [
-  [42.65, -73.75], [40.71, -74.0], [47.61, -122.33], [45.52, -122.68], [37.77, -122.42], [34.05, -118.24],
-  [51.51, -0.13], [48.86, 2.35], [52.52, 13.4], [41.9, 12.5], [40.42, -3.7], [-33.87, 151.21],
-  [-37.81, 144.96], [35.68, 139.69], [43.65, -79.38], [39.95, -75.17], [38.9, -77.04], [53.35, -6.26],
+/** Regions where synthetic growers live (North America's fig belt and cool north, Europe, south-east Australia). */
+const REGIONS = [
+  { minLat: 29, maxLat: 48, minLon: -123, maxLon: -70 },
+  { minLat: 36, maxLat: 56, minLon: -9, maxLon: 28 },
+  { minLat: -38, maxLat: -28, minLon: 138, maxLon: 153 },
 ];
+
+/** Places where growers cluster (towns), drawn once per seed. */
+export function syntheticCentres(count: number, seed = 2026): { lat: number; lon: number }[] {
+  const rand = random(seed ^ 0x5eed);
+  return Array.from({ length: count }, (_, i) => {
+    const region = REGIONS[i % 5 === 4 ? 2 : i % 2]!;
+    return { lat: region.minLat + rand() * (region.maxLat - region.minLat), lon: region.minLon + rand() * (region.maxLon - region.minLon) };
+  });
+}
 
 export interface SyntheticOptions {
   reports: number;
@@ -33,6 +42,8 @@ export interface SyntheticOptions {
   seed?: number;
   /** Latest season year (reports spread over the ten years before it). */
   lastSeason?: number;
+  /** How many towns the growers cluster around (default: one per 10 growers). */
+  centres?: number;
 }
 
 export const syntheticEmail = (i: number) => `load-grower-${i}@synthetic.syconium.test`;
@@ -43,6 +54,7 @@ export const syntheticEmail = (i: number) => `load-grower-${i}@synthetic.syconiu
  */
 export function insertSyntheticData(sqlite: Database.Database, options: SyntheticOptions): { userIds: number[]; firstReportId: number; lastReportId: number } {
   const rand = random(options.seed ?? 2026);
+  const centres = syntheticCentres(options.centres ?? Math.max(1, Math.ceil(options.growers / 10)), options.seed ?? 2026);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(rand() * list.length)]!;
   const emailOf = options.emailOf ?? syntheticEmail;
   const lastSeason = options.lastSeason ?? new Date().getUTCFullYear() - 1;
@@ -62,9 +74,9 @@ export function insertSyntheticData(sqlite: Database.Database, options: Syntheti
     const growers: { userId: number; lat: number; lon: number; trees: { id: number; varietyId: number }[] }[] = [];
     for (let i = 0; i < options.growers; i++) {
       const userId = Number(insertUser.run(emailOf(i), `Synthetic grower ${i}`, options.passwordHash).lastInsertRowid);
-      const [clat, clon] = pick(CENTRES);
-      const lat = clat + (rand() - 0.5) * 1.5;
-      const lon = clon + (rand() - 0.5) * 2;
+      const centre = pick(centres);
+      const lat = centre.lat + (rand() - 0.5) * 0.6;
+      const lon = centre.lon + (rand() - 0.5) * 0.8;
       const trees = Array.from({ length: 1 + Math.floor(rand() * 5) }, (_, t) => {
         const varietyId = pick(varietyIds);
         return { id: Number(insertTree.run(userId, `Synthetic tree ${t + 1}`).lastInsertRowid), varietyId };

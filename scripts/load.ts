@@ -1,0 +1,272 @@
+// `npm run load`: a load test of the production server on loopback.
+//
+// 1. Builds a temporary database: the demo scenario plus LOAD_REPORTS (default 200,000) synthetic
+//    published reports from LOAD_GROWERS synthetic growers, bulk-inserted in one transaction.
+// 2. Starts the production server (NODE_ENV=production, tsx server/index.ts) on 127.0.0.1 and a free port.
+// 3. Signs in several synthetic growers, then drives mixed traffic at the same time with autocannon:
+//    map pins, /api/atlas/near, report reads, and signed-in report posts from 50 concurrent writers.
+// 4. Prints per route: requests/s, median and p99 latency, errors and non-2xx answers, and any
+//    "database is locked" seen in answers or the server log; then checks the targets.
+// Bounded: LOAD_SECONDS (default 20) of traffic; a route missing from the server is skipped with a note.
+import autocannon from 'autocannon';
+import { spawn } from 'node:child_process';
+import fs from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { hashPassword } from '../server/auth/password';
+import { createDb, migrateDb } from '../server/db/client';
+import { readConfig } from '../server/lib/config';
+import { seedDatabase } from '../server/seed';
+import { insertSyntheticData, syntheticCentres, syntheticEmail } from './synthetic-data';
+
+const REPORTS = Number(process.env.LOAD_REPORTS ?? 200_000);
+const GROWERS = Number(process.env.LOAD_GROWERS ?? 4_000);
+const SECONDS = Number(process.env.LOAD_SECONDS ?? 20);
+const WRITERS = Number(process.env.LOAD_WRITERS ?? 50);
+const READERS_PER_ROUTE = Number(process.env.LOAD_READERS ?? 10);
+const SIGNED_IN_GROWERS = 12;
+const PASSWORD = 'load-test-password-2026';
+const READ_P99_TARGET_MS = 200;
+const SEED = 2026;
+
+const log = (line: string) => console.log(line);
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.listen(0, '127.0.0.1', () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+    server.on('error', reject);
+  });
+}
+
+// ------------------------------------------------------------------ 1. the database
+
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-load-'));
+const dbFile = path.join(dir, 'load.db');
+let t0 = performance.now();
+{
+  const db = createDb(dbFile);
+  migrateDb(db);
+  await seedDatabase(db, { ...readConfig({}), seedDemo: true, adminEmail: undefined, adminPassword: undefined });
+  const ids = insertSyntheticData(db.sqlite, { reports: REPORTS, growers: GROWERS, passwordHash: await hashPassword(PASSWORD), seed: SEED });
+  db.sqlite.pragma('wal_checkpoint(TRUNCATE)');
+  db.sqlite.close();
+  log(`Seeded ${REPORTS.toLocaleString('en')} synthetic reports (ids ${ids.firstReportId}-${ids.lastReportId}) from ${GROWERS.toLocaleString('en')} growers, plus the demo, in ${((performance.now() - t0) / 1000).toFixed(1)} s (${dir})`);
+}
+const check = createDb(dbFile);
+const reportIds = check.sqlite.prepare("SELECT id FROM reports WHERE status = 'published' ORDER BY random() LIMIT 5000").pluck().all() as number[];
+const varietyIds = check.sqlite.prepare("SELECT id FROM varieties WHERE status = 'accepted'").pluck().all() as number[];
+const reportsBefore = check.sqlite.prepare('SELECT count(*) FROM reports').pluck().get() as number;
+check.sqlite.close();
+
+// ------------------------------------------------------------------ 2. the production server
+
+const port = await freePort();
+const base = `http://127.0.0.1:${port}`;
+const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  env: {
+    ...process.env,
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    SYCONIUM_DB: dbFile,
+    SYCONIUM_UPLOADS: path.join(dir, 'uploads'),
+    SYCONIUM_DEV_MAIL: 'false',
+    SMTP_HOST: '',
+    SESSION_SECRET: 'load-test-secret',
+  },
+  stdio: ['ignore', 'pipe', 'pipe'],
+});
+let serverLog = '';
+server.stdout.on('data', (chunk) => (serverLog += chunk));
+server.stderr.on('data', (chunk) => (serverLog += chunk));
+const stopServer = async () => {
+  if (server.exitCode !== null) return;
+  server.kill('SIGTERM');
+  await new Promise((r) => server.once('exit', r));
+};
+process.on('SIGINT', () => {
+  server.kill('SIGKILL');
+  process.exit(130);
+});
+
+try {
+  t0 = performance.now();
+  const deadline = Date.now() + 90_000;
+  for (;;) {
+    if (server.exitCode !== null) throw new Error(`The server exited early:\n${serverLog}`);
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) throw new Error(`The server did not start:\n${serverLog}`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  log(`Production server up on ${base} in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+
+  // ---------------------------------------------------------------- 3. sessions and routes
+
+  const cookies: string[] = [];
+  for (let i = 0; i < SIGNED_IN_GROWERS; i++) {
+    const res = await fetch(`${base}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-syconium-request': '1' },
+      body: JSON.stringify({ email: syntheticEmail(i), password: PASSWORD }),
+    });
+    if (!res.ok) throw new Error(`Sign-in of ${syntheticEmail(i)} failed: ${res.status} ${await res.text()}`);
+    cookies.push(res.headers.getSetCookie()[0]!.split(';')[0]!);
+  }
+  log(`Signed in ${cookies.length} synthetic growers`);
+
+  let counter = 0;
+  const next = <T>(list: T[]): T => list[counter++ % list.length]!;
+  const centres = syntheticCentres(Math.ceil(GROWERS / 10), SEED);
+  const jitter = (value: number, spread: number) => (value + (Math.random() - 0.5) * spread).toFixed(4);
+  const pinsPath = () => {
+    const zoom = [3, 5, 7, 9][counter % 4]!;
+    const c = next(centres);
+    const half = 180 / 2 ** zoom;
+    return `/api/atlas/pins?bbox=${Math.max(-180, c.lon - half * 1.5).toFixed(3)},${Math.max(-85, c.lat - half).toFixed(3)},${Math.min(180, c.lon + half * 1.5).toFixed(3)},${Math.min(85, c.lat + half).toFixed(3)}&zoom=${zoom}`;
+  };
+  const nearPath = () => {
+    const c = next(centres);
+    return `/api/atlas/near?lat=${jitter(c.lat, 0.3)}&lon=${jitter(c.lon, 0.3)}&radiusKm=${[25, 50, 100][counter % 3]}`;
+  };
+  const reportPath = () => `/api/reports/${next(reportIds)}`;
+  const reportBody = () => {
+    const c = next(centres);
+    return JSON.stringify({
+      varietyId: next(varietyIds),
+      newTreeLabel: `Load tree ${counter % 7}`,
+      lat: Number(jitter(c.lat, 0.2)),
+      lon: Number(jitter(c.lon, 0.2)),
+      form: 'ground',
+      season: 2024,
+      crop: 'main',
+      outcome: 'ripened',
+      firstRipeDate: '2024-08-20',
+      notes: 'Posted by the load test',
+    });
+  };
+
+  interface RouteLoad {
+    name: string;
+    probe: { path: string; method?: 'GET' | 'POST'; body?: string; cookie?: string };
+    connections: number;
+    kind: 'read' | 'write';
+    request: () => autocannon.Request;
+  }
+  const routes: RouteLoad[] = [
+    { name: 'GET /api/atlas/pins', probe: { path: pinsPath() }, connections: READERS_PER_ROUTE, kind: 'read', request: () => ({ method: 'GET', path: pinsPath() }) },
+    { name: 'GET /api/atlas/near', probe: { path: nearPath() }, connections: READERS_PER_ROUTE, kind: 'read', request: () => ({ method: 'GET', path: nearPath() }) },
+    { name: 'GET /api/reports/:id', probe: { path: reportPath() }, connections: READERS_PER_ROUTE, kind: 'read', request: () => ({ method: 'GET', path: reportPath() }) },
+    {
+      name: 'POST /api/reports',
+      probe: { path: '/api/reports', method: 'POST', body: reportBody(), cookie: cookies[0] },
+      connections: WRITERS,
+      kind: 'write',
+      request: () => ({
+        method: 'POST',
+        path: '/api/reports',
+        headers: { 'content-type': 'application/json', 'x-syconium-request': '1', cookie: next(cookies) },
+        body: reportBody(),
+      }),
+    },
+  ];
+
+  // A route the server does not have yet answers the API's JSON 404: skip it with a note.
+  const active: RouteLoad[] = [];
+  for (const route of routes) {
+    if (route.connections === 0) {
+      log(`  skipped ${route.name}: no connections asked for`);
+      continue;
+    }
+    const { path: probePath, method = 'GET', body, cookie } = route.probe;
+    const started = performance.now();
+    const res = await fetch(`${base}${probePath}`, {
+      method,
+      body,
+      headers: { 'content-type': 'application/json', 'x-syconium-request': '1', ...(cookie ? { cookie } : {}) },
+    });
+    const text = await res.text();
+    if (res.status === 404 && text.includes('No API route')) {
+      log(`  skipped ${route.name}: the server has no such route yet`);
+      continue;
+    }
+    if (!res.ok) throw new Error(`Probe of ${route.name} failed: ${res.status} ${text.slice(0, 300)}`);
+    log(`  warm-up ${route.name}: ${res.status} in ${(performance.now() - started).toFixed(0)} ms`);
+    active.push(route);
+  }
+
+  // ---------------------------------------------------------------- 4. mixed traffic, all at once
+
+  log(`\nDriving ${active.map((r) => `${r.connections} × ${r.name}`).join(', ')} for ${SECONDS} s at the same time...`);
+  const lockedInAnswers = new Map<string, number>();
+  const results = await Promise.all(
+    active.map((route) =>
+      autocannon({
+        url: base,
+        connections: route.connections,
+        duration: SECONDS,
+        timeout: 10,
+        requests: [
+          {
+            setupRequest: (request) => Object.assign(request, route.request()),
+            onResponse: (status, body) => {
+              if (status >= 400 && /database is locked|SQLITE_BUSY|storage_unavailable/.test(body)) lockedInAnswers.set(route.name, (lockedInAnswers.get(route.name) ?? 0) + 1);
+            },
+          },
+        ],
+      }),
+    ),
+  );
+
+  // ---------------------------------------------------------------- 5. figures and targets
+
+  const lockedInLog = (serverLog.match(/database is locked|SQLITE_BUSY/g) ?? []).length;
+  const rows = active.map((route, i) => {
+    const r = results[i]!;
+    return {
+      route: route.name,
+      conns: route.connections,
+      'req/s': Math.round(r.requests.average),
+      requests: r.requests.total,
+      'median ms': r.latency.p50,
+      'p99 ms': r.latency.p99,
+      errors: r.errors + r.timeouts,
+      non2xx: r.non2xx,
+      locked: lockedInAnswers.get(route.name) ?? 0,
+    };
+  });
+  log('');
+  console.table(rows);
+  const final = createDb(dbFile);
+  const reportsAfter = final.sqlite.prepare('SELECT count(*) FROM reports').pluck().get() as number;
+  const integrity = final.sqlite.prepare('PRAGMA integrity_check').pluck().get() as string;
+  final.sqlite.close();
+  const posted = rows.find((r) => r.route === 'POST /api/reports');
+  log(`Reports stored: ${reportsBefore.toLocaleString('en')} -> ${reportsAfter.toLocaleString('en')} (+${reportsAfter - reportsBefore}${posted ? `; ${posted.requests} posts answered, ${posted.requests - posted.non2xx} with 201` : ''}); integrity_check: ${integrity}`);
+  log(`"database is locked" in the server log: ${lockedInLog}`);
+
+  const failures: string[] = [];
+  for (const row of rows) {
+    if (row.errors || row.non2xx) failures.push(`${row.route}: ${row.errors} errors, ${row.non2xx} non-2xx`);
+    if (row.locked) failures.push(`${row.route}: ${row.locked} "database is locked" answers`);
+    if (active.find((r) => r.name === row.route)!.kind === 'read' && row['p99 ms'] >= READ_P99_TARGET_MS) failures.push(`${row.route}: p99 ${row['p99 ms']} ms (target < ${READ_P99_TARGET_MS} ms)`);
+  }
+  if (lockedInLog) failures.push(`"database is locked" appeared ${lockedInLog} times in the server log`);
+  // Posts still in flight when autocannon stops may be stored without being counted; none may be lost.
+  if (posted && reportsAfter - reportsBefore < posted.requests - posted.non2xx + 1) failures.push(`stored reports (+${reportsAfter - reportsBefore}) are fewer than the 201 answers (${posted.requests - posted.non2xx} + 1 probe)`);
+  if (integrity !== 'ok') failures.push(`integrity_check: ${integrity}`);
+  log(failures.length ? `\nTargets missed:\n  ${failures.join('\n  ')}` : `\nTargets met: zero errors, no "database is locked", read p99 under ${READ_P99_TARGET_MS} ms with ${WRITERS} concurrent writers.`);
+  process.exitCode = failures.length ? 1 : 0;
+} finally {
+  await stopServer();
+  fs.rmSync(dir, { recursive: true, force: true });
+}
