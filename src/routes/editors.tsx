@@ -15,6 +15,18 @@ export default function EditorsRoute() {
           <NavLink to="/editors" end className={tabClass}>
             Overview
           </NavLink>
+          <NavLink to="/editors/varieties" className={tabClass}>
+            Varieties
+          </NavLink>
+          <NavLink to="/editors/wasp-areas" className={tabClass}>
+            Wasp areas
+          </NavLink>
+          <NavLink to="/editors/moderation" className={tabClass}>
+            Moderation
+          </NavLink>
+          <NavLink to="/editors/audit" className={tabClass}>
+            Audit log
+          </NavLink>
           {hasRole(user, 'admin') && (
             <NavLink to="/editors/people" className={tabClass}>
               People
