@@ -19,12 +19,12 @@ export function compassWord(bearingDeg: number): (typeof COMPASS)[number] {
 }
 
 /**
- * Town-level wording of where a report is, measured from the home place to the report's public
- * grid cell (never the exact point): "within about 5 km of Home" inside the grid's own size,
- * otherwise "about 23 km north-east of Home", rounded to whole km.
+ * Town-level wording of where a report is, seen from the home place and measured to the report's
+ * public grid cell (never the exact point): "within about 5 km" inside the grid's own size,
+ * otherwise "about 23 km north-east", rounded to whole km.
  */
-export function describePlace(home: LatLon, gridCell: LatLon, homeName: string): string {
+export function describePlace(home: LatLon, gridCell: LatLon): string {
   const km = distanceKm(home, gridCell);
-  if (km < 5) return `within about 5 km of ${homeName}`;
-  return `about ${Math.round(km)} km ${compassWord(initialBearingDeg(home, gridCell))} of ${homeName}`;
+  if (km < 5) return 'within about 5 km';
+  return `about ${Math.round(km)} km ${compassWord(initialBearingDeg(home, gridCell))}`;
 }

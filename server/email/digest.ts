@@ -15,8 +15,8 @@ function toItem(report: NearbyRipening, home: { name: string; lat: number; lon: 
     form: LABELS.growingForm[report.form].toLowerCase(),
     season: report.season,
     firstRipe: report.firstRipeDate ? longDate(report.firstRipeDate) : 'date not given',
-    where: describePlace(home, { lat: report.gridLat, lon: report.gridLon }, 'your home place'),
-    grid: `${report.gridLat.toFixed(2)}, ${report.gridLon.toFixed(2)}`,
+    where: describePlace(home, { lat: report.gridLat, lon: report.gridLon }),
+    grid: `${report.gridLat.toFixed(3)}, ${report.gridLon.toFixed(3)}`,
   };
 }
 

@@ -38,7 +38,7 @@ export interface DigestItem {
   form: string;
   season: number;
   firstRipe: string;
-  /** Town-level wording, e.g. "about 12 km north-east of your home place". */
+  /** Town-level wording seen from the home place, e.g. "about 12 km north-east". */
   where: string;
   /** Public grid position, never the exact point. */
   grid: string;
@@ -60,7 +60,7 @@ export function digestMessage(input: {
   const count = input.items.length;
   const varieties = new Set(input.items.map((i) => i.variety)).size;
   return renderEmail({
-    subject: `${count} fig${count === 1 ? '' : 's'} ripened near ${input.homeName} this week`,
+    subject: `${count} new ripening report${count === 1 ? '' : 's'} near ${input.homeName}`,
     heading: `New ripening reports within ${input.radiusKm} km`,
     blocks: [
       {
@@ -69,8 +69,8 @@ export function digestMessage(input: {
       },
       {
         kind: 'table',
-        head: ['Variety', 'Season and crop', 'Grown', 'First ripe', 'Where'],
-        rows: input.items.slice(0, DIGEST_MAX_ROWS).map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} (grid ${i.grid})`]),
+        head: ['Variety', 'Season and crop', 'Grown', 'First ripe', `From ${input.homeName}`],
+        rows: input.items.slice(0, DIGEST_MAX_ROWS).map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} · grid ${i.grid}`]),
       },
       ...(count > DIGEST_MAX_ROWS ? [{ kind: 'p' as const, text: `…and ${count - DIGEST_MAX_ROWS} more on the atlas.` }] : []),
       { kind: 'note', text: 'Places are shown on the atlas’s public 5 km grid; growers’ exact gardens stay private.' },

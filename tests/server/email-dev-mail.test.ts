@@ -62,7 +62,7 @@ describe('message layout and digest wording', () => {
     expect(compassWord(359)).toBe('north');
     expect(compassWord(200)).toBe('south');
     // One degree of latitude is 111.195 km on the IUGG mean sphere (shared CHECKS.md).
-    expect(describePlace({ lat: 45, lon: 3 }, { lat: 44, lon: 3 }, 'Home')).toBe('about 111 km south of Home');
-    expect(describePlace({ lat: 45, lon: 3 }, { lat: 45.02, lon: 3.01 }, 'Home')).toBe('within about 5 km of Home');
+    expect(describePlace({ lat: 45, lon: 3 }, { lat: 44, lon: 3 })).toBe('about 111 km south');
+    expect(describePlace({ lat: 45, lon: 3 }, { lat: 45.02, lon: 3.01 })).toBe('within about 5 km');
   });
 });

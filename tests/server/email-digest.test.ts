@@ -78,7 +78,7 @@ describe('nearby digest and unsubscribe, through the local SMTP server', async (
     const result = await runNearbyDigest(ctx.mail, start);
     expect(result).toEqual({ sent: 2, checked: 2 });
     const [message] = ctx.inbox('hanna@example.com');
-    expect(message!.subject).toBe('2 figs ripened near Orchard this week');
+    expect(message!.subject).toBe('2 new ripening reports near Orchard');
     for (const part of [message!.text!, message!.html!]) {
       expect(part).toContain('Inside Thirty');
       expect(part).toContain('Inside Fortynine');
@@ -86,7 +86,7 @@ describe('nearby digest and unsubscribe, through the local SMTP server', async (
       // Privacy: town-level wording and the public grid, never the exact point or anyone's e-mail.
       // Measured to the grid cell centre (45.275, 3.025): 0.275 deg lat = 30.58 km north and about
       // 1.97 km east, so sqrt(30.58^2 + 1.97^2) = 30.6 km, bearing about 4 degrees: "31 km north".
-      expect(part).toContain('about 31 km north of your home place');
+      expect(part).toContain('about 31 km north · grid 45.275, 3.025');
       expect(part).not.toContain(north(30).lat.toFixed(4));
       expect(part).not.toContain('other.grower@example.com');
     }

@@ -42,7 +42,7 @@ export function DigestSettings() {
         </p>
       ) : (
         <p className="mt-3 rounded-md bg-leaf-100 px-3 py-2 text-sm text-leaf-700">
-          Save a home place first: open the <Link to="/" className="font-medium underline">atlas</Link>, pick your garden and mark it as home.
+          Save a home place first: find your garden on the <Link to="/" className="font-medium underline">atlas</Link>, save it as a place and mark it as home.
         </p>
       )}
       <form
