@@ -50,7 +50,12 @@ export class SqliteSessionStore extends session.Store {
 
   override touch(sid: string, data: session.SessionData, callback?: () => void): void {
     const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
-    this.db.update(sessions).set({ expiresAt }).where(eq(sessions.sid, sid)).run();
+    try {
+      this.db.update(sessions).set({ expiresAt }).where(eq(sessions.sid, sid)).run();
+    } catch {
+      // A full or read-only disk must not hang the answer (express-session ends the response in
+      // this callback); the session simply keeps its old expiry.
+    }
     callback?.();
   }
 }
