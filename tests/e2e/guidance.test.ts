@@ -1,0 +1,60 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
+import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+
+describe('guidance in the browser', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('walks “Why no figs?” for a dropped Smyrna crop at the demo home to its causes; nothing leaves the machine', async () => {
+    const page = await browser.newPage();
+    const requests = recordRequests(page);
+    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Why no figs?' }).click();
+    await page.getByRole('button', { name: /Fruit formed, then dropped/ }).click();
+
+    await page.getByRole('heading', { name: 'Which variety is it?' }).waitFor();
+    await expect.poll(() => page.getByLabel('Variety', { exact: true }).locator('option', { hasText: 'Terrace Gold' }).count(), { timeout: 15_000 }).toBe(1);
+    await page.getByLabel('Variety', { exact: true }).selectOption({ label: 'Terrace Gold (fictional demo)' });
+    expect(await page.getByRole('radio', { name: /Smyrna/ }).isChecked()).toBe(true);
+    await page.getByRole('button', { name: 'Next' }).click();
+
+    await page.getByRole('heading', { name: 'Which crop did you watch?' }).waitFor();
+    await page.getByRole('radio', { name: /Main crop/ }).check();
+    await page.getByRole('button', { name: 'Next' }).click();
+    await page.getByLabel('Years since it was planted or rooted').fill('5');
+    await page.getByRole('button', { name: 'Next' }).click();
+    for (const heading of ['How is it grown?', 'How was the watering this summer?', 'How was it fed?', 'How much sun and warmth does it get?']) {
+      await page.getByRole('heading', { name: heading }).waitFor();
+      await page.getByRole('button', { name: 'Next' }).click();
+    }
+    await page.getByRole('heading', { name: 'Where do you grow it? (optional)' }).waitFor();
+    await page.getByRole('button', { name: /Home garden \(demo\)/ }).click();
+    await page.getByRole('status').filter({ hasText: 'Using Home garden (demo)' }).waitFor();
+    await page.getByRole('button', { name: 'See likely causes' }).click();
+
+    await page.getByRole('heading', { name: 'Likely causes, most likely first' }).waitFor({ timeout: 30_000 });
+    const first = page.getByTestId('cause').first();
+    await expect.poll(() => first.getByRole('heading').textContent()).toBe('The figs needed the fig wasp');
+    expect(await first.textContent()).toContain('Grow a common-type variety');
+    expect(await page.getByRole('note', { name: 'Caution' }).last().textContent()).toContain('extension service');
+    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  });
+
+  it('opens “What ripens here” on the demo grower’s saved home', async () => {
+    const page = await browser.newPage();
+    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${server.url}/here`);
+    await page.waitForURL((u) => u.searchParams.get('lat') === '42.66' && u.searchParams.get('form') === 'container', { timeout: 30_000 });
+    expect(await page.getByLabel('Latitude').inputValue()).toBe('42.66');
+  });
+});
