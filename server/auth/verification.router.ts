@@ -43,7 +43,7 @@ export function createVerificationRouter(deps: MailDeps): Router {
       const now = new Date().toISOString();
       db.update(users).set({ emailVerifiedAt: now, updatedAt: now }).where(eq(users.id, user.id)).run();
     }
-    res.json(messageResponseSchema.parse({ message: 'Your e-mail address is confirmed. Your drafts can now be published.' }));
+    res.json(messageResponseSchema.parse({ message: 'Your e-mail address is confirmed. You can now publish your drafts from My reports.' }));
   });
 
   router.post('/verify/resend', requireSignedIn, resendLimit, async (req, res) => {

@@ -24,8 +24,12 @@ export default function VerifyRoute() {
         <div role="status" className="rounded-md bg-leaf-100 px-4 py-3 text-leaf-700">
           <p className="font-medium">{verify.data.message}</p>
           <p className="mt-2">
+            <Link to="/my/reports" className="underline">
+              My reports
+            </Link>{' '}
+            ·{' '}
             <Link to="/" className="underline">
-              Back to the atlas
+              The atlas
             </Link>
           </p>
         </div>

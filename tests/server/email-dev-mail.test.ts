@@ -66,3 +66,13 @@ describe('message layout and digest wording', () => {
     expect(describePlace({ lat: 45, lon: 3 }, { lat: 45.02, lon: 3.01 })).toBe('within about 5 km');
   });
 });
+
+describe('development mailbox from another machine', () => {
+  it('answers 404 to anyone but this machine', async () => {
+    const ctx = createTestContext();
+    // Through a proxy on loopback (trusted), the client's own address counts.
+    const remote = await ctx.agent().get('/api/dev/mail').set('X-Forwarded-For', '203.0.113.7');
+    expect(remote.status).toBe(404);
+    expect((await ctx.agent().get('/api/dev/mail')).status).toBe(200);
+  });
+});

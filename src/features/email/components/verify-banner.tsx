@@ -1,3 +1,4 @@
+import { Link } from 'react-router';
 import { useCurrentUser } from '../../auth/api';
 import { useResendVerification } from '../api';
 
@@ -13,7 +14,11 @@ export function VerifyBanner() {
     <div role="status" className="flex flex-wrap items-center gap-x-4 gap-y-2 border-b border-amber-soft bg-amber-soft/40 px-4 py-2 text-sm text-ink">
       <p className="flex-1">
         <span className="font-medium">Please confirm your e-mail address.</span> We sent a link to {user.email}. Until you follow it you can browse and
-        draft reports; drafts are published once the address is confirmed.
+        save reports as drafts; once it is confirmed you can publish them from{' '}
+        <Link to="/my/reports" className="underline">
+          My reports
+        </Link>
+        .
       </p>
       {resend.isSuccess ? (
         <p className="text-leaf-700">{resend.data.message}</p>
