@@ -28,6 +28,7 @@ import { createPinsRouter } from './atlas-pins/pins.router';
 import { createPlacesRouter } from './places/places.router';
 import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
+import { createStationsRouter } from './stations/stations.router';
 import { csrfGuard } from './middleware/csrf';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -97,6 +98,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/varieties', createCatalogueRouter({ db }));
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
+  api.use('/stations', createStationsRouter({ db }));
   api.use('/reports', createReportsRouter({ db, config }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use('/guidance', createGuidanceRouter({ db }));

@@ -1,12 +1,16 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { freezeSummary, freezeYears } from '../../shared/domain/frost';
+import { parseStationCsv } from '../../shared/domain/station-csv';
 import type { Db } from '../db/client';
 import { computeFreezeTables } from '../stations/station-import';
-import { findStationIdByCode, writeStation, type StationDayRow, type StationMeta } from '../stations/stations.repo';
+import { findStationIdByCode, writeStation, type StationData, type StationDayRow, type StationMeta } from '../stations/stations.repo';
 import { DEMO_TOWNS, type DemoTown } from './demo-scenario';
 import { seededRandom } from './random';
 
 /** Years of synthetic record for the invented stations (kept short so seeding stays quick). */
-const SYNTHETIC_YEARS = { first: 2001, last: 2020 };
+const SYNTHETIC_YEARS = { first: 2006, last: 2020 };
 
 /** Towns that have a real station in the demo instead of a synthetic one. */
 const TOWNS_WITH_REAL_STATIONS = new Set(['Albany, NY', 'Milwaukee, WI']);
@@ -78,17 +82,61 @@ export function syntheticStationMetas(): { town: DemoTown; meta: StationMeta }[]
   }));
 }
 
+const DATA_DIR = path.join(path.dirname(fileURLToPath(import.meta.url)), 'data');
+
+/** Load real records from this year on: the current normals period, and quick enough for startup. */
+export const REAL_STATIONS_FROM = '1991-01-01';
+
+/** Two real NOAA GHCN-Daily stations (public domain; see server/seed/data/README.md). */
+export const REAL_DEMO_STATIONS: { file: string; meta: StationMeta }[] = [
+  {
+    file: 'ghcnd-USW00014735-daily.csv',
+    meta: { name: 'Albany International Airport, NY', code: 'USW00014735', lat: 42.7431, lon: -73.8092, elevationM: 85.6 },
+  },
+  {
+    file: 'ghcnd-USW00014839-daily.csv',
+    // Coordinates and elevation recalled from memory (the file carries none): about 42.955 N,
+    // 87.904 W, roughly 205 m.
+    meta: { name: 'Milwaukee Mitchell International Airport, WI', code: 'USW00014839', lat: 42.955, lon: -87.904, elevationM: 205 },
+  },
+];
+
+/** A real station's days from `REAL_STATIONS_FROM` on, read by the same parser as an editor's upload. */
+export function readRealStationDays(file: string): StationDayRow[] {
+  // Both files start each row with the year: drop the older rows before parsing (quicker startup).
+  const [header, ...lines] = fs.readFileSync(path.join(DATA_DIR, file), 'utf8').split(/\r?\n/);
+  const fromYear = REAL_STATIONS_FROM.slice(0, 4);
+  const text = [header, ...lines.filter((line) => line.slice(0, 4) >= fromYear)].join('\n');
+  const parsed = parseStationCsv(text);
+  if (parsed.errors.length > 0) throw new Error(`${file}: ${parsed.errors.length} bad rows, first: ${JSON.stringify(parsed.errors[0])}`);
+  return parsed.days.filter((d) => d.date >= REAL_STATIONS_FROM);
+}
+
 /**
- * Demo climate stations: synthetic ones for the demo towns. Idempotent: a station whose code is
- * already there is left alone.
+ * Demo climate stations: Albany and Milwaukee from NOAA records, and a synthetic one near each other
+ * demo town. Idempotent: a station whose code is already there is left alone.
  */
 export function seedDemoStations(db: Db): void {
-  const missing = syntheticStationMetas().filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
-  if (missing.length === 0) return;
+  const real = REAL_DEMO_STATIONS.filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
+  const synthetic = syntheticStationMetas().filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
+  if (real.length === 0 && synthetic.length === 0) return;
+  const prepared = [
+    ...real.map(({ file, meta }) => ({ meta, data: () => withFreezeTables(readRealStationDays(file), meta) })),
+    ...synthetic.map(({ town, meta }) => ({ meta, data: () => withFreezeTables(calibratedSyntheticDays(town, 1991 + DEMO_TOWNS.indexOf(town)), meta) })),
+  ].map(({ meta, data }) => ({ meta, data: memo(meta.code!, data) }));
   db.transaction(() => {
-    missing.forEach(({ town, meta }, i) => {
-      const days = calibratedSyntheticDays(town, 1991 + i);
-      writeStation(db, meta, { days, ...computeFreezeTables(days, meta.lat) });
-    });
+    for (const { meta, data } of prepared) writeStation(db, meta, data);
   });
+}
+
+function withFreezeTables(days: StationDayRow[], meta: StationMeta): StationData {
+  return { days, ...computeFreezeTables(days, meta.lat) };
+}
+
+/** The demo stations' data is the same every time: compute it once per process (tests seed often). */
+const computed = new Map<string, StationData>();
+function memo(code: string, make: () => StationData): StationData {
+  let data = computed.get(code);
+  if (!data) computed.set(code, (data = make()));
+  return data;
 }

@@ -9,6 +9,7 @@ import { buildDemoReports } from './demo-reports';
 import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
+import { seedDemoStations } from './demo-stations';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
@@ -30,6 +31,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   seedDemoVarieties(db);
   seedDemoReports(db);
   seedDemoWaspAreas(db);
+  seedDemoStations(db);
   seedDemoSavedPlaces(db);
   seedEditorsDemo(db);
   seedDemoDigest(db);

@@ -1,6 +1,8 @@
 import { FREEZE_THRESHOLDS_F, PROBABILITY_LEVELS } from '../../shared/domain/codes';
 import { freezeSummary, freezeYears, thresholdFToC, type Hemisphere } from '../../shared/domain/frost';
-import type { StationDetail } from '../../shared/schemas/stations';
+import { parseStationCsv, type StationCsvError } from '../../shared/domain/station-csv';
+import type { StationDetail, StationUnit } from '../../shared/schemas/stations';
+import { HttpError } from '../lib/http-error';
 import type { StationData, StationDayRow } from './stations.repo';
 
 /** The hemisphere decides where a station's season-year starts (see shared/domain/frost.ts). */
@@ -20,4 +22,27 @@ export function computeFreezeTables(days: StationDayRow[], lat: number): Pick<St
     for (const s of freezeSummary(perYear, [...PROBABILITY_LEVELS])) summaries.push({ thresholdF, ...s });
   }
   return { freezeYears: years, summaries };
+}
+
+/** One readable line per problem: "Row 12, column TMIN: “abc” is not a number." */
+export function describeCsvError(error: StationCsvError): string {
+  return error.column ? `Row ${error.row}, column ${error.column}: ${error.message}` : `Row ${error.row}: ${error.message}`;
+}
+
+/**
+ * Read an uploaded station file and compute its freeze tables. Any bad row rejects the whole file:
+ * a 400 whose `fields.file` lists each row and column, before anything is written.
+ */
+export function computeStationData(text: string, unit: StationUnit | undefined, lat: number): StationData {
+  const parsed = parseStationCsv(text, { unit });
+  if (parsed.errors.length > 0) {
+    const count = parsed.errors.length;
+    throw new HttpError(400, 'invalid_csv', `The file was not loaded: ${count === 1 ? 'one row has a problem' : `${count} rows have problems`}. Nothing was changed.`, {
+      file: parsed.errors.map(describeCsvError),
+    });
+  }
+  if (parsed.days.length === 0) {
+    throw new HttpError(400, 'invalid_csv', 'The file has no day with a minimum temperature. Nothing was changed.', { file: ['The file has no day with a minimum temperature.'] });
+  }
+  return { days: parsed.days, ...computeFreezeTables(parsed.days, lat) };
 }

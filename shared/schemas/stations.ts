@@ -38,7 +38,8 @@ export const stationUploadFieldsSchema = z.object({
     emptyToUndefined,
     z.coerce.number({ message: 'elevationM must be a number' }).min(-450, { message: 'elevationM must be at least -450' }).max(9000, { message: 'elevationM must be at most 9000' }).optional(),
   ),
-  unit: z.enum(STATION_UNITS, { message: 'unit must be C or F' }),
+  /** Left empty, the file's own layout decides (GHCN-Daily: deg C; year/month/day exports: deg F). */
+  unit: z.preprocess(emptyToUndefined, z.enum(STATION_UNITS, { message: 'unit must be C, F or empty' }).optional()),
 });
 export type StationUploadFields = z.infer<typeof stationUploadFieldsSchema>;
 

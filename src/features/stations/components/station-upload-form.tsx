@@ -45,11 +45,15 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
           <label htmlFor="station-unit" className="text-sm font-medium text-ink">
             Temperature unit in the file
           </label>
-          <select id="station-unit" name="unit" defaultValue="C" className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm">
+          <select id="station-unit" name="unit" defaultValue="" aria-describedby="station-unit-hint" className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm">
+            <option value="">As the file says</option>
             <option value="C">Degrees Celsius (°C)</option>
             <option value="F">Degrees Fahrenheit (°F)</option>
           </select>
-          <p className="text-xs text-ink/70">Values are stored in °C; freeze dates are worked out at 32, 28 and 24 °F.</p>
+          <p id="station-unit-hint" className="text-xs text-ink/70">
+            “As the file says” reads a unit in the column name (<code>tmin_c</code>, <code>tmin_f</code>), else NOAA’s layouts: °C for <code>YYYY,MM,DD</code>, °F for <code>year,month,day</code>.
+            Values are stored in °C; freeze dates are worked out at 32, 28 and 24 °F.
+          </p>
         </div>
       </div>
       <div className="flex flex-col gap-1">
@@ -66,8 +70,9 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
           className="rounded-md border border-fig-200 bg-white px-3 py-2 text-sm file:mr-3 file:rounded file:border-0 file:bg-fig-50 file:px-3 file:py-1 file:text-fig-700"
         />
         <p id="station-file-hint" className="text-xs text-ink/70">
-          One row per day with a header row. A date column (<code>date</code> as YYYY-MM-DD, or <code>year</code>, <code>month</code>, <code>day</code>), a daily minimum (<code>tmin</code>)
-          and optionally a maximum (<code>tmax</code>). Missing values may be empty, <code>NA</code> or <code>-9999</code>. NOAA GHCN-Daily exports work as they are.
+          One row per day under a header row: the dates (<code>date</code> as YYYY-MM-DD, or <code>YYYY,MM,DD</code>, or <code>year,month,day</code>), the daily minimum (<code>TMIN</code> or{' '}
+          <code>tmin</code>) and optionally the maximum (<code>TMAX</code>). Missing values may be empty, <code>NA</code>, <code>M</code> or <code>-9999</code>. NOAA GHCN-Daily exports work as they
+          are. Any bad row rejects the whole file, with the row and column named.
         </p>
       </div>
 

@@ -1,0 +1,60 @@
+import { Router, type RequestHandler } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { stationDetailSchema, stationListSchema, stationUploadFieldsSchema } from '../../shared/schemas/stations';
+import type { Db } from '../db/client';
+import { HttpError, notFound } from '../lib/http-error';
+import { requireRole } from '../middleware/require-role';
+import { computeStationData } from './station-import';
+import { deleteStation, findStationDetail, listStations, saveStation } from './stations.repo';
+
+const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+
+/** A century of daily rows is about 4 MB of CSV; leave room for wide files. */
+export const STATION_FILE_LIMIT_BYTES = 25 * 1024 * 1024;
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: STATION_FILE_LIMIT_BYTES, files: 1, fields: 12 } });
+
+/** multer's own errors (too large, wrong field) become 400s that name the field. */
+const receiveFile: RequestHandler = (req, res, next) => {
+  upload.single('file')(req, res, (err: unknown) => {
+    if (!err) return next();
+    if (err instanceof multer.MulterError) {
+      const message = err.code === 'LIMIT_FILE_SIZE' ? `The file is larger than ${STATION_FILE_LIMIT_BYTES / 1024 / 1024} MB` : `The upload was not accepted (${err.message})`;
+      return next(new HttpError(err.code === 'LIMIT_FILE_SIZE' ? 413 : 400, 'invalid_upload', message, { [err.field ?? 'file']: [message] }));
+    }
+    next(err);
+  });
+};
+
+/** Climate stations: public reads, editors upload (replace) and delete. */
+export function createStationsRouter({ db }: { db: Db }): Router {
+  const router = Router();
+
+  router.get('/', (_req, res) => {
+    res.json(stationListSchema.parse({ stations: listStations(db) }));
+  });
+
+  router.get('/:id', (req, res) => {
+    const { id } = idParamsSchema.parse(req.params);
+    const detail = findStationDetail(db, id);
+    if (!detail) throw notFound('Station');
+    res.json(stationDetailSchema.parse(detail));
+  });
+
+  router.post('/upload', requireRole('editor'), receiveFile, (req, res) => {
+    const fields = stationUploadFieldsSchema.parse(req.body ?? {});
+    if (!req.file || req.file.size === 0) throw new HttpError(400, 'invalid_input', 'Please choose a CSV file', { file: ['Please choose a CSV file'] });
+    const data = computeStationData(req.file.buffer.toString('utf8'), fields.unit, fields.lat);
+    const id = saveStation(db, { name: fields.name, code: fields.code ?? null, lat: fields.lat, lon: fields.lon, elevationM: fields.elevationM ?? null }, data, req.user!.id);
+    res.status(201).json(stationDetailSchema.parse(findStationDetail(db, id)));
+  });
+
+  router.delete('/:id', requireRole('editor'), (req, res) => {
+    const { id } = idParamsSchema.parse(req.params);
+    if (!deleteStation(db, id, req.user!.id)) throw notFound('Station');
+    res.status(204).end();
+  });
+
+  return router;
+}
