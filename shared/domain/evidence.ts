@@ -2,14 +2,7 @@ import type { FigType, GrowingForm, RipeningClass } from './codes';
 import type { FitResponse, NearResponse, SeasonEstimate } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
 import { RANKING_METHOD, rankVarieties, type RankInput } from './ranking';
-import {
-  ADJUSTED_SHARE_METHOD,
-  type EvidenceReport,
-  adjustedShare,
-  medianDaysFrostToRipe,
-  medianFirstRipeDoy,
-  summarizeShare,
-} from './ripening-stats';
+import { type EvidenceReport, adjustedShareMethod, tallyEvidence } from './ripening-stats';
 import { seasonFit } from './season-fit';
 
 /**
@@ -38,36 +31,31 @@ export type VarietyEvidenceInput = {
 };
 
 /**
- * The evidence for one variety near a point, before ranking. Medians of first-ripe day and of days
- * from spring frost to first ripe use the MAIN crop only (breba ripen weeks earlier and would blur
- * them).
+ * The evidence for one variety near a point, before ranking (figures from tallyEvidence: trees
+ * counted once, shares by crop and form, the adjusted share, main-crop medians). Medians of
+ * first-ripe day and of days from spring frost to first ripe use the MAIN crop only (breba ripen
+ * weeks earlier and would blur them).
  */
 export function buildVarietyEvidence(
   input: VarietyEvidenceInput,
-  context: { localSeasonDays: number | null; waspEstablished: boolean; form: GrowingForm; headStartDays?: number },
+  context: { localSeasonDays: number | null; waspEstablished: boolean; form: GrowingForm; headStartDays?: number; bandwidthKm?: number },
 ): RankInput {
-  const { variety, localReports: reports, overall } = input;
-  const only = (pred: (r: EvidenceReport) => boolean) => summarizeShare(reports.filter(pred));
-  const main = reports.filter((r) => r.crop === 'main');
+  const { variety, overall } = input;
+  const tally = tallyEvidence(input.localReports, overall.share, { bandwidthKm: context.bandwidthKm });
   return {
     varietyId: variety.id,
     name: variety.name,
     figType: variety.figType,
     ripeningClass: variety.ripeningClass,
     isFictional: variety.isFictional,
-    growers: new Set(reports.map((r) => r.userId)).size,
-    all: summarizeShare(reports),
-    byCrop: { breba: only((r) => r.crop === 'breba'), main: only((r) => r.crop === 'main') },
-    byForm: {
-      ground: only((r) => r.form === 'ground'),
-      container: only((r) => r.form === 'container'),
-      wall: only((r) => r.form === 'wall'),
-      greenhouse: only((r) => r.form === 'greenhouse'),
-    },
-    adjustedShare: adjustedShare(reports, overall.share),
+    growers: tally.growers,
+    all: tally.all,
+    byCrop: tally.byCrop,
+    byForm: tally.byForm,
+    adjustedShare: tally.adjustedShare,
     overallShare: overall.share,
-    medianFirstRipeDoy: medianFirstRipeDoy(main),
-    medianDaysFrostToRipe: medianDaysFrostToRipe(main),
+    medianFirstRipeDoy: tally.medianFirstRipeDoy,
+    medianDaysFrostToRipe: tally.medianDaysFrostToRipe,
     pollination: pollinationChecks(variety.figType, context.waspEstablished),
     seasonFit: seasonFit({
       localSeasonDays: context.localSeasonDays,
@@ -81,7 +69,16 @@ export function buildVarietyEvidence(
   };
 }
 
-/** The whole GET /api/atlas/near answer: evidence per variety, ranked, with totals and methods. */
+/** The distance kernel's scale for a search radius: half the radius (50 km at the default 100 km). */
+export function bandwidthForRadius(radiusKm: number): number {
+  return Math.max(1, radiusKm / 2);
+}
+
+/**
+ * The whole GET /api/atlas/near answer: evidence per variety (varieties without local reports are
+ * left out), ranked, with totals and methods. The adjusted share's kernel scale is half the radius
+ * unless `bandwidthKm` is given.
+ */
 export function buildNearResponse(input: {
   point: { lat: number; lon: number };
   radiusKm: number;
@@ -89,23 +86,30 @@ export function buildNearResponse(input: {
   season: SeasonEstimate;
   wasp: NearResponse['wasp'];
   varieties: VarietyEvidenceInput[];
+  bandwidthKm?: number;
 }): NearResponse {
   const form = input.form ?? 'ground';
-  const context = { localSeasonDays: input.season.days50, waspEstablished: input.wasp.established, form };
-  const all = input.varieties.flatMap((v) => v.localReports);
+  const bandwidthKm = input.bandwidthKm ?? bandwidthForRadius(input.radiusKm);
+  const context = { localSeasonDays: input.season.days50, waspEstablished: input.wasp.established, form, bandwidthKm };
+  const trees = new Set<number>();
+  const growers = new Set<number>();
+  let reports = 0;
+  for (const v of input.varieties) {
+    reports += v.localReports.length;
+    for (const r of v.localReports) {
+      trees.add(r.treeId);
+      growers.add(r.userId);
+    }
+  }
   return {
     point: input.point,
     radiusKm: input.radiusKm,
     form,
     season: input.season,
     wasp: input.wasp,
-    totals: {
-      reports: all.length,
-      trees: new Set(all.map((r) => r.treeId)).size,
-      growers: new Set(all.map((r) => r.userId)).size,
-    },
+    totals: { reports, trees: trees.size, growers: growers.size },
     varieties: rankVarieties(input.varieties.filter((v) => v.localReports.length > 0).map((v) => buildVarietyEvidence(v, context))),
-    method: `${ADJUSTED_SHARE_METHOD} ${RANKING_METHOD}`,
+    method: `${adjustedShareMethod(bandwidthKm)} ${RANKING_METHOD}`,
   };
 }
 

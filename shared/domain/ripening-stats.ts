@@ -189,3 +189,130 @@ export function varietyOverall(reports: EvidenceReport[]): { share: number | nul
     treesBehindNeed: new Set(need.map((r) => r.treeId)).size,
   };
 }
+
+const FORM_INDEX: Record<GrowingForm, number> = { ground: 0, container: 1, wall: 2, greenhouse: 3 };
+
+type TreeAcc = {
+  n: number;
+  ripe: number;
+  d: number;
+  cropN: [number, number];
+  cropRipe: [number, number];
+  formN: [number, number, number, number];
+  formRipe: [number, number, number, number];
+  firstRipe: number[] | null;
+  frostToRipe: number[] | null;
+};
+
+function shareOf(trees: number, reports: number, ripened: number): Share {
+  return { trees, reports, ripened, share: trees > 0 ? ripened / trees : null, interval90: wilsonInterval(ripened, trees, 0.9) };
+}
+
+function medianOfSorted(xs: Float64Array): number | null {
+  if (xs.length === 0) return null;
+  const mid = xs.length >> 1;
+  return xs.length % 2 === 1 ? xs[mid] : (xs[mid - 1] + xs[mid]) / 2;
+}
+
+function smallMedian(list: number[]): number {
+  if (list.length === 1) return list[0];
+  return median(list) as number;
+}
+
+/**
+ * Everything the near answer needs about one variety's local reports, in one pass over them:
+ * the same figures as summarizeShare (all, by crop, by form), adjustedShare, and the main-crop
+ * medians, but fast enough for tens of thousands of reports per request.
+ */
+export function tallyEvidence(
+  reports: EvidenceReport[],
+  overallShare: number | null,
+  options: { bandwidthKm?: number; priorStrength?: number } = {},
+): {
+  growers: number;
+  all: Share;
+  byCrop: { breba: Share; main: Share };
+  byForm: { ground: Share; container: Share; wall: Share; greenhouse: Share };
+  adjustedShare: number | null;
+  medianFirstRipeDoy: number | null;
+  medianDaysFrostToRipe: number | null;
+} {
+  const trees = new Map<number, TreeAcc>();
+  const users = new Set<number>();
+  const cropReports = [0, 0];
+  const formReports = [0, 0, 0, 0];
+  for (const r of reports) {
+    users.add(r.userId);
+    let t = trees.get(r.treeId);
+    if (!t) {
+      t = { n: 0, ripe: 0, d: r.distanceKm, cropN: [0, 0], cropRipe: [0, 0], formN: [0, 0, 0, 0], formRipe: [0, 0, 0, 0], firstRipe: null, frostToRipe: null };
+      trees.set(r.treeId, t);
+    }
+    const ok = r.outcome === 'ripened' ? 1 : 0;
+    const c = r.crop === 'main' ? 1 : 0;
+    const f = FORM_INDEX[r.form];
+    t.n++;
+    t.ripe += ok;
+    if (r.distanceKm < t.d) t.d = r.distanceKm;
+    t.cropN[c]++;
+    t.cropRipe[c] += ok;
+    t.formN[f]++;
+    t.formRipe[f] += ok;
+    cropReports[c]++;
+    formReports[f]++;
+    if (c === 1) {
+      if (r.firstRipeDoy !== null && Number.isFinite(r.firstRipeDoy)) (t.firstRipe ??= []).push(r.firstRipeDoy);
+      const days = daysFrostToRipe(r);
+      if (days !== null && Number.isFinite(days)) (t.frostToRipe ??= []).push(days);
+    }
+  }
+
+  const h = options.bandwidthKm ?? ADJUSTED_SHARE_DEFAULTS.bandwidthKm;
+  const k = options.priorStrength ?? ADJUSTED_SHARE_DEFAULTS.priorStrength;
+  let ripened = 0;
+  const cropTrees = [0, 0];
+  const cropRipened = [0, 0];
+  const formTrees = [0, 0, 0, 0];
+  const formRipened = [0, 0, 0, 0];
+  let ws = 0;
+  let w = 0;
+  const firstRipe: number[] = [];
+  const frostToRipe: number[] = [];
+  for (const t of trees.values()) {
+    const frac = t.ripe / t.n;
+    ripened += frac;
+    const weight = Math.exp(-(t.d * t.d) / (2 * h * h));
+    ws += weight * frac;
+    w += weight;
+    for (let c = 0; c < 2; c++) {
+      if (t.cropN[c] > 0) {
+        cropTrees[c]++;
+        cropRipened[c] += t.cropRipe[c] / t.cropN[c];
+      }
+    }
+    for (let f = 0; f < 4; f++) {
+      if (t.formN[f] > 0) {
+        formTrees[f]++;
+        formRipened[f] += t.formRipe[f] / t.formN[f];
+      }
+    }
+    if (t.firstRipe) firstRipe.push(smallMedian(t.firstRipe));
+    if (t.frostToRipe) frostToRipe.push(smallMedian(t.frostToRipe));
+  }
+  const adjusted = overallShare === null ? (w > 0 ? ws / w : null) : (ws + k * overallShare) / (w + k);
+  const byForm = (f: number) => shareOf(formTrees[f], formReports[f], formRipened[f]);
+  return {
+    growers: users.size,
+    all: shareOf(trees.size, reports.length, ripened),
+    byCrop: { breba: shareOf(cropTrees[0], cropReports[0], cropRipened[0]), main: shareOf(cropTrees[1], cropReports[1], cropRipened[1]) },
+    byForm: { ground: byForm(0), container: byForm(1), wall: byForm(2), greenhouse: byForm(3) },
+    adjustedShare: adjusted,
+    medianFirstRipeDoy: medianOfSorted(Float64Array.from(firstRipe).sort()),
+    medianDaysFrostToRipe: medianOfSorted(Float64Array.from(frostToRipe).sort()),
+  };
+}
+
+/** The adjusted-share method in plain words for a kernel scale `bandwidthKm`. */
+export function adjustedShareMethod(bandwidthKm: number = ADJUSTED_SHARE_DEFAULTS.bandwidthKm): string {
+  return ADJUSTED_SHARE_METHOD.replace('h = 50 km', `h = ${Math.round(bandwidthKm)} km`);
+}

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import {
   type EvidenceReport,
   adjustedShare,
@@ -8,6 +9,7 @@ import {
   medianFirstRipeDoy,
   normalQuantile,
   summarizeShare,
+  tallyEvidence,
   varietyOverall,
   wilsonInterval,
 } from '../../shared/domain/ripening-stats';
@@ -147,5 +149,42 @@ describe('medians', () => {
       report({ treeId: 5, outcome: 'unripe' }),
     ]);
     expect(overall).toEqual({ share: 0.8, neededDays: 140, treesBehindNeed: 2 });
+  });
+});
+
+describe('tallyEvidence', () => {
+  it('gives the same figures in one pass as the plain functions (property test)', () => {
+    const arbReport = fc.record({
+      treeId: fc.integer({ min: 1, max: 12 }),
+      userId: fc.integer({ min: 1, max: 5 }),
+      crop: fc.constantFrom('breba' as const, 'main' as const),
+      form: fc.constantFrom('ground' as const, 'container' as const, 'wall' as const, 'greenhouse' as const),
+      outcome: fc.constantFrom('no-fruit' as const, 'dropped' as const, 'unripe' as const, 'ripened' as const),
+      distanceKm: fc.double({ min: 0, max: 300, noNaN: true }),
+      firstRipeDoy: fc.option(fc.integer({ min: 150, max: 300 }), { nil: null }),
+      springFrostDoy: fc.option(fc.integer({ min: 60, max: 150 }), { nil: null }),
+    });
+    fc.assert(
+      fc.property(fc.array(arbReport, { maxLength: 40 }), fc.option(fc.double({ min: 0, max: 1, noNaN: true }), { nil: null }), (rows, overall) => {
+        const reports = rows.map((r) => report(r));
+        const t = tallyEvidence(reports, overall);
+        const close = (a: number | null, b: number | null) => (a === null || b === null ? expect(a).toBe(b) : expect(a).toBeCloseTo(b, 9));
+        const same = (a: ReturnType<typeof summarizeShare>, b: ReturnType<typeof summarizeShare>) => {
+          expect([a.trees, a.reports]).toEqual([b.trees, b.reports]);
+          close(a.ripened, b.ripened);
+          close(a.share, b.share);
+          close(a.interval90?.low ?? null, b.interval90?.low ?? null);
+        };
+        same(t.all, summarizeShare(reports));
+        same(t.byCrop.main, summarizeShare(reports.filter((r) => r.crop === 'main')));
+        same(t.byForm.wall, summarizeShare(reports.filter((r) => r.form === 'wall')));
+        close(t.adjustedShare, adjustedShare(reports, overall));
+        const main = reports.filter((r) => r.crop === 'main');
+        close(t.medianFirstRipeDoy, medianFirstRipeDoy(main));
+        close(t.medianDaysFrostToRipe, medianDaysFrostToRipe(main));
+        expect(t.growers).toBe(new Set(reports.map((r) => r.userId)).size);
+      }),
+      { numRuns: 300 },
+    );
   });
 });
