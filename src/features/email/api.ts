@@ -17,7 +17,7 @@ export const emailQueries = {
   all: ['email'] as const,
   digest: () => queryOptions({ queryKey: [...emailQueries.all, 'digest'], queryFn: () => apiFetch('/api/email/digest', digestSettingsSchema) }),
   devMail: () =>
-    queryOptions({ queryKey: [...emailQueries.all, 'dev-mail'], queryFn: () => apiFetch('/api/dev/mail', devMailListSchema), refetchInterval: 4_000, staleTime: 0 }),
+    queryOptions({ queryKey: [...emailQueries.all, 'dev-mail'], queryFn: () => apiFetch('/api/dev/mail', devMailListSchema), refetchInterval: 4_000, staleTime: 2_000 }),
   devMailMessage: (id: number) =>
     queryOptions({ queryKey: [...emailQueries.all, 'dev-mail', id], queryFn: () => apiFetch(`/api/dev/mail/${id}`, devMailMessageSchema), staleTime: Infinity }),
 };

@@ -70,11 +70,12 @@ export function DevMailbox() {
   const clear = useClearDevMail();
   const [selected, setSelected] = useState<number | null>(null);
 
-  if (list.error instanceof ApiError && list.error.status === 404) {
+  // A failed refresh keeps showing the messages already loaded.
+  if (!list.data && list.error instanceof ApiError && list.error.status === 404) {
     return <p className="text-ink/80">The development mailbox is off on this server (it is off in production unless SYCONIUM_DEV_MAIL=true).</p>;
   }
   if (list.isLoading) return <p className="text-ink/70">Loading the mailbox…</p>;
-  if (list.error) return <p role="alert">{list.error.message}</p>;
+  if (!list.data) return <p role="alert">{list.error?.message ?? 'The mailbox could not be read.'}</p>;
   const messages = list.data!.messages;
   const current = selected ?? messages[0]?.id ?? null;
 
