@@ -221,11 +221,21 @@ function roundOrNull(v: number | null): number | null {
  * Years with no spring freeze sort as earliest and years with no fall freeze as latest; a quantile
  * that lands on them is null ("no freeze in that share of years"). Quantiles are empirical (type 7,
  * linear interpolation) and rounded to whole days; NCEI fits a distribution instead, so results
- * differ from published normals by a few days. Incomplete years are left out.
+ * differ from published normals by a few days. Incomplete years are left out. Pass the same
+ * `hemisphere` as to freezeYears: in the south a January spring freeze sorts after December ones.
  */
-export function freezeSummary(years: FreezeYear[], probabilities: number[] = [10, 50, 90]): FreezeSummaryRow[] {
+export function freezeSummary(
+  years: FreezeYear[],
+  probabilities: number[] = [10, 50, 90],
+  options: { hemisphere?: Hemisphere } = {},
+): FreezeSummaryRow[] {
   const used = years.filter((y) => y.complete);
-  const spring = used.map((y) => y.lastSpringDoy ?? -Infinity).sort((a, b) => a - b);
+  // Southern spring runs 1 July to 31 January: a January date (day <= 31) is the latest, so it is
+  // ordered after December by adding a year, and wrapped back after the quantile.
+  const south = options.hemisphere === 'south';
+  const unwrap = (doy: number) => (south && doy <= 31 ? doy + 365 : doy);
+  const wrap = (doy: number | null) => (doy !== null && doy > 365 ? doy - 365 : doy);
+  const spring = used.map((y) => (y.lastSpringDoy === null ? -Infinity : unwrap(y.lastSpringDoy))).sort((a, b) => a - b);
   const fall = used.map((y) => y.firstFallDoy ?? Infinity).sort((a, b) => a - b);
   const season = used.filter((y) => y.seasonDays !== null).map((y) => y.seasonDays as number).sort((a, b) => a - b);
   return probabilities.map((probability) => {
@@ -233,7 +243,7 @@ export function freezeSummary(years: FreezeYear[], probabilities: number[] = [10
     const p = probability / 100;
     return {
       probability,
-      lastSpringDoy: roundOrNull(quantile(spring, 1 - p)),
+      lastSpringDoy: wrap(roundOrNull(quantile(spring, 1 - p))),
       firstFallDoy: roundOrNull(quantile(fall, p)),
       seasonDays: roundOrNull(quantile(season, p)),
       years: used.length,
@@ -263,7 +273,7 @@ export function stationFreezeTables(
   for (const thresholdF of options.thresholdsF ?? [32, 28, 24]) {
     const ys = freezeYears(days, thresholdFToC(thresholdF), options);
     for (const y of ys) years.push({ thresholdF, ...y });
-    for (const s of freezeSummary(ys, options.probabilities)) summaries.push({ thresholdF, ...s });
+    for (const s of freezeSummary(ys, options.probabilities, options)) summaries.push({ thresholdF, ...s });
   }
   return { years, summaries };
 }

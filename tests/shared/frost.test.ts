@@ -191,6 +191,17 @@ describe('freezeSummary', () => {
     expect(freezeSummary([], [50])).toEqual([{ probability: 50, lastSpringDoy: null, firstFallDoy: null, seasonDays: null, years: 0 }]);
   });
 
+  it('orders a southern January spring freeze after the December ones', () => {
+    // Southern season-year: spring runs July to January, so a freeze on 10 January (day 10) is the latest.
+    const years = [350, 355, 360, 10, 5].map((d, i) => ({ year: 2000 + i, lastSpringDoy: d, firstFallDoy: 120, seasonDays: 120, complete: true }));
+    const [p10, p50, p90] = freezeSummary(years, [10, 50, 90], { hemisphere: 'south' });
+    expect(p50.lastSpringDoy).toBe(360);
+    expect(p10.lastSpringDoy).toBe(8); // between 5 and 10 January, wrapped back from day 373
+    expect(p90.lastSpringDoy).toBe(352);
+    // Read as northern, days 5 and 10 would be the earliest instead.
+    expect(freezeSummary(years, [50])[0].lastSpringDoy).toBe(350);
+  });
+
   it('shows a day of year as month and day', () => {
     expect(doyToMonthDay(117)).toBe('04-27');
     expect(doyToMonthDay(61, 2024)).toBe('03-01');
