@@ -93,7 +93,7 @@ export function seasonFit(input: SeasonFitInput): SeasonFit {
   const available = local + headStartDays;
   const seasonWords =
     headStartDays > 0
-      ? `The frost-free season here is about ${local} days in a typical year; with ${FORM_WORDS[input.form]}’s assumed ${headStartDays}-day head start, about ${available}.`
+      ? `The frost-free season here is about ${local} days in a typical year; with an assumed ${headStartDays}-day head start for ${FORM_WORDS[input.form]}, about ${available}.`
       : `The frost-free season here is about ${local} days in a typical year.`;
   if (neededDays === null) {
     return {
