@@ -6,6 +6,7 @@ import EditorsRoute from './routes/editors';
 import ForgotPasswordRoute from './routes/forgot-password';
 import EditorsOverviewRoute from './routes/editors-overview';
 import EditorsPeopleRoute from './routes/editors-people';
+import EditorsStationsRoute from './routes/editors-stations';
 import HereRoute from './routes/here';
 import HomeRoute from './routes/home';
 import MyReportsRoute from './routes/my-reports';
@@ -48,6 +49,7 @@ export const routes = [
         children: [
           { index: true, element: <EditorsOverviewRoute /> },
           { path: 'people', element: <EditorsPeopleRoute /> },
+          { path: 'stations/:stationId?', element: <EditorsStationsRoute /> },
         ],
       },
       { path: '*', element: <NotFoundRoute /> },

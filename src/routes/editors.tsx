@@ -21,6 +21,9 @@ export default function EditorsRoute() {
           <NavLink to="/editors/wasp-areas" className={tabClass}>
             Wasp areas
           </NavLink>
+          <NavLink to="/editors/stations" className={tabClass}>
+            Stations
+          </NavLink>
           <NavLink to="/editors/moderation" className={tabClass}>
             Moderation
           </NavLink>
