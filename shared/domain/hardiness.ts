@@ -24,3 +24,41 @@ export function hardinessZone(extremeMinF: number): HardinessZone {
 export function hardinessZoneFromC(extremeMinC: number): HardinessZone {
   return hardinessZone((extremeMinC * 9) / 5 + 32);
 }
+
+/**
+ * The average of each winter's lowest minimum (°C), the quantity the hardiness map is drawn from.
+ * Winters are counted whole: July to June in the north, January to December in the south, and
+ * `year` is the calendar year in which the winter starts. A winter with more than `maxMissingDays`
+ * (default 15) missing days is left out. `fromYear`/`toYear` bound the winters used (inclusive).
+ */
+export function averageExtremeMinC(
+  days: { date: string; tminC: number }[],
+  options: { hemisphere?: 'north' | 'south'; fromYear?: number; toYear?: number; maxMissingDays?: number } = {},
+): { averageC: number | null; winters: number } {
+  const south = options.hemisphere === 'south';
+  const maxMissing = options.maxMissingDays ?? 15;
+  const winters = new Map<number, { min: number; count: number; leap: boolean }>();
+  for (const d of days) {
+    if (!Number.isFinite(d.tminC)) continue;
+    const y = Number(d.date.slice(0, 4));
+    const m = Number(d.date.slice(5, 7));
+    const year = south || m >= 7 ? y : y - 1;
+    const w = winters.get(year) ?? { min: Infinity, count: 0, leap: false };
+    w.min = Math.min(w.min, d.tminC);
+    w.count++;
+    if (d.date.endsWith('-02-29')) w.leap = true;
+    winters.set(year, w);
+  }
+  let sum = 0;
+  let n = 0;
+  for (const [year, w] of winters) {
+    if (options.fromYear !== undefined && year < options.fromYear) continue;
+    if (options.toYear !== undefined && year > options.toYear) continue;
+    const febYear = south ? year : year + 1;
+    const length = (febYear % 4 === 0 && febYear % 100 !== 0) || febYear % 400 === 0 ? 366 : 365;
+    if (length - w.count > maxMissing) continue;
+    sum += w.min;
+    n++;
+  }
+  return { averageC: n > 0 ? sum / n : null, winters: n };
+}

@@ -1,5 +1,7 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { hardinessZone, hardinessZoneFromC } from '../../shared/domain/hardiness';
+import { averageExtremeMinC, hardinessZone, hardinessZoneFromC } from '../../shared/domain/hardiness';
+import { parseStationCsv } from '../../shared/domain/station-csv';
 
 describe('hardinessZone', () => {
   it('uses the 2023 USDA map bands', () => {
@@ -28,5 +30,29 @@ describe('hardinessZone', () => {
   it('accepts Celsius', () => {
     // -15 C = 5 F: the bottom of 7b (USDA 2023 bands).
     expect(hardinessZoneFromC(-15).zone).toBe('7b');
+  });
+});
+
+describe('averageExtremeMinC', () => {
+  it('puts Albany and Milwaukee in zone 6a over 1991-2020', () => {
+    // USDA ARS / PRISM 2023 Plant Hardiness Zone Map: Albany, NY and Milwaukee, WI lie in zone 6a
+    // (recalled from memory of the 2023 map's ZIP look-up; the map uses 1991-2020 extremes, as here).
+    for (const file of ['ghcnd-USW00014735-daily.csv', 'ghcnd-USW00014839-daily.csv']) {
+      const { days } = parseStationCsv(readFileSync(new URL(`../fixtures/${file}`, import.meta.url), 'utf8'));
+      const { averageC, winters } = averageExtremeMinC(days, { fromYear: 1991, toYear: 2019 });
+      expect(winters).toBeGreaterThanOrEqual(25);
+      expect(hardinessZoneFromC(averageC!).zone).toBe('6a');
+    }
+  });
+
+  it('keeps a winter whole across the new year and leaves out gappy winters', () => {
+    const days: { date: string; tminC: number }[] = [];
+    for (let t = Date.UTC(2020, 6, 1); t <= Date.UTC(2022, 5, 30); t += 86_400_000) {
+      const date = new Date(t).toISOString().slice(0, 10);
+      if (date >= '2021-12-01' && date <= '2021-12-31') continue; // 31 days missing in the second winter
+      days.push({ date, tminC: date === '2020-12-20' ? -20 : date === '2021-01-15' ? -10 : 0 });
+    }
+    // Winter 2020 (July 2020 to June 2021) has -20 C in December and -10 C in January: its extreme is -20.
+    expect(averageExtremeMinC(days)).toEqual({ averageC: -20, winters: 1 });
   });
 });
