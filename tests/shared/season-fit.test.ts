@@ -37,6 +37,7 @@ describe('seasonFit', () => {
     expect(ground.verdict).toBe('unlikely');
     expect(pot).toMatchObject({ headStartDays: FORM_HEAD_START_DAYS.container, marginDays: ground.marginDays! + FORM_HEAD_START_DAYS.container });
     expect(pot.verdict).toBe('marginal');
+    expect(pot.explanation).toMatch(/assumed 21-day head start for a container, about 161/);
     expect(seasonFit({ ...base, localSeasonDays: 140, ripeningClass: 'late', form: 'container', headStartDays: 0 }).marginDays).toBe(ground.marginDays);
     expect(FORM_HEAD_START_DAYS.container).toBeGreaterThan(FORM_HEAD_START_DAYS.ground);
   });
