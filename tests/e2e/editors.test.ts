@@ -1,0 +1,62 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
+import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+
+/** An invented area near Austin, TX (demo data, not a real observation). */
+const AREA_NAME = 'Balcones test area (e2e)';
+const GEOJSON = {
+  type: 'FeatureCollection',
+  features: [
+    {
+      type: 'Feature',
+      properties: { note: 'invented for the browser test' },
+      geometry: { type: 'Polygon', coordinates: [[[-98.0, 30.1], [-97.5, 30.1], [-97.5, 30.5], [-98.0, 30.5], [-98.0, 30.1]]] },
+    },
+  ],
+};
+
+describe('editors’ workspace in the browser', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('the demo editor uploads a GeoJSON wasp area and sees it drawn on the map; nothing leaves the machine', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
+    const requests = recordRequests(page);
+    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Editors', exact: true }).click();
+    // the overview counts what needs attention (demo: 2 proposed names)
+    await expect.poll(() => page.getByRole('link', { name: /Proposed names/ }).textContent(), { timeout: 30_000 }).toMatch(/^2/);
+    await page.getByRole('link', { name: 'Wasp areas', exact: true }).click();
+    const map = page.getByTestId('wasp-area-map');
+    // the demo's active areas are drawn before we add one
+    await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain('Lower Sacramento Valley (demo)');
+
+    await page.getByRole('button', { name: 'New wasp area' }).click();
+    await page.getByLabel('Area name').fill(AREA_NAME);
+    await page.getByLabel('Source', { exact: true }).fill('Browser test: invented record');
+    await page.getByLabel('Date observed').fill('2025-07-01');
+    await page.getByLabel('Upload a GeoJSON file').check();
+    await page.locator('input[type="file"]').setInputFiles({ name: 'balcones.geojson', mimeType: 'application/geo+json', buffer: Buffer.from(JSON.stringify(GEOJSON)) });
+    await expect.poll(() => page.getByText('balcones.geojson: outline read').isVisible()).toBe(true);
+    await page.getByRole('button', { name: 'Record area' }).click();
+
+    await expect.poll(() => page.getByRole('status').textContent(), { timeout: 30_000 }).toContain(`Recorded “${AREA_NAME}”`);
+    // MapLibre drew the new area: its name comes back from queryRenderedFeatures on the area layer
+    await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain(AREA_NAME);
+    await expect.poll(() => page.getByRole('button', { name: AREA_NAME, exact: true }).isVisible()).toBe(true);
+    // and the public layer every map reads now carries it
+    const publicAreas = await (await fetch(`${server.url}/api/wasp-areas`)).json();
+    expect(publicAreas.features.map((f: { properties: { name: string } }) => f.properties.name)).toContain(AREA_NAME);
+
+    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  });
+});
