@@ -6,6 +6,10 @@ import EditorsRoute from './routes/editors';
 import ForgotPasswordRoute from './routes/forgot-password';
 import EditorsOverviewRoute from './routes/editors-overview';
 import EditorsPeopleRoute from './routes/editors-people';
+import EditorsVarietiesRoute from './routes/editors-varieties';
+import EditorsWaspAreasRoute from './routes/editors-wasp-areas';
+import EditorsModerationRoute from './routes/editors-moderation';
+import EditorsAuditRoute from './routes/editors-audit';
 import EditorsStationsRoute from './routes/editors-stations';
 import HereRoute from './routes/here';
 import HomeRoute from './routes/home';
@@ -49,7 +53,11 @@ export const routes = [
         children: [
           { index: true, element: <EditorsOverviewRoute /> },
           { path: 'people', element: <EditorsPeopleRoute /> },
+          { path: 'varieties', element: <EditorsVarietiesRoute /> },
+          { path: 'wasp-areas', element: <EditorsWaspAreasRoute /> },
           { path: 'stations/:stationId?', element: <EditorsStationsRoute /> },
+          { path: 'moderation', element: <EditorsModerationRoute /> },
+          { path: 'audit', element: <EditorsAuditRoute /> },
         ],
       },
       { path: '*', element: <NotFoundRoute /> },
