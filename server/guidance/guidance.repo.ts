@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { eq, inArray } from 'drizzle-orm';
 import { boundingBox, distanceKm, type BoundingBox } from '../../shared/domain/geo';
 import { dayOfYear, seasonDaysFromFrostDates, type SeasonReport } from '../../shared/domain/guidance';
 import type { Crop, FigType, GrowingForm } from '../../shared/domain/codes';
@@ -130,6 +130,14 @@ export function reportsWithSeason(db: Db, q: { crop: Crop; form?: GrowingForm; v
   return { rows: out, withoutSeason, fromOwnFrostDates, fromStations };
 }
 
+/** Names and types of the varieties a list may show: accepted or still proposed (not rejected or merged away). */
 export function varietyBriefs(db: Db): Map<number, { name: string; figType: FigType }> {
-  return new Map(db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType }).from(varieties).all().map((v) => [v.id, { name: v.name, figType: v.figType }]));
+  return new Map(
+    db
+      .select({ id: varieties.id, name: varieties.name, figType: varieties.figType })
+      .from(varieties)
+      .where(inArray(varieties.status, ['accepted', 'proposed']))
+      .all()
+      .map((v) => [v.id, { name: v.name, figType: v.figType }]),
+  );
 }

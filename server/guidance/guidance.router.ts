@@ -62,7 +62,10 @@ export function createGuidanceRouter({ db }: { db: Db }): Router {
     const q = shortSeasonQuerySchema.parse(req.query);
     const { rows } = reportsWithSeason(db, { crop: 'main', form: q.form });
     const names = varietyBriefs(db);
-    const list = shortSeasonVarieties(rows, q.seasonDays, q.toleranceDays).map((v) => ({ ...v, name: names.get(v.varietyId)?.name ?? `#${v.varietyId}`, figType: names.get(v.varietyId)?.figType ?? 'unknown' }));
+    const list = shortSeasonVarieties(rows, q.seasonDays, q.toleranceDays).flatMap((v) => {
+      const brief = names.get(v.varietyId);
+      return brief ? [{ ...v, ...brief }] : [];
+    });
     res.json(
       shortSeasonResponseSchema.parse({
         seasonDays: q.seasonDays,

@@ -56,6 +56,9 @@ const TITLES: Record<QuestionKey, string> = {
 
 type Draft = Partial<DiagnosisAnswers> & { symptom?: Symptom };
 
+/** What an unanswered question counts as ("not sure", full sun, in the ground): shown selected. */
+const DEFAULTS = diagnosisAnswersSchema.parse({ symptom: 'no-fruit' });
+
 function Choice<T extends string>({ name, value, options, onChange }: { name: string; value: T | undefined; options: Record<T, string>; onChange: (v: T) => void }) {
   return (
     <fieldset className="flex flex-col gap-2">
@@ -167,7 +170,7 @@ function QuestionBody({
     case 'variety':
       return <VarietyQuestion draft={draft} set={set} />;
     case 'crop':
-      return <Choice name="crop" value={draft.crop} options={CHOICES.crop} onChange={(crop) => set({ crop })} />;
+      return <Choice name="crop" value={draft.crop ?? DEFAULTS.crop} options={CHOICES.crop} onChange={(crop) => set({ crop })} />;
     case 'treeAge':
       return (
         <div className="flex flex-col gap-1">
@@ -187,13 +190,13 @@ function QuestionBody({
         </div>
       );
     case 'origin':
-      return <Choice name="origin" value={draft.origin} options={LABELS.plantOrigin} onChange={(origin) => set({ origin })} />;
+      return <Choice name="origin" value={draft.origin ?? DEFAULTS.origin} options={LABELS.plantOrigin} onChange={(origin) => set({ origin })} />;
     case 'form':
-      return <Choice name="form" value={draft.form} options={Object.fromEntries(GROWING_FORMS.map((f) => [f, LABELS.growingForm[f]])) as Record<(typeof GROWING_FORMS)[number], string>} onChange={(form) => set({ form })} />;
+      return <Choice name="form" value={draft.form ?? DEFAULTS.form} options={Object.fromEntries(GROWING_FORMS.map((f) => [f, LABELS.growingForm[f]])) as Record<(typeof GROWING_FORMS)[number], string>} onChange={(form) => set({ form })} />;
     case 'sun':
       return (
         <>
-          <Choice name="sun" value={draft.sun} options={CHOICES.sun} onChange={(sun) => set({ sun })} />
+          <Choice name="sun" value={draft.sun ?? DEFAULTS.sun} options={CHOICES.sun} onChange={(sun) => set({ sun })} />
           <label className="flex items-center gap-2 text-sm">
             <input type="checkbox" checked={draft.warmSpot ?? false} onChange={(e) => set({ warmSpot: e.target.checked })} />
             It stands in a warm spot: against a sunny wall or paving, sheltered from cold wind
@@ -201,14 +204,14 @@ function QuestionBody({
         </>
       );
     case 'watering':
-      return <Choice name="watering" value={draft.watering} options={CHOICES.watering} onChange={(watering) => set({ watering })} />;
+      return <Choice name="watering" value={draft.watering ?? DEFAULTS.watering} options={CHOICES.watering} onChange={(watering) => set({ watering })} />;
     case 'feeding':
-      return <Choice name="feeding" value={draft.feeding} options={CHOICES.feeding} onChange={(feeding) => set({ feeding })} />;
+      return <Choice name="feeding" value={draft.feeding ?? DEFAULTS.feeding} options={CHOICES.feeding} onChange={(feeding) => set({ feeding })} />;
     case 'pinching':
       return (
         <>
           <p className="text-sm text-ink/80">Pinching means nipping off the soft tip of each growing shoot, so the tree ripens the figs it has instead of growing longer.</p>
-          <Choice name="pinching" value={draft.pinching} options={CHOICES.pinching} onChange={(pinching) => set({ pinching })} />
+          <Choice name="pinching" value={draft.pinching ?? DEFAULTS.pinching} options={CHOICES.pinching} onChange={(pinching) => set({ pinching })} />
           <CautionBox kinds={['latex']} />
         </>
       );
@@ -247,7 +250,7 @@ function VarietyQuestion({ draft, set }: { draft: Draft; set: (p: Draft) => void
       </div>
       <div>
         <p className="text-sm font-medium">Its type</p>
-        <Choice name="figType" value={draft.figType} options={Object.fromEntries(FIG_TYPES.map((t) => [t, LABELS.figType[t]])) as Record<(typeof FIG_TYPES)[number], string>} onChange={(figType) => set({ figType })} />
+        <Choice name="figType" value={draft.figType ?? DEFAULTS.figType} options={Object.fromEntries(FIG_TYPES.map((t) => [t, LABELS.figType[t]])) as Record<(typeof FIG_TYPES)[number], string>} onChange={(figType) => set({ figType })} />
       </div>
     </div>
   );

@@ -27,7 +27,7 @@ export function ShortSeasonList({ seasonDays, form }: { seasonDays: number; form
         <ul className="mt-2 flex flex-col gap-1 text-sm">
           {data.varieties.map((v) => (
             <li key={v.varietyId}>
-              <span className="font-medium">{v.name}</span> — ripened on {v.ripened} of {v.trees} tree{v.trees === 1 ? '' : 's'} ({percent(v.share)}) from {v.growers} grower
+              <span className="font-medium">{v.name}</span> — ripened on {Math.round(v.ripened * 10) / 10} of {v.trees} tree{v.trees === 1 ? '' : 's'} ({percent(v.share)}) from {v.growers} grower
               {v.growers === 1 ? '' : 's'}; shortest season with ripe figs: {v.shortestRipeSeasonDays} days
             </li>
           ))}
