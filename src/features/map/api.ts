@@ -1,0 +1,67 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { cellResponseSchema, pinsResponseSchema, type PinFilters } from '@shared/schemas/pins';
+import { placeSearchResponseSchema } from '@shared/schemas/places';
+import { savedPlaceListSchema } from '@shared/schemas/saved-places';
+import { stationListSchema } from '@shared/schemas/stations';
+import { varietyListSchema } from '@shared/schemas/varieties';
+import { waspAreaCollectionSchema } from '@shared/schemas/wasp-areas';
+import { ApiError, apiFetch } from '../../lib/api-client';
+
+function filterParams(filters: PinFilters): Record<string, string> {
+  return Object.fromEntries(Object.entries(filters).filter(([, v]) => v !== undefined).map(([k, v]) => [k, String(v)]));
+}
+
+/** The atlas map's reads. Keys sit under ['map'] so they never collide with other features' caches. */
+export const mapQueries = {
+  all: ['map'] as const,
+  pins: (bbox: string, zoom: number, filters: PinFilters) =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'pins', bbox, zoom, filters],
+      queryFn: ({ signal }) => apiFetch(`/api/atlas/pins?${new URLSearchParams({ bbox, zoom: String(zoom), ...filterParams(filters) })}`, pinsResponseSchema, { signal }),
+      placeholderData: keepPreviousData,
+      staleTime: 60_000,
+    }),
+  cell: (lat: number, lon: number, filters: PinFilters) =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'cell', lat, lon, filters],
+      queryFn: () => apiFetch(`/api/atlas/pins/cell?${new URLSearchParams({ lat: String(lat), lon: String(lon), ...filterParams(filters) })}`, cellResponseSchema),
+    }),
+  varieties: () => queryOptions({ queryKey: [...mapQueries.all, 'varieties'], queryFn: () => apiFetch('/api/varieties', varietyListSchema), staleTime: 5 * 60_000 }),
+  waspAreas: () => queryOptions({ queryKey: [...mapQueries.all, 'wasp-areas'], queryFn: () => apiFetch('/api/wasp-areas', waspAreaCollectionSchema), staleTime: 5 * 60_000 }),
+  /** Stations for the frost-free layer; an absent or failing endpoint just means nothing to draw. */
+  stations: () =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'stations'],
+      queryFn: async () => {
+        try {
+          return await apiFetch('/api/stations', stationListSchema);
+        } catch {
+          return { stations: [] };
+        }
+      },
+      staleTime: 5 * 60_000,
+    }),
+  /** The signed-in grower's home place, or null for a visitor or someone without one. */
+  homePlace: () =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'home-place'],
+      queryFn: async () => {
+        try {
+          const { places } = await apiFetch('/api/saved-places', savedPlaceListSchema);
+          return places.find((p) => p.isHome) ?? null;
+        } catch (error) {
+          if (error instanceof ApiError && (error.status === 401 || error.status === 403 || error.status === 404)) return null;
+          throw error;
+        }
+      },
+      staleTime: 5 * 60_000,
+      retry: false,
+    }),
+  placeSearch: (q: string) =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'places', q.trim().toLowerCase()],
+      queryFn: ({ signal }) => apiFetch(`/api/places?${new URLSearchParams({ q: q.trim() })}`, placeSearchResponseSchema, { signal }),
+      enabled: q.trim().length >= 2,
+      staleTime: 10 * 60_000,
+    }),
+};

@@ -1,0 +1,192 @@
+import '../worker';
+import 'maplibre-gl/dist/maplibre-gl.css';
+import { useQuery } from '@tanstack/react-query';
+import type { Feature, FeatureCollection, Point } from 'geojson';
+import type { Map as MapLibreMap } from 'maplibre-gl';
+import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState } from 'react';
+import MapGL, { AttributionControl, Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import { snapToGrid } from '@shared/domain/public-grid';
+import type { PinFilters } from '@shared/schemas/pins';
+import { mapQueries } from '../api';
+import {
+  CLICKABLE_LAYER_IDS,
+  FROST_STATION_LAYER,
+  PIN_CELL_COUNT_LAYER,
+  PIN_CELL_LAYER,
+  PIN_CLUSTER_COUNT_LAYER,
+  PIN_CLUSTER_LAYER,
+  SOURCE_IDS,
+  WASP_FILL_LAYER,
+  WASP_OUTLINE_LAYER,
+} from '../layers';
+import { createBaseStyle } from '../style';
+import { toBbox, type MapView, type OverlayName } from '../url-state';
+import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
+
+export interface AtlasMapHandle {
+  flyTo: (view: MapView) => void;
+}
+
+type PopupState =
+  | { kind: 'cell'; lat: number; lon: number; reports: number }
+  | { kind: 'point'; lat: number; lon: number }
+  | { kind: 'station'; lat: number; lon: number; name: string; days50: number | null }
+  | { kind: 'wasp'; lat: number; lon: number; name: string; source: string; observedOn: string };
+
+interface AtlasMapProps {
+  initialView: MapView;
+  filters: PinFilters;
+  overlays: OverlayName[];
+  onViewChange: (view: MapView) => void;
+  onTotalChange?: (total: number | null) => void;
+}
+
+interface Viewport {
+  bbox: string;
+  zoom: number;
+}
+
+function viewportOf(map: MapLibreMap): Viewport {
+  const b = map.getBounds();
+  return { bbox: toBbox(b.getWest(), b.getSouth(), b.getEast(), b.getNorth()), zoom: Math.floor(map.getZoom()) };
+}
+
+/**
+ * The atlas map: our own base style and tiles, report pins clustered by the server, and the
+ * switchable wasp-area and frost-free-season layers. Clicks open popups; a cluster zooms in.
+ */
+export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange }, ref) {
+  const mapRef = useRef<MapRef>(null);
+  const [viewport, setViewport] = useState<Viewport | null>(null);
+  const [popup, setPopup] = useState<PopupState | null>(null);
+  const [cursor, setCursor] = useState<string>('');
+  const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);
+
+  useImperativeHandle(ref, () => ({
+    flyTo: (view) => mapRef.current?.flyTo({ center: [view.lon, view.lat], zoom: view.zoom, essential: true }),
+  }));
+
+  const pins = useQuery({ ...mapQueries.pins(viewport?.bbox ?? '', viewport?.zoom ?? 0, filters), enabled: viewport !== null });
+  const showWasp = overlays.includes('wasp');
+  const showFrost = overlays.includes('frost');
+  const wasp = useQuery({ ...mapQueries.waspAreas(), enabled: showWasp });
+  const stations = useQuery({ ...mapQueries.stations(), enabled: showFrost });
+
+  useEffect(() => onTotalChange?.(pins.data?.totalReports ?? null), [pins.data?.totalReports, onTotalChange]);
+  // A popup about a cell belongs to the filters it was opened with.
+  useEffect(() => setPopup((p) => (p?.kind === 'cell' ? null : p)), [filters]);
+
+  const stationData = useMemo<FeatureCollection<Point>>(
+    () => ({
+      type: 'FeatureCollection',
+      features: (stations.data?.stations ?? [])
+        .filter((s) => s.days50 !== null)
+        .map((s): Feature<Point> => ({ type: 'Feature', geometry: { type: 'Point', coordinates: [s.lon, s.lat] }, properties: { id: s.id, name: s.name, days50: s.days50 } })),
+    }),
+    [stations.data],
+  );
+
+  const onMoveEnd = useCallback(() => {
+    const map = mapRef.current?.getMap();
+    if (!map) return;
+    setViewport(viewportOf(map));
+    const c = map.getCenter();
+    onViewChange({ lat: c.lat, lon: c.wrap().lng, zoom: map.getZoom() });
+  }, [onViewChange]);
+
+  const onLoad = useCallback(() => {
+    const map = mapRef.current?.getMap();
+    if (!map) return;
+    setViewport(viewportOf(map));
+    // For browser tests and debugging: the live map instance.
+    (window as unknown as { syconiumMap?: MapLibreMap }).syconiumMap = map;
+  }, []);
+
+  const onClick = useCallback((event: MapLayerMouseEvent) => {
+    const map = mapRef.current?.getMap();
+    const feature = event.features?.[0];
+    const { lat, lng } = event.lngLat.wrap();
+    if (!map || !feature) {
+      setPopup({ kind: 'point', lat, lon: lng });
+      return;
+    }
+    const props = feature.properties as Record<string, unknown>;
+    const [fLon, fLat] = feature.geometry.type === 'Point' ? (feature.geometry.coordinates as [number, number]) : [lng, lat];
+    switch (feature.layer.id) {
+      case PIN_CLUSTER_LAYER.id:
+        setPopup(null);
+        map.easeTo({ center: [fLon, fLat], zoom: Math.max(map.getZoom() + 1, Number(props.expansionZoom)), duration: 600 });
+        return;
+      case PIN_CELL_LAYER.id:
+        // Rendered positions are rounded by the tiling; snapping gives back the exact cell centre.
+        setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports) });
+        return;
+      case FROST_STATION_LAYER.id:
+        setPopup({ kind: 'station', lat: fLat, lon: fLon, name: String(props.name), days50: props.days50 === null ? null : Number(props.days50) });
+        return;
+      case WASP_FILL_LAYER.id:
+        setPopup({ kind: 'wasp', lat, lon: lng, name: String(props.name), source: String(props.source), observedOn: String(props.observedOn) });
+        return;
+      default:
+        setPopup({ kind: 'point', lat, lon: lng });
+    }
+  }, []);
+
+  const interactiveLayerIds = useMemo(
+    () => CLICKABLE_LAYER_IDS.filter((id) => (id === FROST_STATION_LAYER.id ? showFrost : id === WASP_FILL_LAYER.id ? showWasp : true)),
+    [showFrost, showWasp],
+  );
+
+  return (
+    <MapGL
+      ref={mapRef}
+      mapStyle={mapStyle}
+      initialViewState={{ latitude: initialView.lat, longitude: initialView.lon, zoom: initialView.zoom }}
+      minZoom={1}
+      maxZoom={14}
+      dragRotate={false}
+      pitchWithRotate={false}
+      touchPitch={false}
+      attributionControl={false}
+      interactiveLayerIds={interactiveLayerIds}
+      cursor={cursor}
+      onMouseEnter={() => setCursor('pointer')}
+      onMouseLeave={() => setCursor('')}
+      onLoad={onLoad}
+      onMoveEnd={onMoveEnd}
+      onClick={onClick}
+      style={{ position: 'absolute', inset: 0 }}
+    >
+      <NavigationControl position="top-right" showCompass={false} />
+      <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
+      <AttributionControl position="bottom-right" compact customAttribution="Tiles built by Syconium" />
+
+      {showWasp && wasp.data && (
+        <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
+          <Layer {...WASP_FILL_LAYER} />
+          <Layer {...WASP_OUTLINE_LAYER} />
+        </Source>
+      )}
+      {showFrost && (
+        <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
+          <Layer {...FROST_STATION_LAYER} />
+        </Source>
+      )}
+      <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
+        <Layer {...PIN_CLUSTER_LAYER} />
+        <Layer {...PIN_CLUSTER_COUNT_LAYER} />
+        <Layer {...PIN_CELL_LAYER} />
+        <Layer {...PIN_CELL_COUNT_LAYER} />
+      </Source>
+
+      {popup && (
+        <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
+          {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} filters={filters} />}
+          {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} />}
+          {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} />}
+          {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} />}
+        </Popup>
+      )}
+    </MapGL>
+  );
+});

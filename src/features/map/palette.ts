@@ -1,0 +1,24 @@
+/**
+ * The map's colours, taken from the app's palette in src/index.css (fig plum, leaf green, warm
+ * paper, soft ink) plus two quiet tones for water and land that sit between them.
+ */
+export const MAP_COLORS = {
+  water: '#dfe6e3',
+  waterDeep: '#d3ddd9',
+  land: '#f8f3ea',
+  paper: '#faf6ef',
+  ink: '#2b2230',
+  inkSoft: '#5b4f5e',
+  countryBorder: '#b58ea6',
+  stateBorder: '#d4bfcb',
+  countyBorder: '#e6dae0',
+  fig300: '#c193ae',
+  fig500: '#8e4f73',
+  fig600: '#6b3a5b',
+  fig700: '#552c48',
+  fig900: '#2f1828',
+  leaf300: '#a9c79d',
+  leaf500: '#5e8a57',
+  leaf700: '#3d5e39',
+  amberSoft: '#f3d9a4',
+} as const;
