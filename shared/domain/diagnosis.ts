@@ -221,6 +221,7 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
         waspAbsent
           ? ['Grow a common-type variety (fruit without pollination) that ripens near you.', a.figType === 'san-pedro' ? 'Keep this tree for its breba crop: avoid hard winter pruning, which removes the wood it fruits on.' : 'Caprifigs and the wasp cannot simply be added where the wasp does not live; ask your local extension service before trying.']
           : ['Check whether caprifigs carrying the wasp grow nearby; ask your local extension service.'],
+        waspAbsent && a.figType === 'san-pedro' ? ['latex'] : [],
       );
     } else if (needsWasp === null && a.symptom === 'dropped' && waspAbsent) {
       add(

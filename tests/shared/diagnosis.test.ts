@@ -162,3 +162,12 @@ describe('localDataFrom', () => {
     expect(localDataFrom(null, null, null)).toMatchObject({ seasonDays50: null, waspEstablished: null, seasonFit: null });
   });
 });
+
+describe('cautions', () => {
+  it('puts the fig-sap caution on pruning advice for a San Pedro breba', () => {
+    // common practice, no source: fig latex irritates skin and burns it in sunlight
+    const causes = diagnose({ symptom: 'dropped', figType: 'san-pedro', crop: 'main', treeAgeYears: 6, watering: 'even', feeding: 'balanced' }, { waspEstablished: false });
+    expect(causes[0]!.tryNext.join(' ')).toMatch(/pruning/);
+    expect(causes[0]!.cautions).toContain('latex');
+  });
+});

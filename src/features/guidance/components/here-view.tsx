@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useMemo, useState } from 'react';
+import { Link } from 'react-router';
 import type { NearResponse } from '@shared/schemas/atlas';
 import { SavePlaceForm } from '../../places/components/save-place-form';
 import { useCurrentUser } from '../../auth/api';
@@ -65,11 +66,18 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
         <SeasonSuccessChart form={query.form} localDays={days50} />
       </section>
 
-      {user && (
-        <section>
+      <section>
+        {user ? (
           <SavePlaceForm lat={query.lat} lon={query.lon} form={query.form} />
-        </section>
-      )}
+        ) : (
+          <p className="text-sm text-ink/70">
+            <Link to={`/sign-in?next=${encodeURIComponent(`/here?lat=${query.lat}&lon=${query.lon}&form=${query.form}`)}`} className="font-medium text-fig-600 underline">
+              Sign in
+            </Link>{' '}
+            to save this place, or make it your home.
+          </p>
+        )}
+      </section>
     </div>
   );
 }
