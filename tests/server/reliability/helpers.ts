@@ -5,7 +5,7 @@ import type { Db } from '../../../server/db/client';
 
 /** An accepted catalogue variety to hang reports on (invented name). */
 export function addVariety(db: Db, name = `Reliability test fig ${Math.random().toString(36).slice(2, 8)}`): number {
-  return Number(db.sqlite.prepare("INSERT INTO varieties (name, fig_type, status) VALUES (?, 'common', 'accepted')").run(name).lastInsertRowid);
+  return Number(db.sqlite.prepare("INSERT INTO varieties (name, fig_type, status, sources) VALUES (?, 'common', 'accepted', 'Invented for a reliability test')").run(name).lastInsertRowid);
 }
 
 /** A report body the API accepts (POST /api/reports). */
