@@ -16,12 +16,13 @@ export default function HereRoute() {
   const saved = useQuery({ ...savedPlaceQueries.list(), enabled: !!user });
   const lat = num(params.get('lat'));
   const lon = num(params.get('lon'));
+  const home = saved.data?.places.find((p) => p.isHome);
   const formParam = params.get('form');
-  const form: GrowingForm = GROWING_FORMS.includes(formParam as GrowingForm) ? (formParam as GrowingForm) : 'ground';
+  // A map click brings only lat/lon: then the home place's form, else in the ground.
+  const form: GrowingForm = GROWING_FORMS.includes(formParam as GrowingForm) ? (formParam as GrowingForm) : (home?.form ?? 'ground');
   const radiusKm = Math.min(500, Math.max(5, num(params.get('radiusKm')) ?? 100));
   const point = lat !== null && lon !== null && Math.abs(lat) <= 90 && Math.abs(lon) <= 180 ? { lat, lon } : null;
 
-  const home = saved.data?.places.find((p) => p.isHome);
   useEffect(() => {
     if (!point && home) setParams({ lat: String(home.lat), lon: String(home.lon), form: home.form, radiusKm: String(radiusKm) }, { replace: true });
   }, [point, home, radiusKm, setParams]);
