@@ -36,9 +36,7 @@ const ALL_REPORTS_SQL = `
          CAST(strftime('%j', r.spring_frost_date) AS INTEGER),
          NULL
     FROM reports r
-    JOIN varieties v ON v.id = r.variety_id
-   WHERE r.status = 'published' AND v.status = 'accepted'
-   ORDER BY r.variety_id`;
+   WHERE r.variety_id = ? AND r.status = 'published'`;
 
 const statementCache = new WeakMap<Db, Map<string, Statement>>();
 
@@ -80,7 +78,8 @@ export function reportsNear(db: Db, point: LatLon, radiusKm: number): NearReport
   // Boxes either side of the antimeridian only touch at +-180; a point there could be read twice.
   const seen = boxes.length > 1 ? new Set<number>() : null;
   for (const box of boxes) {
-    for (const row of near.iterate(box.maxLat, box.minLat, box.maxLon, box.minLon) as IterableIterator<ReportTuple>) {
+    // all() rather than iterate(): one call into SQLite instead of one per row.
+    for (const row of near.all(box.maxLat, box.minLat, box.maxLon, box.minLon) as ReportTuple[]) {
       const distance = distanceKm(point, { lat: row[8], lon: row[9] });
       if (distance > radiusKm) continue;
       if (seen) {
@@ -93,18 +92,11 @@ export function reportsNear(db: Db, point: LatLon, radiusKm: number): NearReport
   return result;
 }
 
-/** Every published report of accepted varieties, grouped by variety, one variety at a time. */
+/** Every published report of each accepted variety, one variety at a time (its index). */
 export function* reportsByVariety(db: Db): Generator<{ varietyId: number; reports: NearReport[] }> {
-  let current: { varietyId: number; reports: NearReport[] } | null = null;
-  for (const row of statement(db, ALL_REPORTS_SQL, true).iterate() as IterableIterator<ReportTuple>) {
-    if (current && current.varietyId !== row[3]) {
-      yield current;
-      current = null;
-    }
-    current ??= { varietyId: row[3], reports: [] };
-    current.reports.push(toReport(row, 0));
-  }
-  if (current) yield current;
+  const ids = statement(db, "SELECT id FROM varieties WHERE status = 'accepted' ORDER BY id", true).all() as [number][];
+  const ofVariety = statement(db, ALL_REPORTS_SQL, true);
+  for (const [varietyId] of ids) yield { varietyId, reports: (ofVariety.all(varietyId) as ReportTuple[]).map((row) => toReport(row, 0)) };
 }
 
 /** Accepted varieties of the catalogue, by id (a small table: read on each request). */

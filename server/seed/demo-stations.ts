@@ -10,7 +10,7 @@ import { DEMO_TOWNS, type DemoTown } from './demo-scenario';
 import { seededRandom } from './random';
 
 /** Years of synthetic record for the invented stations (kept short so seeding stays quick). */
-const SYNTHETIC_YEARS = { first: 2006, last: 2020 };
+const SYNTHETIC_YEARS = { first: 2011, last: 2020 };
 
 /** Towns that have a real station in the demo instead of a synthetic one. */
 const TOWNS_WITH_REAL_STATIONS = new Set(['Albany, NY', 'Milwaukee, WI']);
@@ -54,16 +54,11 @@ function median32(days: StationDayRow[]): number {
 /** Synthetic days whose median 32 deg F season is within a few days of the town's story. */
 export function calibratedSyntheticDays(town: DemoTown, seed: number): StationDayRow[] {
   // Day-to-day weather brings the freezes inward, so widen the warm half until the median fits.
-  // Two correction steps at most: "roughly" is enough, and seeding stays quick.
-  let halfWidth = town.seasonDays / 2 + 14;
-  let days = syntheticDays(town, halfWidth, seed);
-  for (let step = 0; step < 2; step++) {
-    const miss = town.seasonDays - median32(days);
-    if (Math.abs(miss) <= 4) break;
-    halfWidth += miss * 0.5;
-    days = syntheticDays(town, halfWidth, seed);
-  }
-  return days;
+  // One correction step: "roughly" is enough, and seeding stays quick.
+  const halfWidth = town.seasonDays / 2 + 14;
+  const days = syntheticDays(town, halfWidth, seed);
+  const miss = town.seasonDays - median32(days);
+  return Math.abs(miss) <= 4 ? days : syntheticDays(town, halfWidth + miss * 0.5, seed);
 }
 
 export const demoStationCode = (town: DemoTown) => `DEMO-${town.name.toUpperCase().replace(/[^A-Z]+/g, '-').replace(/-+$/, '')}`;
