@@ -3,6 +3,7 @@ import { toPublicPoint } from '../../shared/domain/public-grid';
 import type { Db } from '../db/client';
 import { reportFlags, reports, trees, users, varieties, waspAreas } from '../db/schema';
 import { geometryBounds } from '../wasp-areas/wasp-areas.repo';
+import { recordAudit } from '../audit/audit.repo';
 
 /*
  * The editors' part of the demo (all invented): two names proposed by demo growers waiting for
@@ -112,7 +113,8 @@ export function seedEditorsDemo(db: Db): void {
     if (!db.select({ id: waspAreas.id }).from(waspAreas).where(eq(waspAreas.name, retiredName)).get()) {
       const editor = db.select({ id: users.id }).from(users).where(eq(users.email, 'editor@demo.syconium.test')).get();
       const geometry = { type: 'Polygon' as const, coordinates: [[[-121.95, 37.95], [-121.55, 37.95], [-121.55, 38.2], [-121.95, 38.2], [-121.95, 37.95]]] };
-      db.insert(waspAreas)
+      const { id } = db
+        .insert(waspAreas)
         .values({
           name: retiredName,
           geometry,
@@ -123,7 +125,11 @@ export function seedEditorsDemo(db: Db): void {
           retiredAt: '2025-03-01T10:00:00.000Z',
           createdById: editor?.id ?? null,
         })
-        .run();
+        .returning({ id: waspAreas.id })
+        .get();
+      // its history in the audit log, so the log shows a before and after on first start
+      const record = { name: retiredName, observedOn: '2019-06-20', status: 'active', retiredAt: null };
+      recordAudit(db, { actorId: editor?.id ?? null, action: 'wasp-area.retire', entityType: 'wasp-area', entityId: id, before: record, after: { ...record, status: 'retired', retiredAt: '2025-03-01T10:00:00.000Z' } });
     }
   });
 }

@@ -15,7 +15,7 @@ beforeAll(async () => {
   ctx = createTestContext();
   await seedDatabase(ctx.db, { seedDemo: true });
   [editor, grower] = await Promise.all([ctx.signedIn('editor'), ctx.signedIn('grower')]);
-});
+}, 120_000); // the demo seed loads real station data: slow on a busy machine
 
 const sql = <T>(query: string, ...params: unknown[]) => ctx.db.sqlite.prepare(query).get(...params) as T;
 const varietyId = (name: string) => sql<{ id: number }>('SELECT id FROM varieties WHERE name = ?', name).id;
