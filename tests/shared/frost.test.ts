@@ -44,7 +44,7 @@ describe('thresholdFToC', () => {
   });
 });
 
-describe('freezeYears and freezeSummary on Albany, NY (GHCN-Daily USW00014735), 1991-2017', () => {
+describe('freezeYears and freezeSummary on Albany, NY (GHCN-Daily USW00014735), 1991-2017', { timeout: 60_000 }, () => {
   const days = albany();
   const inNormalsPeriod = (years: ReturnType<typeof freezeYears>) => years.filter((y) => y.year >= 1991 && y.year <= 2017);
 

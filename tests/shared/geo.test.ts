@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import * as turf from '@turf/turf';
 import { boundingBox, distanceKm, inBoxes } from '../../shared/domain/geo';
 
-describe('distanceKm', () => {
+describe('distanceKm', { timeout: 30_000 }, () => {
   it('gives the published Nashville BNA to Los Angeles LAX distance', () => {
     // Haversine with R = 6371.0088 km (IUGG mean radius R1 of GRS80, Moritz, Geodetic Reference System 1980):
     // 2886.448 km; Rosetta Code "Haversine formula" gives 2886.444 km with R = 6371.0 km.
@@ -34,7 +34,7 @@ describe('distanceKm', () => {
   });
 });
 
-describe('boundingBox', () => {
+describe('boundingBox', { timeout: 30_000 }, () => {
   it('returns one box around an ordinary point', () => {
     const boxes = boundingBox({ lat: 42.74, lon: -73.81 }, 100);
     expect(boxes).toHaveLength(1);

@@ -30,7 +30,7 @@ function item(id: number, name: string, figType: FigType, share: number | null, 
   };
 }
 
-describe('rankVarieties', () => {
+describe('rankVarieties', { timeout: 30_000 }, () => {
   it('ranks a Smyrna or San Pedro variety below a common one outside wasp areas, despite a higher share', () => {
     // Texas A&M AgriLife EHT-019: only the common fig is recommended where the fig wasp is absent;
     // Condit 1955: the San Pedro main crop drops unless caprified.

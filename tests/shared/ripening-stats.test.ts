@@ -152,7 +152,7 @@ describe('medians', () => {
   });
 });
 
-describe('tallyEvidence', () => {
+describe('tallyEvidence', { timeout: 30_000 }, () => {
   it('gives the same figures in one pass as the plain functions (property test)', () => {
     const arbReport = fc.record({
       treeId: fc.integer({ min: 1, max: 12 }),

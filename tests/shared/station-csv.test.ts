@@ -4,11 +4,14 @@ import { freezeSummary, freezeYears, thresholdFToC } from '../../shared/domain/f
 import { MAX_LISTED_ERRORS, parseStationCsv } from '../../shared/domain/station-csv';
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), 'utf8');
+const parsed = new Map<string, ReturnType<typeof parseStationCsv>>();
+const parseFixture = (name: string) => parsed.get(name) ?? parsed.set(name, parseStationCsv(fixture(name))).get(name)!;
 
-describe('parseStationCsv on the open data files', () => {
+// Each open data file is parsed once; that takes seconds on a busy machine.
+describe('parseStationCsv on the open data files', { timeout: 60_000 }, () => {
   it('reads the Milwaukee year/month/day file in deg F with NA missing', () => {
     // NOAA NCEI GHCN-Daily USW00014839 (Milwaukee Mitchell International Airport), deg F, NA = missing (shared/CHECKS.md).
-    const { days, errors, unit, format } = parseStationCsv(fixture('ghcnd-USW00014839-daily.csv'));
+    const { days, errors, unit, format } = parseFixture('ghcnd-USW00014839-daily.csv');
     expect(errors).toEqual([]);
     expect({ unit, format }).toEqual({ unit: 'F', format: 'year-month-day' });
     // First row: 1938-04-01, TMAX 35.96 F, TMIN 30.02 F = 2.2 C and -1.1 C (C = (F - 32) x 5/9).
@@ -20,7 +23,7 @@ describe('parseStationCsv on the open data files', () => {
   });
 
   it('reads the Albany GHCN file in deg C with -9999 missing, giving the same freeze dates as the raw file', () => {
-    const { days, errors, unit, format } = parseStationCsv(fixture('ghcnd-USW00014735-daily.csv'));
+    const { days, errors, unit, format } = parseFixture('ghcnd-USW00014735-daily.csv');
     expect(errors).toEqual([]);
     expect({ unit, format }).toEqual({ unit: 'C', format: 'ghcn' });
     expect(days[0]).toEqual({ date: '1938-06-01', tminC: 8.3, tmaxC: 26.7 });
@@ -30,7 +33,7 @@ describe('parseStationCsv on the open data files', () => {
   });
 
   it('gives Milwaukee freeze dates in the expected season', () => {
-    const { days } = parseStationCsv(fixture('ghcnd-USW00014839-daily.csv'));
+    const { days } = parseFixture('ghcnd-USW00014839-daily.csv');
     const years = freezeYears(days, 0).filter((y) => y.year >= 1991 && y.year <= 2020);
     const [, p50] = freezeSummary(years);
     // Southeastern Wisconsin's last spring freeze falls in late April to early May, the first fall freeze in
