@@ -3,15 +3,15 @@ import type { Browser } from 'playwright-core';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
 import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
 
-/** An invented area near Austin, TX (demo data, not a real observation). */
-const AREA_NAME = 'Balcones test area (e2e)';
+/** An invented area in central Texas, away from the demo's growers (not a real observation). */
+const AREA_NAME = 'Llano test area (e2e)';
 const GEOJSON = {
   type: 'FeatureCollection',
   features: [
     {
       type: 'Feature',
       properties: { note: 'invented for the browser test' },
-      geometry: { type: 'Polygon', coordinates: [[[-98.0, 30.1], [-97.5, 30.1], [-97.5, 30.5], [-98.0, 30.5], [-98.0, 30.1]]] },
+      geometry: { type: 'Polygon', coordinates: [[[-99.5, 31.0], [-99.0, 31.0], [-99.0, 31.4], [-99.5, 31.4], [-99.5, 31.0]]] },
     },
   ],
 };
@@ -28,7 +28,7 @@ describe('editors’ workspace in the browser', () => {
     await server?.stop();
   });
 
-  it('the demo editor uploads a GeoJSON wasp area and sees it drawn on the map; nothing leaves the machine', async () => {
+  it('the demo editor uploads a GeoJSON wasp area, then sees it drawn on the editors’ map and on the atlas map’s wasp layer; nothing leaves the machine', async () => {
     const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
     const requests = recordRequests(page);
     await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
@@ -45,8 +45,8 @@ describe('editors’ workspace in the browser', () => {
     await page.getByLabel('Source', { exact: true }).fill('Browser test: invented record');
     await page.getByLabel('Date observed').fill('2025-07-01');
     await page.getByLabel('Upload a GeoJSON file').check();
-    await page.locator('input[type="file"]').setInputFiles({ name: 'balcones.geojson', mimeType: 'application/geo+json', buffer: Buffer.from(JSON.stringify(GEOJSON)) });
-    await expect.poll(() => page.getByText('balcones.geojson: outline read').isVisible()).toBe(true);
+    await page.locator('input[type="file"]').setInputFiles({ name: 'llano.geojson', mimeType: 'application/geo+json', buffer: Buffer.from(JSON.stringify(GEOJSON)) });
+    await expect.poll(() => page.getByText('llano.geojson: outline read').isVisible()).toBe(true);
     await page.getByRole('button', { name: 'Record area' }).click();
 
     await expect.poll(() => page.getByRole('status').textContent(), { timeout: 30_000 }).toContain(`Recorded “${AREA_NAME}”`);
@@ -57,6 +57,19 @@ describe('editors’ workspace in the browser', () => {
     const publicAreas = await (await fetch(`${server.url}/api/wasp-areas`)).json();
     expect(publicAreas.features.map((f: { properties: { name: string } }) => f.properties.name)).toContain(AREA_NAME);
 
+    // the atlas map's wasp-area layer (switched on through its URL) shows it too: clicking inside opens its popup
+    await page.goto(`${server.url}/?layers=wasp&lat=31.2&lon=-99.25&zoom=8`);
+    const canvas = page.locator('canvas.maplibregl-canvas').first();
+    await expect
+      .poll(
+        async () => {
+          await canvas.click({ timeout: 5_000 }).catch(() => undefined);
+          return page.getByText(`Fig wasp established: ${AREA_NAME}`).isVisible();
+        },
+        { timeout: 60_000, interval: 2_000 },
+      )
+      .toBe(true);
+
     expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
-  });
+  }, 180_000); // two maps on a shared 2-core machine
 });

@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query
 import type { WaspAreaStatus } from '@shared/domain/codes';
 import { waspAreaCollectionSchema, waspAreaRecordListSchema, waspAreaRecordResponseSchema, type WaspAreaInput, type WaspAreaUpdate } from '@shared/schemas/wasp-areas';
 import { apiFetch } from '../../lib/api-client';
+import { mapQueries } from '../map/api';
 
 export interface WaspAreaRecordFilters {
   status?: WaspAreaStatus;
@@ -34,6 +35,8 @@ function useWaspAreaMutation<TInput, TResult>(mutationFn: (input: TInput) => Pro
     mutationFn,
     onSuccess: () => {
       queryClient.invalidateQueries({ queryKey: waspAreaQueries.all });
+      // the atlas map keeps its own copy of the public layer
+      queryClient.invalidateQueries({ queryKey: mapQueries.waspAreas().queryKey });
       queryClient.invalidateQueries({ queryKey: ['audit'] });
       queryClient.invalidateQueries({ queryKey: ['moderation'] });
     },

@@ -1,14 +1,11 @@
 import { bbox } from '@turf/turf';
-import { setWorkerUrl } from 'maplibre-gl';
-import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import MapGl, { Layer, NavigationControl, Source, type LayerProps, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { closeRing } from '@shared/domain/wasp-geometry';
 import type { WaspAreaCollection, WaspAreaGeometry } from '@shared/schemas/wasp-areas';
-import { editorsMapStyle } from './map-style';
-
-setWorkerUrl(workerUrl);
+import { createBaseStyle } from '../../map/style';
+import '../../map/worker';
 
 export const WASP_AREA_FILL_LAYER = 'editor-wasp-area-fill';
 
@@ -59,7 +56,7 @@ interface WaspAreaMapProps {
 export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing, onAddVertex, onSelect, focus }: WaspAreaMapProps) {
   const mapRef = useRef<MapRef>(null);
   const [rendered, setRendered] = useState('');
-  const style = useMemo(() => editorsMapStyle(window.location.origin), []);
+  const style = useMemo(() => createBaseStyle(window.location.origin), []);
 
   const areaData = useMemo(
     () => (areas ? { ...areas, features: areas.features.map((f) => ({ ...f, properties: { ...f.properties, selected: f.id === selectedId } })) } : { type: 'FeatureCollection' as const, features: [] }),
