@@ -1,0 +1,109 @@
+import type { Browser, Page } from 'playwright-core';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, recordRequests, startServer, type RunningServer } from './harness';
+
+/** Wait until the map has added our layers, then for it to be idle with its tiles loaded. */
+async function waitForMap(page: Page): Promise<void> {
+  // The map's first idle can come before react-map-gl adds sources and layers: wait for the layers first.
+  await page.waitForFunction(() => {
+    const map = (window as unknown as { syconiumMap?: { getLayer: (id: string) => unknown } }).syconiumMap;
+    return !!map?.getLayer('pins-clusters') && !!map.getLayer('land');
+  }, null, { timeout: 150_000, polling: 500 });
+  await page.evaluate(
+    () =>
+      new Promise<void>((resolve) => {
+        const map = (window as unknown as { syconiumMap: { loaded: () => boolean; areTilesLoaded: () => boolean; once: (e: string, f: () => void) => void; triggerRepaint: () => void } }).syconiumMap;
+        if (map.loaded() && map.areTilesLoaded()) resolve();
+        else {
+          map.once('idle', () => resolve());
+          map.triggerRepaint();
+        }
+      }),
+  );
+}
+
+/** Screen position of the first rendered feature of a layer, or null. */
+async function firstFeatureAt(page: Page, layer: string): Promise<{ x: number; y: number; reports: number } | null> {
+  return page.evaluate((layerId) => {
+    type M = { queryRenderedFeatures: (o: object) => { geometry: { coordinates: [number, number] }; properties: { reports: number } }[]; project: (c: [number, number]) => { x: number; y: number } };
+    const map = (window as unknown as { syconiumMap: M }).syconiumMap;
+    const feature = map.queryRenderedFeatures({ layers: [layerId] })[0];
+    if (!feature) return null;
+    const p = map.project(feature.geometry.coordinates);
+    return { x: p.x, y: p.y, reports: feature.properties.reports };
+  }, layer);
+}
+
+describe('the atlas map in the browser', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('draws the map with the demo pins, zooms into a cluster, opens a pin’s summary; every request stays on this origin', async () => {
+    const page = await browser.newPage({ viewport: { width: 1200, height: 800 } });
+    const requests = recordRequests(page);
+    await page.goto(`${server.url}/`);
+    await waitForMap(page);
+
+    // The canvas is not blank: the base map and pins give many different colours.
+    const canvas = page.locator('.maplibregl-canvas');
+    const { channels } = await sharp(await canvas.screenshot()).stats();
+    expect(Math.max(...channels.slice(0, 3).map((c) => c.stdev))).toBeGreaterThan(8);
+
+    // The demo reports show as clusters on first start.
+    await expect.poll(() => firstFeatureAt(page, 'pins-clusters'), { timeout: 30_000 }).not.toBeNull();
+    await expect.poll(() => page.getByText(/published reports match/).textContent()).toMatch(/\d+ published reports match/);
+
+    // Clicking a cluster zooms in.
+    const box = (await canvas.boundingBox())!;
+    const zoomBefore = await page.evaluate(() => (window as unknown as { syconiumMap: { getZoom: () => number } }).syconiumMap.getZoom());
+    const cluster = (await firstFeatureAt(page, 'pins-clusters'))!;
+    await page.mouse.click(box.x + cluster.x, box.y + cluster.y);
+    await expect
+      .poll(() => page.evaluate(() => (window as unknown as { syconiumMap: { getZoom: () => number } }).syconiumMap.getZoom()), { timeout: 20_000 })
+      .toBeGreaterThan(zoomBefore + 0.9);
+
+    // Zoomed in over Albany, a single grid cell opens its summary with a link to the report.
+    await page.goto(`${server.url}/?lat=42.68&lon=-73.80&zoom=11`);
+    await waitForMap(page);
+    await expect.poll(() => firstFeatureAt(page, 'pins-cells'), { timeout: 30_000 }).not.toBeNull();
+    const cell = (await firstFeatureAt(page, 'pins-cells'))!;
+    const box2 = (await page.locator('.maplibregl-canvas').boundingBox())!;
+    await page.mouse.click(box2.x + cell.x, box2.y + cell.y);
+    const popup = page.locator('.maplibregl-popup');
+    await expect.poll(() => popup.getByRole('link', { name: 'Read the full report' }).first().isVisible(), { timeout: 20_000 }).toBe(true);
+    expect(await popup.textContent()).toMatch(/20\d\d/);
+    expect(await popup.getByRole('link', { name: 'Read the full report' }).first().getAttribute('href')).toMatch(/^\/reports\/\d+$/);
+    expect(await popup.textContent()).toMatch(/In the ground|In a container|Against a warm wall|Greenhouse/);
+
+    // The URL keeps the view for sharing.
+    await expect.poll(() => new URL(page.url()).searchParams.get('zoom')).not.toBeNull();
+
+    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.some((u) => u.includes('/tiles/base/'))).toBe(true);
+    await page.close();
+  }, 300_000);
+
+  it('keeps a filter in the URL and finds a town by name', async () => {
+    const page = await browser.newPage({ viewport: { width: 1200, height: 800 } });
+    await page.goto(`${server.url}/`);
+    await waitForMap(page);
+    await page.getByLabel('Crop').selectOption('breba');
+    await expect.poll(() => new URL(page.url()).searchParams.get('crop')).toBe('breba');
+
+    await page.getByRole('combobox', { name: 'Find a town' }).fill('Milwaukee');
+    await page.getByRole('option', { name: /Milwaukee/ }).first().click();
+    await expect
+      .poll(() => page.evaluate(() => (window as unknown as { syconiumMap: { getCenter: () => { lng: number } } }).syconiumMap.getCenter().lng), { timeout: 20_000 })
+      .toBeLessThan(-86);
+    await page.close();
+  }, 300_000);
+});
