@@ -30,6 +30,7 @@ import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
 import { csrfGuard } from './middleware/csrf';
+import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
 export interface AppDeps {
@@ -66,7 +67,7 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
-  app.use(express.json({ limit: '1mb' }));
+  app.use(refuseLargeJson(1024 * 1024), express.json({ limit: '1mb' }));
 
   const passport = createPassport(db);
   app.use(
@@ -114,8 +115,8 @@ export function createApp(deps: AppDeps): Express {
   const indexHtml = path.join(config.clientDir, 'index.html');
   if (config.env !== 'test' && fs.existsSync(indexHtml)) {
     app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
-    // Client-side routes: every other GET gets the app shell.
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(indexHtml));
+    // Client-side routes: every other GET gets the app shell (not unknown /uploads or /tiles paths: those are 404s).
+    app.get(/^(?!\/(?:api|uploads|tiles)\/).*/, (_req, res) => res.sendFile(indexHtml));
   }
 
   app.use(errorHandler);

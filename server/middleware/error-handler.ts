@@ -16,6 +16,8 @@ function zodFields(error: ZodError): Record<string, string[]> {
   return fields;
 }
 
+const MULTIPART_ERRORS = /^(Malformed part header|Unexpected end of (form|file)|Multipart: Boundary not found|Malformed content type|Malformed urlencoded form|Request (aborted|closed|error))$/;
+
 /** The only place that shapes error JSON: { error: { code, message, fields? } }. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof ZodError) {
@@ -26,6 +28,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err instanceof HttpError) {
     res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+    return;
+  }
+  // busboy (inside multer) rejects a malformed multipart body with a plain Error: the client's fault.
+  if (err instanceof Error && MULTIPART_ERRORS.test(err.message)) {
+    res.status(400).json({ error: { code: 'malformed_upload', message: `The upload is not a well-formed multipart form (${err.message})` } });
     return;
   }
   // body-parser and multer errors carry a status and a type

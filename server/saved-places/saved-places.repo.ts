@@ -33,7 +33,9 @@ export function insertSavedPlace(db: Db, userId: number, input: SavedPlaceInput)
 export function updateSavedPlace(db: Db, userId: number, id: number, patch: SavedPlacePatch): SavedPlace | undefined {
   return db.transaction(() => {
     if (patch.isHome) clearHome(db, userId);
-    const row = db.update(savedPlaces).set(patch).where(and(eq(savedPlaces.id, id), eq(savedPlaces.userId, userId))).returning().get();
+    const own = and(eq(savedPlaces.id, id), eq(savedPlaces.userId, userId));
+    // An empty patch changes nothing (Drizzle refuses an UPDATE without values).
+    const row = Object.keys(patch).length === 0 ? db.select().from(savedPlaces).where(own).get() : db.update(savedPlaces).set(patch).where(own).returning().get();
     return row && toSavedPlace(row);
   });
 }
