@@ -35,6 +35,15 @@ export function consumeEmailToken(db: Db, token: string, purpose: EmailTokenPurp
   return { ok: false, reason: row.usedAt ? 'used' : 'expired' };
 }
 
+/** Whether a token would be accepted now, without using it (to refuse bad links before costly work). */
+export function checkEmailToken(db: Db, token: string, purpose: EmailTokenPurpose, now = new Date()): ConsumeResult {
+  const row = db.select().from(emailTokens).where(and(eq(emailTokens.tokenHash, sha256(token)), eq(emailTokens.purpose, purpose))).get();
+  if (!row) return { ok: false, reason: 'unknown' };
+  if (row.usedAt) return { ok: false, reason: 'used' };
+  if (row.expiresAt <= now.toISOString()) return { ok: false, reason: 'expired' };
+  return { ok: true, userId: row.userId };
+}
+
 /** Retire every unused token of one purpose (after a reset, older reset links stop working). */
 export function retireEmailTokens(db: Db, userId: number, purpose: EmailTokenPurpose, now = new Date()): void {
   db.update(emailTokens)

@@ -7,7 +7,7 @@ import type { MailDeps } from '../email/mailer';
 import { resetPasswordMessage } from '../email/templates';
 import { HttpError } from '../lib/http-error';
 import { findUserByEmail, findUserById, toCurrentUser } from '../users/users.repo';
-import { consumeEmailToken, issueEmailToken, retireEmailTokens } from './email-tokens.repo';
+import { checkEmailToken, consumeEmailToken, issueEmailToken, retireEmailTokens } from './email-tokens.repo';
 import { hashPassword } from './password';
 import { SqliteRateLimitStore } from './rate-limit-store';
 import { linkError } from './verification.router';
@@ -62,7 +62,10 @@ export function createPasswordResetRouter(deps: PasswordResetDeps): Router {
 
   router.post('/reset', async (req, res) => {
     const input = resetInputSchema.parse(req.body);
-    // Hash before using the token, so a slow hash cannot leave a used token without a new password.
+    // A bad link is refused before the (deliberately slow) hash; the token is then used inside the
+    // transaction that sets the password, so a used token always comes with the new password.
+    const check = checkEmailToken(db, input.token, 'reset');
+    if (!check.ok) throw linkError(check.reason);
     const passwordHash = await hashPassword(input.password);
     const userId = db.transaction(() => {
       const result = consumeEmailToken(db, input.token, 'reset');

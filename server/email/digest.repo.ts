@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { and, desc, eq, isNull, lte, or, sql } from 'drizzle-orm';
+import { and, desc, eq, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
 import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
 import type { Crop, GrowingForm } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
@@ -46,13 +46,22 @@ export function findHomePlace(db: Db, userId: number): { name: string; lat: numb
     .get();
 }
 
-/** Active subscriptions whose last digest is at least `dueBefore` old (or that never had one). */
+/**
+ * Active subscriptions of confirmed addresses whose last digest is at least `dueBefore` old (or
+ * that never had one). No weekly mail goes to an address its owner has not confirmed.
+ */
 export function dueSubscriptions(db: Db, dueBefore: string) {
   return db
     .select({ sub: digestSubscriptions, email: users.email, displayName: users.displayName })
     .from(digestSubscriptions)
     .innerJoin(users, eq(users.id, digestSubscriptions.userId))
-    .where(and(eq(digestSubscriptions.active, true), or(isNull(digestSubscriptions.lastSentAt), lte(digestSubscriptions.lastSentAt, dueBefore))))
+    .where(
+      and(
+        eq(digestSubscriptions.active, true),
+        isNotNull(users.emailVerifiedAt),
+        or(isNull(digestSubscriptions.lastSentAt), lte(digestSubscriptions.lastSentAt, dueBefore)),
+      ),
+    )
     .all();
 }
 

@@ -24,5 +24,6 @@ describe('e-mail in the demo scenario', async () => {
     await runEditorAlerts(ctx.mail, null);
     expect(ctx.inbox('editor@demo.syconium.test')).toHaveLength(1);
     expect(ctx.inbox('editor@demo.syconium.test')[0]!.subject).toMatch(/^Syconium editors: /);
-  });
+    // Seeding the whole demo (hashing its passwords, building its stations) takes a while on a busy machine.
+  }, 120_000);
 });

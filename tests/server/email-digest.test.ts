@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { digestSubscriptions, reports, savedPlaces, trees, varieties } from '../../server/db/schema';
+import { digestSubscriptions, reports, savedPlaces, trees, users, varieties } from '../../server/db/schema';
 import { DIGEST_PERIOD_MS, runNearbyDigest } from '../../server/email/digest';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import type { Outcome, ReportStatus } from '../../shared/domain/codes';
@@ -75,8 +75,15 @@ describe('nearby digest and unsubscribe, through the local SMTP server', async (
     report('My Own Tree', north(10), twoDaysAgo, { own: true });
     report('Last Month', north(10), new Date(start.getTime() - 30 * DAY));
 
+    // A subscriber whose address is not confirmed gets nothing.
+    const unconfirmed = await ctx.signedIn('grower', 'unconfirmed@example.com');
+    ctx.db.insert(savedPlaces).values({ userId: unconfirmed.userId, name: 'Plot', ...HOME, isHome: true }).run();
+    expect((await unconfirmed.put('/api/email/digest').send({ active: true, radiusKm: 50 })).status).toBe(200);
+    ctx.db.update(users).set({ emailVerifiedAt: null }).where(eq(users.id, unconfirmed.userId)).run();
+
     const result = await runNearbyDigest(ctx.mail, start);
     expect(result).toEqual({ sent: 2, checked: 2 });
+    expect(ctx.inbox('unconfirmed@example.com')).toHaveLength(0);
     const [message] = ctx.inbox('hanna@example.com');
     expect(message!.subject).toBe('2 new ripening reports near Orchard');
     for (const part of [message!.text!, message!.html!]) {
