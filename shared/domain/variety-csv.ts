@@ -11,12 +11,20 @@ export interface CsvProblem {
 const TRUE = new Set(['true', 'yes', 'y', '1']);
 const FALSE = new Set(['false', 'no', 'n', '0', '']);
 
-/** The catalogue as CSV (RFC 4180 quoting by papaparse), one row per variety. */
+/** Cells a spreadsheet would run as a formula; the export prefixes them with ' (OWASP "CSV injection"). */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** Undo the export's formula guard, so an exported file imports unchanged. */
+function unguard(value: string): string {
+  return value.startsWith("'") && FORMULA_START.test(value.slice(1)) ? value.slice(1) : value;
+}
+
+/** The catalogue as CSV (RFC 4180 quoting by papaparse), one row per variety; formula-like cells are guarded. */
 export function catalogueToCsv(varieties: Pick<Variety, (typeof CATALOGUE_CSV_COLUMNS)[number]>[]): string {
   return Papa.unparse({
     fields: [...CATALOGUE_CSV_COLUMNS],
     data: varieties.map((v) => [v.name, v.synonyms.join('; '), v.figType, v.bearsBreba, v.bearsMain, v.ripeningClass ?? '', v.typicalDaysToRipen ?? '', v.notes, v.sources]),
-  });
+  }, { escapeFormulae: FORMULA_START });
 }
 
 /**
@@ -24,7 +32,7 @@ export function catalogueToCsv(varieties: Pick<Variety, (typeof CATALOGUE_CSV_CO
  * come back, only the list of problems (row, column, message).
  */
 export function parseCatalogueCsv(text: string): { ok: true; rows: VarietyInput[] } | { ok: false; problems: CsvProblem[] } {
-  const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim() });
+  const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim(), transform: unguard });
   const problems: CsvProblem[] = [];
   const header = parsed.meta.fields ?? [];
   for (const column of ['name', 'figType', 'bearsBreba', 'bearsMain'] as const) {

@@ -14,6 +14,15 @@ describe('catalogue CSV', () => {
     expect(parsed).toEqual({ ok: true, rows: [variety] });
   });
 
+  it('guards cells a spreadsheet would run as formulas, and reads them back unchanged', () => {
+    // OWASP "CSV Injection": prefix cells starting with = + - @ tab or CR with a single quote
+    const variety = { name: 'Guarded', synonyms: [], figType: 'unknown' as const, bearsBreba: false, bearsMain: true, ripeningClass: null, typicalDaysToRipen: null, notes: '=HYPERLINK("http://example.test")', sources: '-1 page' };
+    const csv = catalogueToCsv([variety]);
+    expect(csv).toContain(`"'=HYPERLINK(""http://example.test"")"`);
+    expect(csv).toContain("'-1 page");
+    expect(parseCatalogueCsv(csv)).toEqual({ ok: true, rows: [variety] });
+  });
+
   it('reports every bad cell by row and column, and returns no rows at all', () => {
     const csv = [header, 'Good One,,common,true,true,early,120,,Some source', 'Bad Type,,purple,maybe,true,,,,', ',,common,true,true,,30,,x'].join('\n');
     const parsed = parseCatalogueCsv(csv);

@@ -30,6 +30,7 @@ function toDefaults(variety?: Partial<Variety>): VarietyFormValues {
 export function VarietyForm({ mode, variety, onSubmit, onCancel, isPending }: { mode: VarietyFormMode; variety?: Partial<Variety>; onSubmit: (input: VarietyInput) => Promise<unknown>; onCancel: () => void; isPending: boolean }) {
   const form = useForm<VarietyFormValues, unknown, VarietyInput>({ resolver: zodResolver(varietyInputSchema), defaultValues: toDefaults(variety) });
   const { errors } = form.formState;
+  const defaults = form.formState.defaultValues;
   const [formError, setFormError] = useState<string | null>(null);
 
   const submit = form.handleSubmit(async (input) => {
@@ -58,7 +59,7 @@ export function VarietyForm({ mode, variety, onSubmit, onCancel, isPending }: { 
       />
       <Field label="Fig type" hint="Decides whether the crop needs the fig wasp." error={errors.figType?.message}>
         {(p) => (
-          <select {...p} className={inputClass} {...form.register('figType')}>
+          <select {...p} className={inputClass} defaultValue={defaults?.figType} {...form.register('figType')}>
             {FIG_TYPES.map((t) => (
               <option key={t} value={t}>
                 {LABELS.figType[t]}
@@ -83,7 +84,7 @@ export function VarietyForm({ mode, variety, onSubmit, onCancel, isPending }: { 
       </fieldset>
       <Field label="Ripening class" hint="Of the main crop, compared with other varieties." error={errors.ripeningClass?.message}>
         {(p) => (
-          <select {...p} className={inputClass} {...form.register('ripeningClass', { setValueAs: (v) => (v === '' || v === null ? null : v) })}>
+          <select {...p} className={inputClass} defaultValue={defaults?.ripeningClass ?? ''} {...form.register('ripeningClass', { setValueAs: (v) => (v === '' || v === null ? null : v) })}>
             <option value="">Not known</option>
             {RIPENING_CLASSES.map((c) => (
               <option key={c} value={c}>
