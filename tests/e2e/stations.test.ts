@@ -1,0 +1,66 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
+import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+
+/** A decade of the Albany GHCN-Daily record (NOAA NCEI, public domain), under a test code. */
+function albanyDecade(): Buffer {
+  const [header, ...lines] = fs.readFileSync(path.resolve(import.meta.dirname, '../../server/seed/data/ghcnd-USW00014735-daily.csv'), 'utf8').split(/\r?\n/);
+  return Buffer.from([header, ...lines.filter((l) => l >= '2001' && l < '2011')].join('\n'));
+}
+
+describe('editors’ climate stations in the browser', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('an editor uploads a station, sees its frost dates, and a bad file is refused with its row and column', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
+    const requests = recordRequests(page);
+    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${server.url}/editors/stations`);
+    await expect.poll(() => page.getByRole('link', { name: 'Stations', exact: true }).getAttribute('aria-current'), { timeout: 60_000 }).toBe('page');
+    // The demo stations are listed (real NOAA ones and synthetic ones).
+    await expect.poll(() => page.getByRole('link', { name: 'Albany International Airport, NY' }).isVisible(), { timeout: 30_000 }).toBe(true);
+
+    const form = page.getByRole('form', { name: 'Upload a station' });
+    await form.getByLabel('Station name').fill('Albany decade (e2e)');
+    await form.getByLabel('Station code').fill('E2E-ALBANY');
+    await form.getByLabel('Latitude').fill('42.7431');
+    await form.getByLabel('Longitude').fill('-73.8092');
+    await form.locator('input[type="file"]').setInputFiles({ name: 'albany.csv', mimeType: 'text/csv', buffer: albanyDecade() });
+    await form.getByRole('button', { name: 'Upload and compute' }).click();
+
+    await page.waitForURL(/\/editors\/stations\/\d+$/, { timeout: 60_000 });
+    await expect.poll(() => page.getByRole('heading', { name: 'Albany decade (e2e)' }).isVisible(), { timeout: 30_000 }).toBe(true);
+    const summary = page.getByRole('table', { name: /Freeze dates and frost-free season at 10, 50 and 90 %/ });
+    await expect.poll(() => summary.textContent()).toContain('32 °F (0 °C)');
+    const years = page.getByRole('table', { name: /for each year and threshold/ });
+    await expect.poll(() => years.getByRole('rowheader', { name: '2005' }).isVisible()).toBe(true);
+    await expect.poll(() => page.locator('.recharts-line').count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+
+    // The same code again with a bad row: refused, the rows named, the station unchanged.
+    const bad = albanyDecade().toString('utf8').split('\n');
+    bad[3] = '2001,01,03,   -1.1,   cold,    0.0,    0.0,    0.0';
+    await form.getByLabel('Station name').fill('Albany decade (e2e)');
+    await form.getByLabel('Station code').fill('E2E-ALBANY');
+    await form.getByLabel('Latitude').fill('42.7431');
+    await form.getByLabel('Longitude').fill('-73.8092');
+    await form.locator('input[type="file"]').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from(bad.join('\n')) });
+    await form.getByRole('button', { name: 'Upload and compute' }).click();
+    const problems = page.getByRole('list', { name: 'Problems in the file' });
+    await expect.poll(() => problems.textContent(), { timeout: 60_000 }).toContain('Row 4, column TMIN');
+    await expect.poll(() => years.getByRole('rowheader', { name: '2005' }).isVisible()).toBe(true);
+
+    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  });
+});
