@@ -33,6 +33,8 @@ describe('e-mail in the browser, through the development mail server', () => {
     const email = 'wren@example.com';
 
     await page.goto(`${server.url}/sign-up`);
+    // The first page load fetches the whole client bundle: on a busy machine that takes a while.
+    await page.getByLabel('Name shown with your reports').waitFor({ timeout: 90_000 });
     await page.getByLabel('Name shown with your reports').fill('Wren');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('a long enough password');
@@ -58,5 +60,5 @@ describe('e-mail in the browser, through the development mail server', () => {
     await expect.poll(() => page.getByRole('link', { name: /Wren/ }).isVisible(), { timeout: 30_000 }).toBe(true);
 
     expect(requests.filter((u) => !u.startsWith(server.url) && !/^(data|blob|about):/.test(u))).toEqual([]);
-  });
+  }, 300_000);
 });
