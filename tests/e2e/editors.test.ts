@@ -72,4 +72,28 @@ describe('editors’ workspace in the browser', () => {
 
     expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
   }, 180_000); // two maps on a shared 2-core machine
+
+  it('draws a wasp area corner by corner on the editors’ map', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
+    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${server.url}/editors/wasp-areas`);
+    const map = page.getByTestId('wasp-area-map');
+    await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain('Lower Sacramento Valley (demo)');
+    await page.getByRole('button', { name: 'New wasp area' }).click();
+    await page.getByLabel('Area name').fill('Drawn test area (e2e)');
+    await page.getByLabel('Source', { exact: true }).fill('Browser test: invented record');
+    await page.getByLabel('Date observed').fill('2025-07-02');
+    const box = (await map.boundingBox())!;
+    const cx = box.x + box.width / 2;
+    const cy = box.y + box.height / 2;
+    for (const [dx, dy] of [[-15, -15], [15, -15], [15, 15], [-15, 15]]) await page.mouse.click(cx + dx!, cy + dy!);
+    await expect.poll(() => page.getByText('4 corners placed').isVisible()).toBe(true);
+    await page.getByRole('button', { name: 'Record area' }).click();
+    await expect.poll(() => page.getByRole('status').textContent(), { timeout: 30_000 }).toContain('Recorded “Drawn test area (e2e)”');
+    await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain('Drawn test area (e2e)');
+    const record = (await (await fetch(`${server.url}/api/wasp-areas`)).json()).features.find((f: { properties: { name: string } }) => f.properties.name === 'Drawn test area (e2e)');
+    // four corners and the first one again: a closed ring
+    expect(record.geometry.coordinates[0]).toHaveLength(5);
+    expect(record.geometry.coordinates[0][0]).toEqual(record.geometry.coordinates[0][4]);
+  }, 180_000);
 });
