@@ -43,7 +43,7 @@ export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise
         radiusKm: sub.radiusKm,
         since: longDate(since),
         items: reports.map((r) => toItem(r, home)),
-        atlasUrl: `${deps.appUrl}/?lat=${home.lat.toFixed(3)}&lon=${home.lon.toFixed(3)}`,
+        atlasUrl: `${deps.appUrl}/?lat=${home.lat.toFixed(3)}&lon=${home.lon.toFixed(3)}&zoom=9`,
         settingsUrl: `${deps.appUrl}/account`,
         unsubscribeUrl: `${deps.appUrl}/unsubscribe?token=${sub.unsubscribeToken}`,
       });

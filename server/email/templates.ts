@@ -108,7 +108,12 @@ export function editorAlertMessage(input: { displayName: string; flags: AlertFla
   if (input.proposals.length) {
     blocks.push({ kind: 'list', items: input.proposals.map((p) => `“${p.name}”, proposed by ${p.proposedBy}`) });
   }
-  blocks.push({ kind: 'button', label: 'Open the editors’ desk', url: input.editorsUrl }, SIGN_OFF);
+  blocks.push(
+    input.flags.length
+      ? { kind: 'button', label: 'Open the moderation queue', url: `${input.editorsUrl}/moderation` }
+      : { kind: 'button', label: 'Review the proposed names', url: `${input.editorsUrl}/varieties` },
+    SIGN_OFF,
+  );
   return renderEmail({
     subject: `Syconium editors: ${parts.join(' and ')}`,
     heading: 'Waiting for an editor',
