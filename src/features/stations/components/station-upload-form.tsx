@@ -74,6 +74,11 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
           <code>tmin</code>) and optionally the maximum (<code>TMAX</code>). Missing values may be empty, <code>NA</code>, <code>M</code> or <code>-9999</code>. NOAA GHCN-Daily exports work as they
           are. Any bad row rejects the whole file, with the row and column named.
         </p>
+        {localErrors.file && (
+          <p role="alert" className="text-sm text-red-700">
+            {localErrors.file[0]}
+          </p>
+        )}
       </div>
 
       {phase.state === 'uploading' && (
