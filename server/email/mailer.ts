@@ -23,6 +23,9 @@ export interface Mailer {
  * port is given, else to the production relay in SMTP_*. Without either, nothing is sent (and
  * nothing leaves the machine); the server says so once at start.
  */
+/** Reserved top-level domains (RFC 2606, RFC 6761) that can never receive mail, like the demo's accounts. */
+const UNDELIVERABLE = /\.(test|example|invalid|localhost)$/i;
+
 export function createMailer(config: Pick<Config, 'smtp' | 'mailFrom' | 'env'>, devMailPort?: number): Mailer {
   let transport: Transporter | undefined;
   if (devMailPort) {
@@ -40,9 +43,12 @@ export function createMailer(config: Pick<Config, 'smtp' | 'mailFrom' | 'env'>, 
     return { enabled: false, send: async () => {}, close: () => {} };
   }
   const live = transport;
+  const toRelay = !devMailPort;
   return {
     enabled: true,
     async send(message) {
+      // A real relay would only bounce these (the demo accounts use .test); the local server takes all.
+      if (toRelay && UNDELIVERABLE.test(message.to.split('@').pop() ?? '')) return;
       await live.sendMail({ from: config.mailFrom, ...message });
     },
     close: () => live.close(),

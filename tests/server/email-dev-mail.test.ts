@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { createTestContext } from '../helpers/test-app';
+import { createTestContext, createTestDb } from '../helpers/test-app';
 import { readConfig } from '../../server/lib/config';
 import { renderEmail } from '../../server/email/layout';
 import { compassWord, describePlace, initialBearingDeg } from '../../server/email/digest-wording';
 import { createMailTestContext } from './email-helpers';
+import { startDevMailServer } from '../../server/email/dev-mail-server';
+import { listDevMail } from '../../server/email/dev-mail.repo';
+import { createMailer } from '../../server/email/mailer';
 
 describe('development mailbox', async () => {
   const ctx = await createMailTestContext();
@@ -74,5 +77,27 @@ describe('development mailbox from another machine', () => {
     const remote = await ctx.agent().get('/api/dev/mail').set('X-Forwarded-For', '203.0.113.7');
     expect(remote.status).toBe(404);
     expect((await ctx.agent().get('/api/dev/mail')).status).toBe(200);
+  });
+});
+
+describe('the production transport', () => {
+  it('sends over SMTP to the configured relay, skipping reserved demo domains', async () => {
+    const { db } = createTestDb();
+    // The local server stands in for the relay: the same nodemailer path as production.
+    const relay = await startDevMailServer(db, 0);
+    const mailer = createMailer({ env: 'production', mailFrom: 'Figs <figs@example.org>', smtp: { host: '127.0.0.1', port: relay.port, secure: false } });
+    try {
+      const message = renderEmail({ subject: 'Hello', heading: 'Hello', blocks: [{ kind: 'p', text: 'A test.' }], footer: [] });
+      await mailer.send({ to: 'grower@demo.syconium.test', ...message });
+      await mailer.send({ to: 'real@example.org', ...message });
+      const stored = listDevMail(db);
+      expect(stored.map((m) => m.to)).toEqual(['real@example.org']);
+      expect(stored[0]).toMatchObject({ from: '"Figs" <figs@example.org>', subject: 'Hello' });
+      expect(stored[0]!.text).toContain('A test.');
+      expect(stored[0]!.html).toContain('A test.');
+    } finally {
+      mailer.close();
+      await relay.close();
+    }
   });
 });
