@@ -16,7 +16,7 @@ export const PHOTO_MAX_BYTES = 8 * 1024 * 1024;
 
 const isoDateSchema = z
   .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, { message: 'Use a date like 2025-08-14' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, { message: 'Use a date like 2025-08-14', abort: true })
   .refine((value) => {
     const date = new Date(`${value}T00:00:00Z`);
     return !Number.isNaN(date.getTime()) && date.toISOString().slice(0, 10) === value;
@@ -72,25 +72,49 @@ const reportFieldsSchema = z.object({
 
 type ReportFields = z.output<typeof reportFieldsSchema>;
 
-/** Rules that need several fields at once; shared by create and by an edit merged with the stored row. */
-export function addReportIssues(value: ReportFields, ctx: z.RefinementCtx, now = new Date()): void {
-  if (value.varietyId === null && value.proposedVarietyName === null) {
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
+
+/**
+ * Rules that need several fields at once; shared by create and by an edit merged with the stored
+ * row. They also run when some single field failed (so the form shows every problem at once), so
+ * they only look at fields that are well formed.
+ */
+export function addReportIssues(raw: Partial<ReportFields>, ctx: z.RefinementCtx, now = new Date()): void {
+  const text = (value: unknown) => (typeof value === 'string' && value.trim() !== '' ? value.trim() : null);
+  const date = (value: unknown) => (typeof value === 'string' && ISO_DATE.test(value) ? value : null);
+  const int = (value: unknown) => (typeof value === 'number' && Number.isInteger(value) ? value : null);
+  const varietyId = raw.varietyId ?? null;
+  const proposed = text(raw.proposedVarietyName);
+  if (varietyId === null && proposed === null) {
     ctx.addIssue({ code: 'custom', path: ['varietyId'], message: 'Choose a variety, or propose a name if it is not listed' });
   }
-  if (value.varietyId !== null && value.proposedVarietyName !== null) {
+  if (varietyId !== null && proposed !== null) {
     ctx.addIssue({ code: 'custom', path: ['proposedVarietyName'], message: 'Choose a listed variety or propose a name, not both' });
   }
-  if (value.proposedVarietyName !== null && value.proposedVarietyName.length < 2) {
+  if (proposed !== null && proposed.length < 2) {
     ctx.addIssue({ code: 'custom', path: ['proposedVarietyName'], message: 'Use at least 2 characters' });
   }
-  if (value.season > now.getUTCFullYear()) {
+  const season = int(raw.season);
+  if (season === null) return;
+  if (season > now.getUTCFullYear()) {
     ctx.addIssue({ code: 'custom', path: ['season'], message: 'The season cannot be in the future' });
   }
-  for (const issue of reportRuleIssues(value)) ctx.addIssue({ code: 'custom', path: [issue.field], message: issue.message });
+  const issues = reportRuleIssues({
+    season,
+    yearPlanted: int(raw.yearPlanted),
+    outcome: typeof raw.outcome === 'string' ? raw.outcome : 'ripened',
+    firstRipeDate: date(raw.firstRipeDate),
+    lastHarvestDate: date(raw.lastHarvestDate),
+    springFrostDate: date(raw.springFrostDate),
+    fallFrostDate: date(raw.fallFrostDate),
+    pinched: raw.pinched === true,
+    pinchedDate: date(raw.pinchedDate),
+  });
+  for (const issue of issues) ctx.addIssue({ code: 'custom', path: [issue.field], message: issue.message });
 }
 
 /** POST /api/reports, the report form and every CSV row. */
-export const createReportInputSchema = reportFieldsSchema.superRefine((value, ctx) => addReportIssues(value, ctx));
+export const createReportInputSchema = reportFieldsSchema.superRefine((value, ctx) => addReportIssues(value, ctx), { when: () => true });
 export type CreateReportInput = z.input<typeof createReportInputSchema>;
 export type CreateReportValues = z.output<typeof createReportInputSchema>;
 

@@ -5,7 +5,7 @@ import { Link } from 'react-router';
 import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, REPORT_STATUSES, type Crop, type GrowingForm, type Outcome, type ReportStatus } from '@shared/domain/codes';
 import type { ReportListItem, ReportListQuery, ReportSort } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
-import { reportQueries, useDeleteReport } from '../api';
+import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from './fields';
 
 const column = createColumnHelper<ReportListItem>();
@@ -37,6 +37,7 @@ export function MyReportsTable() {
   };
   const list = useQuery(reportQueries.list(query));
   const remove = useDeleteReport();
+  const publish = usePublishReport();
 
   const columns = useMemo(
     () => [
@@ -68,6 +69,11 @@ export function MyReportsTable() {
         header: () => <span className="sr-only">Actions</span>,
         cell: ({ row }) => (
           <div className="flex gap-2 whitespace-nowrap">
+            {row.original.status === 'draft' && (
+              <button type="button" className="text-sm text-leaf-700 underline" onClick={() => publish.mutate(row.original.id)}>
+                Publish
+              </button>
+            )}
             <Link to={`/reports/${row.original.id}/edit`} className="text-sm text-fig-700 underline">
               Edit
             </Link>
@@ -83,7 +89,7 @@ export function MyReportsTable() {
         ),
       }),
     ],
-    [remove],
+    [remove, publish],
   );
 
   const table = useReactTable({
@@ -168,7 +174,7 @@ export function MyReportsTable() {
         )}
         {list.isError && <p role="alert" className="p-4 text-sm text-red-800">{list.error.message}</p>}
       </div>
-      {remove.error && <p role="alert" className="text-sm text-red-800">{remove.error.message}</p>}
+      {(remove.error ?? publish.error) && <p role="alert" className="text-sm text-red-800">{(remove.error ?? publish.error)!.message}</p>}
       <div className="flex items-center gap-3 text-sm">
         <Button variant="secondary" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
           Previous

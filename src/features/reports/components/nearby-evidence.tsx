@@ -22,12 +22,12 @@ export function NearbyEvidence({ report }: { report: Report }) {
     <div className="flex flex-col gap-2 text-sm">
       <p>
         <span className={`rounded px-2 py-0.5 font-medium ${VERDICT_CLASS[seasonFit.verdict]}`}>{LABELS.verdict[seasonFit.verdict]}</span>{' '}
-        <span className="text-ink/80">for {LABELS.growingForm[seasonFit.form].toLowerCase()} around this grid cell.</span>
+        <span className="text-ink/80">· {LABELS.growingForm[seasonFit.form]} · around this 5 km cell</span>
       </p>
       <p className="text-ink/80">{seasonFit.explanation}</p>
       {season.days50 !== null && (
         <p className="text-ink/70">
-          Frost-free season here: about {Math.round(season.days50)} days in half of years ({season.method}).
+          Frost-free season here: about {Math.round(season.days50)} days in half of years. {season.method}
         </p>
       )}
     </div>

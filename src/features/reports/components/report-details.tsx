@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { Link, useNavigate } from 'react-router';
 import { LABELS } from '@shared/domain/codes';
 import type { Report } from '@shared/schemas/reports';
@@ -8,6 +8,8 @@ import { useDeleteReport, useFlagReport, useHideReport, usePublishReport, useRes
 import { inputClass } from './fields';
 import { NearbyEvidence } from './nearby-evidence';
 import { ReportMapSnippet } from './report-map-snippet';
+
+const MiniMap = lazy(() => import('./mini-map'));
 
 const formatDate = (iso: string | null) => (iso ? new Date(`${iso}T12:00:00Z`).toLocaleDateString(undefined, { month: 'long', day: 'numeric' }) : null);
 
@@ -76,7 +78,9 @@ export function ReportDetails({ report }: { report: Report }) {
           )}
         </dl>
         <div className="flex flex-col gap-2">
-          <ReportMapSnippet lat={report.gridLat} lon={report.gridLon} />
+          <Suspense fallback={<ReportMapSnippet lat={report.gridLat} lon={report.gridLon} />}>
+            <MiniMap lat={report.gridLat} lon={report.gridLon} cell label="The report’s 5 km grid cell" className="h-52" />
+          </Suspense>
           <p className="text-xs text-ink/70">
             {report.lat !== null ? `Exact place (only you${viewer.isOwner ? '' : ' as editor'} and editors see it): ${report.lat}, ${report.lon}. ` : ''}
             Others see this report in the 5 km grid cell around {report.gridLat}, {report.gridLon}.

@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, PLANT_ORIGINS } from '@shared/domain/codes';
 import { NOTES_MAX, PHOTOS_PER_REPORT, createReportInputSchema, type CreateReportInput, type CreateReportValues, type Report } from '@shared/schemas/reports';
@@ -12,6 +12,8 @@ import { ChoiceGroup, Field, FormSection, choiceClass, inputClass } from './fiel
 import { PhotoPicker, checkPhotoFiles } from './photo-picker';
 import { PlaceSearch } from './place-search';
 import { VarietyPicker } from './variety-picker';
+
+const MiniMap = lazy(() => import('./mini-map'));
 
 const toNumber = (value: unknown) => (value === '' || value === null || value === undefined ? null : Number(value));
 
@@ -104,11 +106,14 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
   const [photoError, setPhotoError] = useState<string | null>(null);
   const [progress, setProgress] = useState<number | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
+  const [mapKey, setMapKey] = useState(0);
 
   const varietyId = watch('varietyId') ?? null;
   const proposedName = watch('proposedVarietyName') ?? null;
   const treeId = watch('treeId') ?? null;
   const pinched = watch('pinched');
+  const lat = watch('lat');
+  const lon = watch('lon');
   const existingPhotos = report?.photos ?? [];
 
   const chooseTree = (value: string) => {
@@ -210,8 +215,26 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
           onPick={(place) => {
             setValue('lat', Math.round(place.lat * 1e5) / 1e5, { shouldValidate: true });
             setValue('lon', Math.round(place.lon * 1e5) / 1e5, { shouldValidate: true });
+            setMapKey((k) => k + 1);
           }}
         />
+        <div className="flex flex-col gap-1">
+          <Suspense fallback={<div className="h-64 rounded-lg bg-leaf-100/50" />}>
+            <MiniMap
+              key={mapKey}
+              className="h-64"
+              label="Click where the tree stands"
+              lat={typeof lat === 'number' && Number.isFinite(lat) ? lat : null}
+              lon={typeof lon === 'number' && Number.isFinite(lon) ? lon : null}
+              zoom={11}
+              onPick={(point) => {
+                setValue('lat', point.lat, { shouldValidate: formState.isSubmitted });
+                setValue('lon', point.lon, { shouldValidate: formState.isSubmitted });
+              }}
+            />
+          </Suspense>
+          <p className="text-xs text-ink/70">Click the map where the tree stands (zoom in with + for precision), or type the coordinates.</p>
+        </div>
         <div className="grid gap-4 sm:grid-cols-2">
           <FormField label="Latitude" type="number" step="any" inputMode="decimal" hint="Decimal degrees, north positive (e.g. 42.6526)." error={errors.lat?.message} {...register('lat', { setValueAs: toNumber })} />
           <FormField label="Longitude" type="number" step="any" inputMode="decimal" hint="Decimal degrees, west negative (e.g. -73.7562)." error={errors.lon?.message} {...register('lon', { setValueAs: toNumber })} />

@@ -1,0 +1,84 @@
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
+import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+
+describe('harvest reports in the browser', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('the demo grower posts a report with a photo through the form, then sees it on its page and in My reports', async () => {
+    const page = await browser.newPage();
+    // A slow, shared machine: give the first page loads room.
+    page.setDefaultTimeout(60_000);
+    const requests = recordRequests(page);
+    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+
+    await page.getByRole('link', { name: 'Post a report' }).click();
+    await page.getByLabel('Label for the new tree').fill('Balcony pot (e2e)');
+    await page.getByRole('combobox', { name: 'Variety' }).fill('Lantern');
+    await page.getByRole('option', { name: /Lantern Amber/ }).click();
+    // An invented spot near Rapid City, SD, far from the demo's towns.
+    await page.getByLabel('Latitude').fill('44.08123');
+    await page.getByLabel('Longitude').fill('-103.23111');
+    await page.getByRole('radio', { name: 'In a container' }).check();
+    await page.getByLabel('Season year').fill('2025');
+    await page.getByRole('radio', { name: /^Ripened/ }).check();
+    await page.getByLabel('First ripe fig').fill('2025-09-03');
+    const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6b3a5b' } }).jpeg().toBuffer();
+    await page.getByLabel('Add photos').setInputFiles({ name: 'my-fig.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await expect.poll(() => page.getByAltText('Preview of my-fig.jpg').isVisible()).toBe(true);
+
+    await page.getByRole('button', { name: 'Post report' }).click();
+    await page.waitForURL(/\/reports\/\d+$/, { timeout: 30_000 });
+    await expect.poll(() => page.getByRole('heading', { level: 1, name: /Lantern Amber/ }).isVisible(), { timeout: 15_000 }).toBe(true);
+    const image = page.getByRole('list', { name: 'Photos' }).getByRole('img').first();
+    await expect.poll(() => image.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 15_000 }).toBe(true);
+    await expect.poll(() => page.getByText('Exact place').textContent()).toContain('44.08123');
+    const reportId = Number(new URL(page.url()).pathname.split('/').pop());
+    // The page's small map (our offline style) draws the public grid cell.
+    await expect.poll(() => page.getByTestId('mini-map').locator('canvas').count(), { timeout: 30_000 }).toBe(1);
+
+    await page.getByRole('link', { name: 'My reports' }).click();
+    await expect.poll(() => page.getByRole('cell', { name: 'Balcony pot (e2e)' }).isVisible(), { timeout: 15_000 }).toBe(true);
+
+    // On the atlas map, the pin at its grid cell (0.05 degree grid: 44.075, -103.225) opens a popup linking to it.
+    await page.goto(`${server.url}/?lat=44.075&lon=-103.225&zoom=9`);
+    const canvas = page.locator('canvas.maplibregl-canvas').first();
+    const link = page.locator(`a[href="/reports/${reportId}"]`);
+    await expect
+      .poll(
+        async () => {
+          await canvas.click({ timeout: 5_000 }).catch(() => undefined);
+          return link.isVisible();
+        },
+        { timeout: 60_000, interval: 2_000 },
+      )
+      .toBe(true);
+
+    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  }, 240_000);
+
+  it('names the field that is out of order before anything is sent', async () => {
+    const page = await browser.newPage();
+    page.setDefaultTimeout(60_000);
+    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${server.url}/reports/new`);
+    await page.getByLabel('Season year').fill('2025');
+    await page.getByRole('radio', { name: /^Ripened/ }).check();
+    await page.getByLabel('Last spring frost').fill('2025-05-01');
+    await page.getByLabel('First ripe fig').fill('2025-04-20');
+    await page.getByRole('button', { name: 'Post report' }).click();
+    await expect.poll(() => page.getByText('The first ripe fig must come after the last spring frost (2025-05-01)').isVisible()).toBe(true);
+    await expect.poll(() => page.getByText('Choose a variety, or propose a name if it is not listed').isVisible()).toBe(true);
+  }, 120_000);
+});
