@@ -8,11 +8,13 @@ import { DIGEST_RADIUS_KM, digestSettingsInputSchema, type DigestSettingsInput }
 import { Button } from '../../../components/button';
 import { FormField } from '../../../components/form-field';
 import { ApiError } from '../../../lib/api-client';
+import { useCurrentUser } from '../../auth/api';
 import { emailQueries, useUpdateDigest } from '../api';
 
 /** The weekly nearby digest: on or off, and how far from the home place it looks. */
 export function DigestSettings() {
   const settings = useQuery(emailQueries.digest());
+  const { user } = useCurrentUser();
   const update = useUpdateDigest();
   const form = useForm<z.input<typeof digestSettingsInputSchema>, unknown, DigestSettingsInput>({
     resolver: zodResolver(digestSettingsInputSchema),
@@ -70,7 +72,8 @@ export function DigestSettings() {
           {...form.register('radiusKm')}
         />
         <p className="text-xs text-ink/70">
-          {data.lastSentAt ? `Last digest covered reports up to ${new Date(data.lastSentAt).toLocaleDateString()}.` : 'No digest sent yet.'} Every digest has an unsubscribe link.
+          {data.lastSentAt ? `Last digest covered reports up to ${new Date(data.lastSentAt).toLocaleDateString()}.` : 'No digest sent yet.'}{' '}
+          {user && !user.emailVerified && 'Digests start once your e-mail address is confirmed. '}Every digest has an unsubscribe link.
         </p>
         <div className="flex items-center gap-3">
           <Button type="submit" disabled={update.isPending || !isDirty}>
