@@ -26,12 +26,24 @@ const GROWERS = Number(process.env.LOAD_GROWERS ?? 4_000);
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 20);
 const WRITERS = Number(process.env.LOAD_WRITERS ?? 50);
 const READERS_PER_ROUTE = Number(process.env.LOAD_READERS ?? 10);
+/** Only the routes whose name contains one of these words (comma-separated), e.g. LOAD_ROUTES=pins,near. */
+const ONLY = process.env.LOAD_ROUTES?.split(',').map((w) => w.trim()).filter(Boolean);
 const SIGNED_IN_GROWERS = 12;
 const PASSWORD = 'load-test-password-2026';
 const READ_P99_TARGET_MS = 200;
 const SEED = 2026;
 
 const log = (line: string) => console.log(line);
+
+/** User + system CPU seconds the server process has used (Linux /proc; NaN elsewhere). */
+function serverCpuSeconds(): number {
+  try {
+    const fields = fs.readFileSync(`/proc/${server.pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+    return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+  } catch {
+    return Number.NaN;
+  }
+}
 
 async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -183,6 +195,10 @@ try {
   // A route the server does not have yet answers the API's JSON 404: skip it with a note.
   const active: RouteLoad[] = [];
   for (const route of routes) {
+    if (ONLY && !ONLY.some((word) => route.name.includes(word))) {
+      log(`  skipped ${route.name}: not in LOAD_ROUTES`);
+      continue;
+    }
     if (route.connections === 0) {
       log(`  skipped ${route.name}: no connections asked for`);
       continue;
@@ -207,6 +223,8 @@ try {
   // ---------------------------------------------------------------- 4. mixed traffic, all at once
 
   log(`\nDriving ${active.map((r) => `${r.connections} × ${r.name}`).join(', ')} for ${SECONDS} s at the same time...`);
+  const cpuBefore = serverCpuSeconds();
+  const wallBefore = performance.now();
   const lockedInAnswers = new Map<string, number>();
   const results = await Promise.all(
     active.map((route) =>
@@ -228,6 +246,9 @@ try {
   );
 
   // ---------------------------------------------------------------- 5. figures and targets
+
+  const cpuUsed = serverCpuSeconds() - cpuBefore;
+  const wall = (performance.now() - wallBefore) / 1000;
 
   const lockedInLog = (serverLog.match(/database is locked|SQLITE_BUSY/g) ?? []).length;
   const rows = active.map((route, i) => {
@@ -253,6 +274,11 @@ try {
   const posted = rows.find((r) => r.route === 'POST /api/reports');
   log(`Reports stored: ${reportsBefore.toLocaleString('en')} -> ${reportsAfter.toLocaleString('en')} (+${reportsAfter - reportsBefore}${posted ? `; ${posted.requests} posts answered, ${posted.requests - posted.non2xx} with 201` : ''}); integrity_check: ${integrity}`);
   log(`"database is locked" in the server log: ${lockedInLog}`);
+  const answered = rows.reduce((n, r) => n + r.requests, 0);
+  if (Number.isFinite(cpuUsed)) {
+    // The server's own CPU time does not depend on what else the machine runs: a fairer figure on a shared host.
+    log(`Server CPU: ${cpuUsed.toFixed(1)} s over ${wall.toFixed(1)} s of traffic (${((100 * cpuUsed) / wall).toFixed(0)} % of one core), ${((1000 * cpuUsed) / Math.max(1, answered)).toFixed(1)} ms per answered request; machine load average ${os.loadavg()[0]!.toFixed(1)} on ${os.cpus().length} cores`);
+  }
 
   const failures: string[] = [];
   for (const row of rows) {
