@@ -20,13 +20,13 @@ function filterConditions(filters: PinFilters): SQL[] {
 
 /** Published reports matching the filters, counted per public grid cell. */
 export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
-  const rows = db
+  const query = db
     .select({ gridLat: reports.gridLat, gridLon: reports.gridLon, reports: count(), firstId: sql<number>`min(${reports.id})` })
     .from(reports)
-    .leftJoin(varieties, eq(varieties.id, reports.varietyId))
-    .where(and(...filterConditions(filters)))
-    .groupBy(reports.gridLat, reports.gridLon)
-    .all();
+    .$dynamic();
+  // The join is only needed to filter by fig type; without it SQLite reads the reports table alone.
+  if (filters.figType) query.leftJoin(varieties, eq(varieties.id, reports.varietyId));
+  const rows = query.where(and(...filterConditions(filters))).groupBy(reports.gridLat, reports.gridLon).all();
   return rows.map((r) => ({ gridLat: r.gridLat, gridLon: r.gridLon, reports: r.reports, reportId: r.reports === 1 ? r.firstId : null }));
 }
 

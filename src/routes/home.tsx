@@ -88,8 +88,8 @@ export default function HomeRoute() {
           )}
           <PlaceSearch onGo={goTo} />
         </div>
-        <div className="pointer-events-none absolute bottom-3 left-3">
-          <MapLegend overlays={state.layers} />
+        <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
+          <MapLegend overlays={state.layers} openAtStart={panelOpen} />
         </div>
       </section>
     </div>

@@ -46,7 +46,7 @@ export function createBaseStyle(origin: string): StyleSpecification {
       [FONT_ITALIC]: face(fira400ItalicLatin, fira400ItalicLatinExt, origin),
     },
     sources: {
-      base: { type: 'vector', tiles: tiles('base'), ...TILE_SETS.base, attribution: 'Natural Earth · US Census Bureau · GeoNames' },
+      base: { type: 'vector', tiles: tiles('base'), ...TILE_SETS.base },
       us: { type: 'vector', tiles: tiles('us'), ...TILE_SETS.us, bounds: [-180, 17, -64, 72] },
     },
     layers: [

@@ -4,7 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import type { Feature, FeatureCollection, Point } from 'geojson';
 import type { Map as MapLibreMap } from 'maplibre-gl';
 import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState } from 'react';
-import MapGL, { AttributionControl, Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import MapGL, { Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { snapToGrid } from '@shared/domain/public-grid';
 import type { PinFilters } from '@shared/schemas/pins';
 import { mapQueries } from '../api';
@@ -159,7 +159,6 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
     >
       <NavigationControl position="top-right" showCompass={false} />
       <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
-      <AttributionControl position="bottom-right" compact customAttribution="Tiles built by Syconium" />
 
       {showWasp && wasp.data && (
         <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>

@@ -72,7 +72,7 @@ export function PlaceSearch({ onGo }: { onGo: (view: MapView) => void }) {
   };
 
   return (
-    <div className="pointer-events-auto relative w-full max-w-sm">
+    <div className="pointer-events-auto relative min-w-0 max-w-sm flex-1">
       <div className="flex gap-2 rounded-lg border border-fig-100 bg-paper/95 p-1.5 shadow-sm backdrop-blur">
         <label htmlFor={id} className="sr-only">
           Find a town
