@@ -151,5 +151,6 @@ export function stationSeasonsNear(db: Db, point: LatLon, radiusKm: number): Sta
  */
 export function dataVersion(db: Db): string {
   const changes = (statement(db, 'SELECT total_changes() AS n').get() as { n: number }).n;
-  return `${changes}:${db.sqlite.pragma('data_version', { simple: true })}`;
+  const version = (statement(db, 'PRAGMA data_version').get() as { data_version: number }).data_version;
+  return `${changes}:${version}`;
 }

@@ -1,7 +1,8 @@
 import { varietyOverall } from '../../shared/domain/ripening-stats';
 import type { Db } from '../db/client';
 import type { VarietyOverall } from '../../shared/domain/evidence';
-import { dataVersion, reportsByVariety } from './atlas.repo';
+import type { VarietyInfo } from '../../shared/domain/evidence';
+import { acceptedVarieties, dataVersion, reportsByVariety } from './atlas.repo';
 
 /**
  * Each variety's rate over all its reports everywhere, which local shares lean toward. It reads every
@@ -35,4 +36,16 @@ export function overallByVariety(db: Db, now = Date.now()): Map<number, VarietyO
   const overall = computeOverall(db);
   cache.set(db, { version, computedAt: now, tookMs: performance.now() - started, overall });
   return overall;
+}
+
+const catalogueCache = new WeakMap<Db, { version: string; varieties: Map<number, VarietyInfo> }>();
+
+/** The accepted varieties, re-read whenever the data may have changed (a small table: no throttle). */
+export function cachedAcceptedVarieties(db: Db): Map<number, VarietyInfo> {
+  const version = dataVersion(db);
+  const entry = catalogueCache.get(db);
+  if (entry?.version === version) return entry.varieties;
+  const varieties = acceptedVarieties(db);
+  catalogueCache.set(db, { version, varieties });
+  return varieties;
 }

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { toPublicPoint } from '../../shared/domain/public-grid';
+import { nearResponseSchema } from '../../shared/schemas/atlas';
 import { writeStation } from '../../server/stations/stations.repo';
 import { createTestContext, type TestContext } from '../helpers/test-app';
 
@@ -42,7 +43,12 @@ function addTree(userId: number, varietyId: number, at: { lat: number; lon: numb
   return treeId;
 }
 
-const near = (query: string) => ctx.agent().get(`/api/atlas/near?${query}`);
+/** GET near; a 200 must match the contract (the route does not parse its own answer). */
+async function near(query: string) {
+  const res = await ctx.agent().get(`/api/atlas/near?${query}`);
+  if (res.status === 200) nearResponseSchema.parse(res.body);
+  return res;
+}
 const at = (p: { lat: number; lon: number }, radiusKm = 50) => `lat=${p.lat}&lon=${p.lon}&radiusKm=${radiusKm}`;
 
 beforeAll(() => {
