@@ -1,7 +1,10 @@
 import session from 'express-session';
-import { eq, lt } from 'drizzle-orm';
+import { and, eq, lt } from 'drizzle-orm';
 import type { Db } from '../db/client';
 import { sessions } from '../db/schema';
+
+/** A session's stored expiry may lag the cookie's by up to this much (of a 30-day life). */
+const TOUCH_SLACK_MS = 60 * 60_000;
 
 type Callback = (err?: unknown, data?: session.SessionData | null) => void;
 
@@ -51,7 +54,13 @@ export class SqliteSessionStore extends session.Store {
   override touch(sid: string, data: session.SessionData, callback?: () => void): void {
     const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
     try {
-      this.db.update(sessions).set({ expiresAt }).where(eq(sessions.sid, sid)).run();
+      // Rolling sessions touch on every answer; only write when the expiry moves by more than the
+      // slack, so signed-in reads do not write (and do not invalidate caches keyed by data version).
+      this.db
+        .update(sessions)
+        .set({ expiresAt })
+        .where(and(eq(sessions.sid, sid), lt(sessions.expiresAt, expiresAt - TOUCH_SLACK_MS)))
+        .run();
     } catch {
       // A full or read-only disk must not hang the answer (express-session ends the response in
       // this callback); the session simply keeps its old expiry.

@@ -67,6 +67,15 @@ describe('security headers (helmet)', () => {
 });
 
 describe('state shared through the database, not process memory', () => {
+  it('signed-in reads do not write to the database (rolling sessions touch at most hourly)', async () => {
+    const user = await ctx.signedIn('grower');
+    await user.get('/api/auth/me');
+    const changes = () => ctx.db.sqlite.prepare('SELECT total_changes()').pluck().get() as number;
+    const before = changes();
+    for (let i = 0; i < 3; i++) expect((await user.get('/api/auth/me')).body.user.id).toBe(user.userId);
+    expect(changes()).toBe(before);
+  });
+
   it('a session made on one instance is valid on another', async () => {
     const email = `shared-${Date.now()}@example.com`;
     const user = await ctx.signedIn('grower', email);
