@@ -6,6 +6,7 @@ import { hashPassword } from '../auth/password';
 import type { Config } from '../lib/config';
 import { findUserByEmail, insertUser } from '../users/users.repo';
 import { buildDemoReports } from './demo-reports';
+import { seedDemoPhotos } from '../reports/demo-photos.seed';
 import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
@@ -16,7 +17,7 @@ import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_W
  * Load the demo scenario into an empty atlas, and the first admin from the environment.
  * Idempotent: each part checks what is already there and adds only what is missing.
  */
-export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'adminEmail' | 'adminPassword'>): Promise<void> {
+export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'adminEmail' | 'adminPassword'> & { uploadsDir?: string }): Promise<void> {
   if (config.adminEmail && config.adminPassword && !findUserByEmail(db, config.adminEmail)) {
     insertUser(db, {
       email: config.adminEmail,
@@ -30,6 +31,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   await seedDemoAccounts(db);
   seedDemoVarieties(db);
   seedDemoReports(db);
+  if (config.uploadsDir) await seedDemoPhotos(db, config.uploadsDir);
   seedDemoWaspAreas(db);
   seedDemoStations(db);
   seedDemoSavedPlaces(db);

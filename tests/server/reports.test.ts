@@ -7,6 +7,7 @@ import { auditLog, reports, varieties } from '../../server/db/schema';
 import { eq } from 'drizzle-orm';
 import { createTestContext, type TestAgent } from '../helpers/test-app';
 import { snapToGrid } from '../../shared/domain/public-grid';
+import { seedDatabase } from '../../server/seed';
 
 type Grower = TestAgent & { userId: number };
 
@@ -351,4 +352,21 @@ describe('CSV import and export', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toHaveProperty('crop');
   });
+});
+
+describe('demo photos', () => {
+  it('gives the demo grower three drawn photos, cleaned like uploads, once', async () => {
+    const demo = createTestContext();
+    await seedDatabase(demo.db, { seedDemo: true, uploadsDir: demo.config.uploadsDir });
+    await seedDatabase(demo.db, { seedDemo: true, uploadsDir: demo.config.uploadsDir });
+    const rows = demo.db.sqlite.prepare('SELECT p.file_name AS fileName, r.status FROM report_photos p JOIN reports r ON r.id = p.report_id').all() as { fileName: string; status: string }[];
+    expect(rows).toHaveLength(3);
+    const res = await demo.agent().get(`/uploads/reports/${rows[0]!.fileName}`).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect((await sharp(res.body as Buffer).metadata()).format).toBe('webp');
+  }, 60_000);
 });
