@@ -239,6 +239,9 @@ async function main() {
     );
     console.log(`\nHTTP: ${HTTP_QUERIES} sequential GET /api/atlas/near per radius (after 10 warm-up calls); raw SQL: ${SQL_QUERIES} runs of one R*Tree + exact-distance GROUP BY query; scan: ${SCAN_QUERIES} runs of the same query over every row.`);
     for (const line of verdicts) console.log(`Targets, ${line}`);
+    // Latency figures mean little on a busy machine: say how busy it was.
+    const [load1] = os.loadavg();
+    console.log(`Machine: ${os.cpus().length} CPUs, load average ${load1!.toFixed(1)} at the end of the run.`);
   } finally {
     db.sqlite.close();
     if (keep) console.log(`Kept the database at ${keep}`);
