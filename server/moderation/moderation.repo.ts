@@ -14,6 +14,26 @@ export const REVIEWED_ACTION = 'report.reviewed';
  * change (a 'report.reviewed' audit entry newer than the report's updatedAt).
  */
 export function suspiciousReports(db: Db): Map<number, Suspicion[]> {
+  // The rules read every published report; reuse the last answer until reports, varieties or the
+  // audit log (reviews) change. The fingerprint is three aggregate reads.
+  const fingerprint = String(
+    db.sqlite
+      .prepare(
+        "SELECT (SELECT count(*) || '/' || ifnull(max(updated_at), '') FROM reports) || '|' || (SELECT ifnull(max(updated_at), '') FROM varieties) || '|' || (SELECT ifnull(max(id), 0) FROM audit_log)",
+      )
+      .pluck()
+      .get(),
+  );
+  const cached = cache.get(db);
+  if (cached?.fingerprint === fingerprint) return new Map(cached.result);
+  const result = computeSuspicious(db);
+  cache.set(db, { fingerprint, result });
+  return new Map(result);
+}
+
+const cache = new WeakMap<Db, { fingerprint: string; result: Map<number, Suspicion[]> }>();
+
+function computeSuspicious(db: Db): Map<number, Suspicion[]> {
   const rows: ReportForRules[] = db
     .select({
       id: reports.id,

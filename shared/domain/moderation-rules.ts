@@ -139,10 +139,12 @@ export function checkNeighbourOutlier(report: ReportForRules, neighbours: Report
  */
 export function findSuspiciousReports(reports: ReportForRules[], varieties: VarietyForRules[]): Map<number, Suspicion[]> {
   const byId = new Map(varieties.map((v) => [v.id, v]));
+  // cells hold one variety's reports of one crop, so a dense region is scanned only for that pair
   const cells = new Map<string, ReportForRules[]>();
-  const cellKey = (lat: number, lon: number) => `${Math.floor(lat)}:${Math.floor(lon)}`;
+  const cellKey = (r: Pick<ReportForRules, 'varietyId' | 'crop'>, lat: number, lon: number) => `${r.varietyId}:${r.crop}:${lat}:${lon}`;
   for (const r of reports) {
-    const key = cellKey(r.lat, r.lon);
+    if (r.varietyId === null) continue;
+    const key = cellKey(r, Math.floor(r.lat), Math.floor(r.lon));
     const list = cells.get(key);
     if (list) list.push(r);
     else cells.set(key, [r]);
@@ -150,12 +152,12 @@ export function findSuspiciousReports(reports: ReportForRules[], varieties: Vari
   const result = new Map<number, Suspicion[]>();
   for (const report of reports) {
     const found = [...checkDateOrder(report), ...checkSeasonFit(report, report.varietyId === null ? undefined : byId.get(report.varietyId))];
-    if (report.outcome === 'ripened') {
+    if (report.outcome === 'ripened' && report.varietyId !== null) {
       const near: ReportForRules[] = [];
       // 60 km is under one degree of latitude; longitude degrees shrink towards the poles, so look 2 wide
       const lat0 = Math.floor(report.lat);
       const lon0 = Math.floor(report.lon);
-      for (let dLat = -1; dLat <= 1; dLat++) for (let dLon = -2; dLon <= 2; dLon++) near.push(...(cells.get(`${lat0 + dLat}:${lon0 + dLon}`) ?? []));
+      for (let dLat = -1; dLat <= 1; dLat++) for (let dLon = -2; dLon <= 2; dLon++) near.push(...(cells.get(cellKey(report, lat0 + dLat, lon0 + dLon)) ?? []));
       found.push(...checkNeighbourOutlier(report, near));
     }
     if (found.length) result.set(report.id, found);
