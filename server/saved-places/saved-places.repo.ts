@@ -31,6 +31,8 @@ export function insertSavedPlace(db: Db, userId: number, input: SavedPlaceInput)
 }
 
 export function updateSavedPlace(db: Db, userId: number, id: number, patch: SavedPlacePatch): SavedPlace | undefined {
+  // An empty patch (or one of only unknown keys, which the schema strips) changes nothing.
+  if (Object.values(patch).every((v) => v === undefined)) return findOwnSavedPlace(db, userId, id);
   return db.transaction(() => {
     if (patch.isHome) clearHome(db, userId);
     const own = and(eq(savedPlaces.id, id), eq(savedPlaces.userId, userId));
