@@ -59,7 +59,7 @@ export function PlacePicker({
   const coordsOk = lat.trim() !== '' && lon.trim() !== '' && Math.abs(latN) <= 90 && Math.abs(lonN) <= 180;
 
   return (
-    <div className="flex flex-col gap-4 rounded-lg border border-fig-100 bg-white p-4">
+    <div className="flex flex-col gap-4 self-start rounded-lg border border-fig-100 bg-white p-4">
       <div className="flex flex-col gap-1">
         <label htmlFor={`${id}-q`} className="text-sm font-medium">
           Find a town

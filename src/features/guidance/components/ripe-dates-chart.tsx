@@ -18,7 +18,7 @@ export function RipeDatesChart({ varietyId, lat, lon, radiusKm }: { varietyId: n
             <XAxis dataKey="label" tick={{ fontSize: 11 }} interval="preserveStartEnd" />
             <YAxis allowDecimals={false} tick={{ fontSize: 11 }} />
             <Tooltip formatter={(value) => [`${value} report(s)`, 'first ripe that week']} labelFormatter={(label) => `Week from ${label}`} />
-            <Bar dataKey="count" fill="#8e4f73" radius={[3, 3, 0, 0]} />
+            <Bar dataKey="count" fill="#8e4f73" radius={[3, 3, 0, 0]} maxBarSize={40} />
           </BarChart>
         </ResponsiveContainer>
       </div>

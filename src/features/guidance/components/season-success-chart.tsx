@@ -22,12 +22,12 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
     <figure>
       <div className="h-56 w-full">
         <ResponsiveContainer width="100%" height="100%" initialDimension={{ width: 480, height: 180 }}>
-          <ComposedChart data={rows} margin={{ top: 8, right: 8, bottom: 4, left: -12 }}>
+          <ComposedChart data={rows} margin={{ top: 20, right: 8, bottom: 4, left: -12 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" />
             <XAxis dataKey="band" tick={{ fontSize: 11 }} />
             <YAxis domain={[0, 100]} unit=" %" tick={{ fontSize: 11 }} />
             <Tooltip formatter={(value, _name, item) => [`${value} % of ${(item.payload as { trees: number }).trees} trees`, 'ripened']} labelFormatter={(label) => `${label} frost-free days`} />
-            <Bar dataKey="share" fill="#5e8a57" radius={[3, 3, 0, 0]}>
+            <Bar dataKey="share" fill="#5e8a57" radius={[3, 3, 0, 0]} maxBarSize={56}>
               <ErrorBar dataKey="err" width={4} stroke="#3d5e39" />
             </Bar>
             {here && <ReferenceLine x={here} stroke="#6b3a5b" strokeDasharray="4 2" label={{ value: 'here', position: 'top', fontSize: 11, fill: '#6b3a5b' }} />}
