@@ -124,7 +124,8 @@ export function checkNeighbourOutlier(report: ReportForRules, neighbours: Report
     if (other.treeId === report.treeId || other.varietyId !== report.varietyId || other.crop !== report.crop) continue;
     if (other.form === 'greenhouse' || Math.abs(other.season - report.season) > t.neighbourSeasons) continue;
     if (other.outcome === 'no-fruit') continue; // a tree that bore nothing says nothing about ripening
-    if (distanceKm(report.lat, report.lon, other.lat, other.lon) > t.neighbourKm) continue;
+    // a degree of latitude is at least 110.5 km: skip the far ones before the trigonometry
+    if (Math.abs(other.lat - report.lat) * 110.5 > t.neighbourKm || distanceKm(report.lat, report.lon, other.lat, other.lon) > t.neighbourKm) continue;
     trees.set(other.treeId, (trees.get(other.treeId) ?? false) || other.outcome === 'ripened');
   }
   if (trees.size < t.minNeighbourTrees) return [];
@@ -149,17 +150,30 @@ export function findSuspiciousReports(reports: ReportForRules[], varieties: Vari
     if (list) list.push(r);
     else cells.set(key, [r]);
   }
+  // every report of a cell shares the same neighbourhood: gather it once per cell
+  const neighbourhoods = new Map<string, ReportForRules[]>();
+  const neighbourhood = (report: ReportForRules): ReportForRules[] => {
+    const lat0 = Math.floor(report.lat);
+    const lon0 = Math.floor(report.lon);
+    const own = cellKey(report, lat0, lon0);
+    let near = neighbourhoods.get(own);
+    if (!near) {
+      near = [];
+      // 60 km is under one degree of latitude; longitude degrees shrink towards the poles, so look 2 wide
+      for (let dLat = -1; dLat <= 1; dLat++) {
+        for (let dLon = -2; dLon <= 2; dLon++) {
+          const cell = cells.get(cellKey(report, lat0 + dLat, lon0 + dLon));
+          if (cell) for (const r of cell) near.push(r);
+        }
+      }
+      neighbourhoods.set(own, near);
+    }
+    return near;
+  };
   const result = new Map<number, Suspicion[]>();
   for (const report of reports) {
     const found = [...checkDateOrder(report), ...checkSeasonFit(report, report.varietyId === null ? undefined : byId.get(report.varietyId))];
-    if (report.outcome === 'ripened' && report.varietyId !== null) {
-      const near: ReportForRules[] = [];
-      // 60 km is under one degree of latitude; longitude degrees shrink towards the poles, so look 2 wide
-      const lat0 = Math.floor(report.lat);
-      const lon0 = Math.floor(report.lon);
-      for (let dLat = -1; dLat <= 1; dLat++) for (let dLon = -2; dLon <= 2; dLon++) near.push(...(cells.get(cellKey(report, lat0 + dLat, lon0 + dLon)) ?? []));
-      found.push(...checkNeighbourOutlier(report, near));
-    }
+    if (report.outcome === 'ripened' && report.varietyId !== null) found.push(...checkNeighbourOutlier(report, neighbourhood(report)));
     if (found.length) result.set(report.id, found);
   }
   return result;
