@@ -1,9 +1,8 @@
-import type { Express } from 'express';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
 import { createTestContext, TEST_PASSWORD, testConfig, type TestAgent } from '../../helpers/test-app';
-import { validReportBody } from './helpers';
+import { listRoutes, validReportBody } from './helpers';
 import { createWorld, EXACT_LAT, EXACT_LON, EXACT_MARKERS, ROLES, stationCsv, uniqueName, varietyBody, waspAreaBody, type Role, type World } from './fixtures';
 import { snapToGrid } from '../../../shared/domain/public-grid';
 
@@ -158,24 +157,6 @@ const CASES: Case[] = [
   { route: 'GET /uploads/reports/:name', note: 'draft', expected: ownerOnly(200), call: async (w) => get(`/uploads/reports/${(await w.photo('draft')).fileName}`) },
   { route: 'GET /tiles/*', expected: everyone(204), note: 'a tile with no data is an empty 204', call: () => get('/tiles/base/6/0/0.pbf') },
 ];
-
-/** Every route the Express app serves, as "METHOD /path" (from the routers mounted in server/app.ts). */
-export function listRoutes(app: Express): string[] {
-  const out = new Set<string>();
-  const walk = (stack: any[], prefix: string) => {
-    for (const layer of stack) {
-      if (layer.route) {
-        const raw = layer.route.path;
-        const path = `${prefix}${raw instanceof RegExp ? '/*' : raw}`.replace(/(.)\/$/, '$1');
-        for (const method of Object.keys(layer.route.methods)) out.add(`${method.toUpperCase()} ${path}`);
-      } else if (layer.handle?.stack) {
-        walk(layer.handle.stack, prefix + (typeof layer.rawPath === 'string' && layer.rawPath !== '/' ? layer.rawPath : ''));
-      }
-    }
-  };
-  walk((app as unknown as { router: { stack: unknown[] } }).router.stack, '');
-  return [...out].sort();
-}
 
 const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, perAccount: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 } });
 let world: World;

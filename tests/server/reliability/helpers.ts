@@ -1,4 +1,5 @@
 import type Database from 'better-sqlite3';
+import type { Express } from 'express';
 import { createHash } from 'node:crypto';
 import { reportsChecksum, tableCounts } from '../../../server/backup/backup';
 import type { Db } from '../../../server/db/client';
@@ -27,4 +28,22 @@ export function dataFingerprint(sqlite: Database.Database): string {
     for (const row of sqlite.prepare(`SELECT * FROM "${table}"`).raw().iterate() as Iterable<unknown[]>) hash.update(JSON.stringify(row));
   }
   return hash.digest('hex');
+}
+
+/** Every route the Express app serves, as "METHOD /path" (from the routers mounted in server/app.ts). */
+export function listRoutes(app: Express): string[] {
+  const out = new Set<string>();
+  const walk = (stack: any[], prefix: string) => {
+    for (const layer of stack) {
+      if (layer.route) {
+        const raw = layer.route.path;
+        const path = `${prefix}${raw instanceof RegExp ? '/*' : raw}`.replace(/(.)\/$/, '$1');
+        for (const method of Object.keys(layer.route.methods)) out.add(`${method.toUpperCase()} ${path}`);
+      } else if (layer.handle?.stack) {
+        walk(layer.handle.stack, prefix + (typeof layer.rawPath === 'string' && layer.rawPath !== '/' ? layer.rawPath : ''));
+      }
+    }
+  };
+  walk((app as unknown as { router: { stack: unknown[] } }).router.stack, '');
+  return [...out].sort();
 }

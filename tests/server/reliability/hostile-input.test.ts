@@ -9,7 +9,7 @@ import { createApp } from '../../../server/app';
 import { PHOTO_NAME_PATTERN } from '../../../server/photos/photos';
 import { createTestContext, TEST_PASSWORD, testConfig, type TestAgent } from '../../helpers/test-app';
 import { createWorld, stationCsv, uniqueName, varietyBody, waspAreaBody, type Role, type World } from './fixtures';
-import { dataFingerprint, validReportBody } from './helpers';
+import { dataFingerprint, listRoutes, validReportBody } from './helpers';
 
 /*
  * Hostile input against every write route: random and malformed bodies, query strings and files.
@@ -72,6 +72,23 @@ const JSON_WRITES: WriteRoute[] = [
   { route: 'PATCH /api/saved-places/:id', role: 'owner', method: 'patch', path: () => `/api/saved-places/${ids.place}`, keys: ['name', 'lat', 'lon', 'form', 'isHome'] },
 ];
 
+/** Routes whose path carries ids: fuzzed with hostile ids (DELETE and body-less writes are covered here). */
+const PARAM_ROUTES = [
+    'GET /api/reports/:id', 'PATCH /api/reports/:id', 'DELETE /api/reports/:id', 'POST /api/reports/:id/publish', 'POST /api/reports/:id/hide', 'POST /api/reports/:id/restore',
+    'POST /api/reports/:id/flags', 'DELETE /api/reports/:id/photos/:id', 'GET /api/varieties/:id', 'PATCH /api/varieties/:id', 'POST /api/varieties/:id/merge', 'GET /api/stations/:id',
+    'DELETE /api/stations/:id', 'PATCH /api/saved-places/:id', 'DELETE /api/saved-places/:id', 'GET /api/wasp-areas/records/:id', 'POST /api/wasp-areas/:id/retire',
+    'PATCH /api/users/:id/role', 'POST /api/moderation/reports/:id/reviewed', 'POST /api/moderation/flags/:id/clear', 'GET /uploads/reports/:id',
+  ];
+
+const UPLOADS: { route: string; role: Role; path: () => string; field: string; fields?: () => Record<string, string> }[] = [
+  { route: 'POST /api/reports/import', role: 'owner', path: () => '/api/reports/import', field: 'file' },
+  { route: 'POST /api/reports/:id/photos', role: 'owner', path: () => `/api/reports/${ids.photoReport}/photos`, field: 'photos' },
+  { route: 'POST /api/stations/upload', role: 'editor', path: () => '/api/stations/upload', field: 'file', fields: () => ({ name: uniqueName('Fuzz station'), lat: '42.7', lon: '-73.8' }) },
+];
+
+/** Writes that take no input at all (no body, no id). */
+const NO_INPUT_WRITES = ['POST /api/auth/sign-out', 'POST /api/auth/verify/resend', 'DELETE /api/dev/mail'];
+
 /** Values of every wrong kind: other types, huge and odd numbers, odd strings, nesting. */
 const wrongValue = fc.oneof(
   fc.jsonValue({ maxDepth: 2 }),
@@ -115,6 +132,13 @@ async function checkRefusedOrFine(send: () => Promise<supertest.Response>, what:
 }
 
 describe('random and malformed JSON bodies on every JSON write route', () => {
+  it('every write route the app serves is on one of the lists below', () => {
+    const norm = (route: string) => route.replace(/:\w+/g, ':id');
+    const covered = new Set([...JSON_WRITES.map((r) => r.route), ...PARAM_ROUTES, ...UPLOADS.map((u) => u.route), ...NO_INPUT_WRITES].map(norm));
+    const writes = listRoutes(ctx.app).filter((route) => !route.startsWith('GET '));
+    expect(writes.filter((route) => !covered.has(norm(route)))).toEqual([]);
+  });
+
   for (const route of JSON_WRITES) {
     it(`${route.route}: random bodies`, async () => {
       let refused = 0;
@@ -154,12 +178,8 @@ describe('random and malformed JSON bodies on every JSON write route', () => {
 });
 
 describe('random path parameters', () => {
-  const routes = [
-    'GET /api/reports/:id', 'PATCH /api/reports/:id', 'DELETE /api/reports/:id', 'POST /api/reports/:id/publish', 'POST /api/reports/:id/hide', 'POST /api/reports/:id/restore',
-    'POST /api/reports/:id/flags', 'DELETE /api/reports/:id/photos/:id', 'GET /api/varieties/:id', 'PATCH /api/varieties/:id', 'POST /api/varieties/:id/merge', 'GET /api/stations/:id',
-    'DELETE /api/stations/:id', 'PATCH /api/saved-places/:id', 'DELETE /api/saved-places/:id', 'GET /api/wasp-areas/records/:id', 'POST /api/wasp-areas/:id/retire',
-    'PATCH /api/users/:id/role', 'POST /api/moderation/reports/:id/reviewed', 'POST /api/moderation/flags/:id/clear', 'GET /uploads/reports/:id',
-  ];
+  const routes = PARAM_ROUTES;
+  
   // Never a plain id: a random "1" could delete a fixture, which is allowed but tests nothing.
   const param = fc.oneof(
     fc.constantFrom('0', '-1', '1.5', '99999999999999999999', 'NaN', 'Infinity', "1' OR '1'='1", '1;DROP TABLE reports', '%00', '..', '../1', 'null'),
@@ -218,11 +238,7 @@ describe('random query strings on every route that reads a query', () => {
 
 describe('random files on every upload route', () => {
   const fileName = fc.oneof(fc.string({ maxLength: 40 }), fc.constantFrom('../../etc/passwd', '..\\..\\windows\\win.ini', '/etc/passwd', '%2e%2e%2fx.csv', 'x.csv\u0000.png', '.htaccess', 'a'.repeat(300), 'photo.webp'));
-  const UPLOADS: { route: string; role: Role; path: () => string; field: string; fields?: () => Record<string, string> }[] = [
-    { route: 'POST /api/reports/import', role: 'owner', path: () => '/api/reports/import', field: 'file' },
-    { route: 'POST /api/reports/:id/photos', role: 'owner', path: () => `/api/reports/${ids.photoReport}/photos`, field: 'photos' },
-    { route: 'POST /api/stations/upload', role: 'editor', path: () => '/api/stations/upload', field: 'file', fields: () => ({ name: uniqueName('Fuzz station'), lat: '42.7', lon: '-73.8' }) },
-  ];
+
   for (const upload of UPLOADS) {
     it(`${upload.route}: random bytes, text and file names`, async () => {
       const content = fc.oneof(
