@@ -18,11 +18,11 @@ export function ReviewPanel({ variety, onDone, onCancel }: { variety: CatalogueE
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm text-ink/80">
-        Proposed{variety.proposedBy ? ` by ${variety.proposedBy}` : ''} with {variety.reportCount} report{variety.reportCount === 1 ? '' : 's'}.
+        {variety.status === 'rejected' ? 'Rejected earlier; you can still accept or merge it. ' : ''}Proposed{variety.proposedBy ? ` by ${variety.proposedBy}` : ''} with {variety.reportCount} report{variety.reportCount === 1 ? '' : 's'}.
         {variety.notes && <> Note: {variety.notes}</>}
       </p>
       <div role="radiogroup" aria-label="Decision" className="flex flex-wrap gap-2">
-        {(['accept', 'merge', 'reject'] as const).map((c) => (
+        {(variety.status === 'rejected' ? (['accept', 'merge'] as const) : (['accept', 'merge', 'reject'] as const)).map((c) => (
           <label key={c} className="flex cursor-pointer items-center gap-2 rounded-md border border-fig-200 bg-white px-3 py-1.5 text-sm has-[:checked]:border-fig-600 has-[:checked]:bg-fig-50">
             <input type="radio" name="decision" checked={choice === c} onChange={() => setChoice(c)} />
             {c === 'accept' ? 'Accept as a new variety' : c === 'merge' ? 'Same as a known variety: merge' : 'Reject'}
