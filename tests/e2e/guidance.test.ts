@@ -55,6 +55,8 @@ describe('guidance in the browser', () => {
     await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
     await page.goto(`${server.url}/here`);
     await page.waitForURL((u) => u.searchParams.get('lat') === '42.66' && u.searchParams.get('form') === 'container', { timeout: 30_000 });
-    expect(await page.getByLabel('Latitude').inputValue()).toBe('42.66');
+    await expect.poll(() => page.getByLabel('Latitude').inputValue(), { timeout: 15_000 }).toBe('42.66');
+    await expect.poll(() => page.getByTestId('variety-row').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    expect(await page.getByTestId('wasp-status').textContent()).toContain('Not recorded here');
   });
 });
