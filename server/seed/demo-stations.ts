@@ -1,4 +1,6 @@
+import crypto from 'node:crypto';
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { freezeSummary, freezeYears } from '../../shared/domain/frost';
@@ -112,26 +114,68 @@ export function readRealStationDays(file: string): StationDayRow[] {
  * demo town. Idempotent: a station whose code is already there is left alone.
  */
 export function seedDemoStations(db: Db): void {
-  const real = REAL_DEMO_STATIONS.filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
-  const synthetic = syntheticStationMetas().filter(({ meta }) => findStationIdByCode(db, meta.code!) === undefined);
-  if (real.length === 0 && synthetic.length === 0) return;
-  const prepared = [
-    ...real.map(({ file, meta }) => ({ meta, data: () => withFreezeTables(readRealStationDays(file), meta) })),
-    ...synthetic.map(({ town, meta }) => ({ meta, data: () => withFreezeTables(calibratedSyntheticDays(town, 1991 + DEMO_TOWNS.indexOf(town)), meta) })),
-  ].map(({ meta, data }) => ({ meta, data: memo(meta.code!, data) }));
+  const missing = new Set(
+    [...REAL_DEMO_STATIONS.map(({ meta }) => meta.code!), ...syntheticStationMetas().map(({ meta }) => meta.code!)].filter((code) => findStationIdByCode(db, code) === undefined),
+  );
+  if (missing.size === 0) return;
+  const prepared = demoStationData().filter(({ meta }) => missing.has(meta.code!));
   db.transaction(() => {
     for (const { meta, data } of prepared) writeStation(db, meta, data);
   });
 }
 
-function withFreezeTables(days: StationDayRow[], meta: StationMeta): StationData {
-  return { days, ...computeFreezeTables(days, meta.lat) };
+type PreparedStation = { meta: StationMeta; data: StationData };
+
+function computeDemoStationData(): PreparedStation[] {
+  const withFreezeTables = (meta: StationMeta, days: StationDayRow[]) => ({ meta, data: { days, ...computeFreezeTables(days, meta.lat) } });
+  return [
+    ...REAL_DEMO_STATIONS.map(({ file, meta }) => withFreezeTables(meta, readRealStationDays(file))),
+    ...syntheticStationMetas().map(({ town, meta }) => withFreezeTables(meta, calibratedSyntheticDays(town, 1991 + DEMO_TOWNS.indexOf(town)))),
+  ];
 }
 
-/** The demo stations' data is the same every time: compute it once per process (tests seed often). */
-const computed = new Map<string, StationData>();
-function memo(code: string, make: () => StationData): StationData {
-  let data = computed.get(code);
-  if (!data) computed.set(code, (data = make()));
-  return data;
+/** Everything the demo stations are computed from: when any of it changes, so does the cache key. */
+const CACHE_INPUTS = [
+  ...REAL_DEMO_STATIONS.map(({ file }) => path.join(DATA_DIR, file)),
+  fileURLToPath(import.meta.url),
+  fileURLToPath(new URL('./demo-scenario.ts', import.meta.url)),
+  fileURLToPath(new URL('../stations/station-import.ts', import.meta.url)),
+  fileURLToPath(new URL('../../shared/domain/frost.ts', import.meta.url)),
+  fileURLToPath(new URL('../../shared/domain/station-csv.ts', import.meta.url)),
+];
+
+let inProcess: PreparedStation[] | undefined;
+
+/**
+ * The demo stations' data is the same every time, and computing it (parsing two NOAA files,
+ * freeze dates for a dozen stations) takes a moment: keep it per process, and in a file in the
+ * system's temporary folder keyed by a hash of its inputs, so many test workers and restarts
+ * compute it once.
+ */
+function demoStationData(): PreparedStation[] {
+  if (inProcess) return inProcess;
+  const hash = crypto.createHash('sha1');
+  for (const file of CACHE_INPUTS) {
+    try {
+      hash.update(fs.readFileSync(file));
+    } catch {
+      hash.update(`missing:${file}`); // a bundled build without sources: key on the data only
+    }
+  }
+  const cacheFile = path.join(os.tmpdir(), `syconium-demo-stations-${hash.digest('hex').slice(0, 16)}.json`);
+  try {
+    inProcess = JSON.parse(fs.readFileSync(cacheFile, 'utf8')) as PreparedStation[];
+    return inProcess;
+  } catch {
+    // not cached yet (or unreadable): compute below
+  }
+  inProcess = computeDemoStationData();
+  try {
+    const temp = `${cacheFile}.${process.pid}.tmp`;
+    fs.writeFileSync(temp, JSON.stringify(inProcess));
+    fs.renameSync(temp, cacheFile); // atomic: a concurrent reader sees all of it or nothing
+  } catch {
+    // a read-only temporary folder only costs the next start a recomputation
+  }
+  return inProcess;
 }
