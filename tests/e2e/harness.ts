@@ -43,7 +43,10 @@ export interface RunningServer {
 export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
   const port = await freePort();
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-e2e-'));
-  const child: ChildProcess = spawn('npx', ['tsx', 'server/index.ts'], {
+  // One node process (tsx as a loader, not the tsx CLI, which forks a second one) in its own
+  // process group, so stop() ends everything it started.
+  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    detached: true,
     env: {
       ...process.env,
       NODE_ENV: 'production',
@@ -73,8 +76,19 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
     url,
     dir,
     stop: async () => {
-      child.kill('SIGTERM');
-      await new Promise((r) => child.once('exit', r));
+      if (child.exitCode !== null || child.signalCode !== null) return;
+      const exited = new Promise((r) => child.once('exit', r));
+      const killGroup = (signal: NodeJS.Signals) => {
+        try {
+          process.kill(-child.pid!, signal);
+        } catch {
+          // already gone
+        }
+      };
+      killGroup('SIGTERM');
+      const timer = setTimeout(() => killGroup('SIGKILL'), 5_000);
+      await exited;
+      clearTimeout(timer);
     },
   };
 }
