@@ -256,14 +256,16 @@ export function listTrees(db: Db, userId: number): Tree[] {
 
 /** A catalogue variety by name or synonym (case-insensitive), for CSV rows. */
 export function findVarietyByName(db: Db, name: string): { id: number; status: string } | undefined {
-  const lower = name.trim().toLowerCase();
-  const direct = db.select({ id: varieties.id, status: varieties.status, mergedIntoId: varieties.mergedIntoId }).from(varieties).where(sql`lower(${varieties.name}) = ${lower}`).get();
+  // Compare with SQLite's own lower() on both sides: it folds ASCII only, exactly like the unique
+  // index on lower(name), so a name the index would call a duplicate is always found here.
+  const trimmed = name.trim();
+  const direct = db.select({ id: varieties.id, status: varieties.status, mergedIntoId: varieties.mergedIntoId }).from(varieties).where(sql`lower(${varieties.name}) = lower(${trimmed})`).get();
   if (direct) return direct.status === 'merged' && direct.mergedIntoId ? { id: direct.mergedIntoId, status: 'accepted' } : direct;
   const synonym = db
     .select({ id: varieties.id, status: varieties.status })
     .from(varietySynonyms)
     .innerJoin(varieties, eq(varieties.id, varietySynonyms.varietyId))
-    .where(sql`lower(${varietySynonyms.name}) = ${lower}`)
+    .where(sql`lower(${varietySynonyms.name}) = lower(${trimmed})`)
     .get();
   return synonym;
 }
@@ -305,7 +307,7 @@ export function resolveTree(db: Db, userId: number, treeId: number | null, label
 
 /** A tree of this grower with this label (case-insensitive), for CSV rows. */
 export function findTreeByLabel(db: Db, userId: number, label: string): number | undefined {
-  return db.select({ id: trees.id }).from(trees).where(and(eq(trees.userId, userId), sql`lower(${trees.label}) = ${label.toLowerCase()}`)).get()?.id;
+  return db.select({ id: trees.id }).from(trees).where(and(eq(trees.userId, userId), sql`lower(${trees.label}) = lower(${label})`)).get()?.id;
 }
 
 /** The stored columns of a validated input (everything but variety and tree resolution). */

@@ -382,7 +382,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
       return rows.map(({ input, treeLabel }) => {
         const variety = resolveVariety(db, input, user.id);
         const label = treeLabel || variety.name;
-        const key = label.toLowerCase();
+        const key = label.toLowerCase(); // a cache key only; the database match uses SQLite's lower()
         let treeId = treeIds.get(key) ?? findTreeByLabel(db, user.id, label);
         if (treeId === undefined) treeId = resolveTree(db, user.id, null, label, label);
         treeIds.set(key, treeId);

@@ -145,6 +145,12 @@ describe('posting, editing and deleting a report', () => {
     expect(b.body.report.variety.id).toBe(a.body.report.variety.id);
     const row = ctx.db.select().from(varieties).where(eq(varieties.id, a.body.report.variety.id)).get()!;
     expect(row.proposedByUserId).toBe(alice.userId);
+    // SQLite's lower() folds ASCII only (sqlite.org/lang_corefunc.html#lower); a non-ASCII name
+    // proposed twice must still be found, not collide with the unique index.
+    const first = await alice.post('/api/reports').send(validReport({ varietyId: null, proposedVarietyName: 'Ärtig Violette' }));
+    const again = await bob.post('/api/reports').send(validReport({ varietyId: null, proposedVarietyName: 'Ärtig Violette' }));
+    expect([first.status, again.status]).toEqual([201, 201]);
+    expect(again.body.report.variety.id).toBe(first.body.report.variety.id);
     const neither = await alice.post('/api/reports').send(validReport({ varietyId: null }));
     expect(neither.body.error.fields).toHaveProperty('varietyId');
   });
