@@ -3,7 +3,8 @@ import { createTestContext } from '../helpers/test-app';
 import { seedDatabase } from '../../server/seed';
 import { findWaspAreasAt } from '../../server/wasp-areas/wasp-areas.repo';
 
-describe('public catalogue reads', () => {
+// The demo seed parses two GHCN station files: give it room on a busy machine.
+describe('public catalogue reads', { timeout: 60_000 }, () => {
   it('finds a variety by a synonym, case-insensitively', async () => {
     const { db, agent } = createTestContext();
     await seedDatabase(db, { seedDemo: true });
@@ -30,7 +31,7 @@ describe('public catalogue reads', () => {
   });
 });
 
-describe('demo seed', () => {
+describe('demo seed', { timeout: 120_000 }, () => {
   it('is idempotent', async () => {
     const { db } = createTestContext();
     await seedDatabase(db, { seedDemo: true });
