@@ -49,7 +49,11 @@ export const waspAreaInputSchema = z.object({
   geometry: z.unknown().refine((g) => g !== undefined && g !== null, 'Draw the area on the map or upload a GeoJSON file'),
 });
 export type WaspAreaInput = z.infer<typeof waspAreaInputSchema>;
-export const waspAreaUpdateSchema = waspAreaInputSchema.partial();
+/** PATCH /api/wasp-areas/:id: any of the fields; unknown keys and an empty change are refused. */
+export const waspAreaUpdateSchema = waspAreaInputSchema
+  .partial()
+  .strict()
+  .refine((change) => Object.values(change).some((v) => v !== undefined), { message: 'Nothing to change: send a name, source, observedOn or geometry' });
 export type WaspAreaUpdate = z.infer<typeof waspAreaUpdateSchema>;
 
 export const waspAreaRecordSchema = z.object({

@@ -224,6 +224,15 @@ describe('wasp areas', () => {
     expect(JSON.parse(entry!.after!)).toMatchObject({ name: 'Test basin (west)', geometry: square(-101, 30) });
   });
 
+  it('refuses an edit with unknown keys or nothing to change, naming why', async () => {
+    const unknown = await editor.patch(`/api/wasp-areas/${id}`).send({ colour: 'red' });
+    expect(unknown.status).toBe(400);
+    expect(JSON.stringify(unknown.body.error.fields)).toMatch(/colour/);
+    const empty = await editor.patch(`/api/wasp-areas/${id}`).send({});
+    expect(empty.status).toBe(400);
+    expect(empty.body.error.fields._[0]).toMatch(/Nothing to change/);
+  });
+
   it('retires an area: it leaves the public map but stays in the history list', async () => {
     const res = await editor.post(`/api/wasp-areas/${id}/retire`);
     expect(res.body.area).toMatchObject({ status: 'retired' });
