@@ -104,6 +104,11 @@ describe('the atlas map in the browser', () => {
     await expect
       .poll(() => page.evaluate(() => (window as unknown as { syconiumMap: { getCenter: () => { lng: number } } }).syconiumMap.getCenter().lng), { timeout: 20_000 })
       .toBeLessThan(-86);
+
+    // Keyboard: with the map focused, Enter opens what lies at its centre.
+    await page.locator('.maplibregl-canvas').focus();
+    await page.keyboard.press('Enter');
+    await expect.poll(() => page.locator('.maplibregl-popup').getByRole('link', { name: /What ripens/ }).first().isVisible(), { timeout: 20_000 }).toBe(true);
     await page.close();
   }, 300_000);
 });

@@ -2,8 +2,8 @@ import '../worker';
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { useQuery } from '@tanstack/react-query';
 import type { Feature, FeatureCollection, Point } from 'geojson';
-import type { Map as MapLibreMap } from 'maplibre-gl';
-import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState } from 'react';
+import type { LngLat, Map as MapLibreMap, MapGeoJSONFeature } from 'maplibre-gl';
+import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import MapGL, { Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { snapToGrid } from '@shared/domain/public-grid';
 import type { PinFilters } from '@shared/schemas/pins';
@@ -102,10 +102,10 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
     (window as unknown as { syconiumMap?: MapLibreMap }).syconiumMap = map;
   }, []);
 
-  const onClick = useCallback((event: MapLayerMouseEvent) => {
+  /** Open what lies at a point: zoom into a cluster, or a popup for a cell, station, area or empty spot. */
+  const openAt = useCallback((feature: MapGeoJSONFeature | undefined, at: LngLat) => {
     const map = mapRef.current?.getMap();
-    const feature = event.features?.[0];
-    const { lat, lng } = event.lngLat.wrap();
+    const { lat, lng } = at.wrap();
     if (!map || !feature) {
       setPopup({ kind: 'point', lat, lon: lng });
       return;
@@ -132,60 +132,95 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
     }
   }, []);
 
+  const onClick = useCallback((event: MapLayerMouseEvent) => openAt(event.features?.[0], event.lngLat), [openAt]);
+
   const interactiveLayerIds = useMemo(
     () => CLICKABLE_LAYER_IDS.filter((id) => (id === FROST_STATION_LAYER.id ? showFrost : id === WASP_FILL_LAYER.id ? showWasp : true)),
     [showFrost, showWasp],
   );
 
+  // Keyboard: MapLibre already pans with the arrow keys and zooms with + and -; Enter opens what
+  // lies under the cross at the centre, as a click there would.
+  const [keyboardFocus, setKeyboardFocus] = useState(false);
+  const onKeyDown = useCallback(
+    (event: KeyboardEvent<HTMLDivElement>) => {
+      const map = mapRef.current?.getMap();
+      if (event.key !== 'Enter' || !map || event.target !== map.getCanvas()) return;
+      event.preventDefault();
+      const centre = map.project(map.getCenter());
+      const box: [[number, number], [number, number]] = [
+        [centre.x - 18, centre.y - 18],
+        [centre.x + 18, centre.y + 18],
+      ];
+      const layers = interactiveLayerIds.filter((id) => map.getLayer(id));
+      openAt(map.queryRenderedFeatures(box, { layers })[0], map.getCenter());
+    },
+    [interactiveLayerIds, openAt],
+  );
+
   return (
-    <MapGL
-      ref={mapRef}
-      mapStyle={mapStyle}
-      initialViewState={{ latitude: initialView.lat, longitude: initialView.lon, zoom: initialView.zoom }}
-      minZoom={1}
-      maxZoom={14}
-      dragRotate={false}
-      pitchWithRotate={false}
-      touchPitch={false}
-      attributionControl={false}
-      interactiveLayerIds={interactiveLayerIds}
-      cursor={cursor}
-      onMouseEnter={() => setCursor('pointer')}
-      onMouseLeave={() => setCursor('')}
-      onLoad={onLoad}
-      onMoveEnd={onMoveEnd}
-      onClick={onClick}
-      style={{ position: 'absolute', inset: 0 }}
+    <div
+      className="absolute inset-0"
+      onKeyDown={onKeyDown}
+      onFocus={(e) => setKeyboardFocus(e.target instanceof HTMLCanvasElement && e.target.matches(':focus-visible'))}
+      onBlur={() => setKeyboardFocus(false)}
     >
-      <NavigationControl position="top-right" showCompass={false} />
-      <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
+      <MapGL
+        ref={mapRef}
+        mapStyle={mapStyle}
+        initialViewState={{ latitude: initialView.lat, longitude: initialView.lon, zoom: initialView.zoom }}
+        minZoom={1}
+        maxZoom={14}
+        dragRotate={false}
+        pitchWithRotate={false}
+        touchPitch={false}
+        attributionControl={false}
+        locale={{ 'Map.Title': 'Atlas map. Arrow keys move it, plus and minus zoom, Enter opens what lies at the centre.' }}
+        interactiveLayerIds={interactiveLayerIds}
+        cursor={cursor}
+        onMouseEnter={() => setCursor('pointer')}
+        onMouseLeave={() => setCursor('')}
+        onLoad={onLoad}
+        onMoveEnd={onMoveEnd}
+        onClick={onClick}
+        style={{ position: 'absolute', inset: 0 }}
+      >
+        <NavigationControl position="top-right" showCompass={false} />
+        <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
 
-      {showWasp && wasp.data && (
-        <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
-          <Layer {...WASP_FILL_LAYER} />
-          <Layer {...WASP_OUTLINE_LAYER} />
+        {showWasp && wasp.data && (
+          <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
+            <Layer {...WASP_FILL_LAYER} />
+            <Layer {...WASP_OUTLINE_LAYER} />
+          </Source>
+        )}
+        {showFrost && (
+          <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
+            <Layer {...FROST_STATION_LAYER} />
+          </Source>
+        )}
+        <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
+          <Layer {...PIN_CLUSTER_LAYER} />
+          <Layer {...PIN_CLUSTER_COUNT_LAYER} />
+          <Layer {...PIN_CELL_LAYER} />
+          <Layer {...PIN_CELL_COUNT_LAYER} />
         </Source>
-      )}
-      {showFrost && (
-        <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
-          <Layer {...FROST_STATION_LAYER} />
-        </Source>
-      )}
-      <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
-        <Layer {...PIN_CLUSTER_LAYER} />
-        <Layer {...PIN_CLUSTER_COUNT_LAYER} />
-        <Layer {...PIN_CELL_LAYER} />
-        <Layer {...PIN_CELL_COUNT_LAYER} />
-      </Source>
 
-      {popup && (
-        <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
-          {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} filters={filters} />}
-          {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} />}
-          {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} />}
-          {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} />}
-        </Popup>
+        {popup && (
+          <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
+            {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} filters={filters} />}
+            {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} />}
+            {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} />}
+            {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} />}
+          </Popup>
+        )}
+      </MapGL>
+      {keyboardFocus && (
+        <div aria-hidden className="pointer-events-none absolute top-1/2 left-1/2 h-6 w-6 -translate-x-1/2 -translate-y-1/2">
+          <span className="absolute top-1/2 left-0 h-0.5 w-full -translate-y-1/2 bg-fig-700/70" />
+          <span className="absolute top-0 left-1/2 h-full w-0.5 -translate-x-1/2 bg-fig-700/70" />
+        </div>
       )}
-    </MapGL>
+    </div>
   );
 });
