@@ -172,6 +172,9 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     // Only the keys the client sent: a partial edit never resets a field to its default.
     const sent = new Set(Object.keys(req.body ?? {}));
     const patch = Object.fromEntries(Object.entries(parsed).filter(([key]) => sent.has(key)));
+    if (Object.keys(patch).length === 0) {
+      throw new HttpError(400, 'invalid_input', 'Send at least one field of the report to change', { _: ['Nothing to change: no known report field was sent'] });
+    }
     const changesVariety = sent.has('varietyId') || sent.has('proposedVarietyName');
     const changesTree = sent.has('treeId') || sent.has('newTreeLabel');
     const merged: CreateReportValues = mergedReportSchema.parse({

@@ -117,6 +117,7 @@ describe('posting, editing and deleting a report', () => {
     expect((update?.before as { notes: string }).notes).toBe('Sweet, amber flesh.');
     expect((update?.after as { notes: string }).notes).toBe('Edited');
 
+    expect((await alice.patch(`/api/reports/${report.id}`).send({ colour: 'purple' })).status).toBe(400);
     const badEdit = await alice.patch(`/api/reports/${report.id}`).send({ outcome: 'unripe' });
     expect(badEdit.status).toBe(400); // a first ripe date on an unripe crop
     expect(badEdit.body.error.fields).toHaveProperty('firstRipeDate');
