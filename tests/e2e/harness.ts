@@ -61,7 +61,8 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
   child.stdout?.on('data', (chunk) => (output += chunk));
   child.stderr?.on('data', (chunk) => (output += chunk));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60_000;
+  // A cold start seeds the demo (two real station files): allow for a busy machine.
+  const deadline = Date.now() + 180_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {
@@ -69,7 +70,10 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
     } catch {
       // not listening yet
     }
-    if (Date.now() > deadline) throw new Error(`server did not start:\n${output}`);
+    if (Date.now() > deadline) {
+      killGroup(child, 'SIGKILL');
+      throw new Error(`server did not start:\n${output}`);
+    }
     await new Promise((r) => setTimeout(r, 250));
   }
   return {
@@ -78,19 +82,20 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
     stop: async () => {
       if (child.exitCode !== null || child.signalCode !== null) return;
       const exited = new Promise((r) => child.once('exit', r));
-      const killGroup = (signal: NodeJS.Signals) => {
-        try {
-          process.kill(-child.pid!, signal);
-        } catch {
-          // already gone
-        }
-      };
-      killGroup('SIGTERM');
-      const timer = setTimeout(() => killGroup('SIGKILL'), 5_000);
+      killGroup(child, 'SIGTERM');
+      const timer = setTimeout(() => killGroup(child, 'SIGKILL'), 5_000);
       await exited;
       clearTimeout(timer);
     },
   };
+}
+
+function killGroup(child: ChildProcess, signal: NodeJS.Signals): void {
+  try {
+    process.kill(-child.pid!, signal);
+  } catch {
+    // already gone
+  }
 }
 
 /** Record every request a page makes, to prove none leaves the machine. */
