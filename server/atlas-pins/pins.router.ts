@@ -13,35 +13,50 @@ export function filterKey(filters: PinFilters): string {
 }
 
 /**
+ * A build (or version check) slower than this marks a large atlas: its pins may then lag new
+ * reports by up to `MAX_STALE_MS`, so a stream of writes does not rebuild the index for every
+ * read. A small atlas (the demo, the tests) is always answered fresh.
+ */
+export const MAX_STALE_MS = 5_000;
+const SLOW_MS = 50;
+
+/**
  * Pin indexes kept in memory per filter set, valid for one data version. The data version is
  * only recomputed after some write has happened, so a quiet database answers from memory alone.
  */
 export function createPinCache(db: Db) {
   let stamp = '';
   let version = '';
-  const indexes = new Map<string, { version: string; index: PinIndex }>();
+  let versionAt = 0;
+  let versionTookMs = 0;
+  const indexes = new Map<string, { version: string; index: PinIndex; builtAt: number; tookMs: number }>();
 
-  const currentVersion = (): string => {
-    const now = writeStamp(db);
-    if (now !== stamp) {
+  const currentVersion = (now: number): string => {
+    const latest = writeStamp(db);
+    if (latest !== stamp && (versionTookMs < SLOW_MS || now - versionAt >= MAX_STALE_MS)) {
+      const started = performance.now();
       version = pinDataVersion(db);
-      stamp = now;
+      versionTookMs = performance.now() - started;
+      versionAt = now;
+      stamp = latest;
     }
     return version;
   };
 
   return {
-    get(filters: PinFilters): { version: string; index: PinIndex } {
-      const v = currentVersion();
+    get(filters: PinFilters, now = Date.now()): { version: string; index: PinIndex } {
+      const v = currentVersion(now);
       const key = filterKey(filters);
       const hit = indexes.get(key);
-      if (hit && hit.version === v) {
+      if (hit && (hit.version === v || (hit.tookMs >= SLOW_MS && now - hit.builtAt < MAX_STALE_MS))) {
         // Refresh its place in the least-recently-used order.
         indexes.delete(key);
         indexes.set(key, hit);
         return hit;
       }
-      const entry = { version: v, index: buildPinIndex(listPinCells(db, filters)) };
+      const started = performance.now();
+      const entry = { version: v, index: buildPinIndex(listPinCells(db, filters)), builtAt: now, tookMs: 0 };
+      entry.tookMs = performance.now() - started;
       indexes.delete(key);
       indexes.set(key, entry);
       while (indexes.size > MAX_CACHED_FILTER_SETS) indexes.delete(indexes.keys().next().value!);
