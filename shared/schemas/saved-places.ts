@@ -24,7 +24,10 @@ export const savedPlaceInputSchema = z.object({
 });
 export type SavedPlaceInput = z.infer<typeof savedPlaceInputSchema>;
 
-/** PATCH /api/saved-places/:id: any of the fields; no defaults, so what is left out stays as it was. */
+/**
+ * PATCH /api/saved-places/:id: any of the fields; no defaults, so what is left out stays as it was.
+ * Unknown keys are refused (a misspelt field is an error, not a silent no-op).
+ */
 export const savedPlacePatchSchema = z
   .object({
     name: savedPlaceInputSchema.shape.name,
@@ -33,7 +36,8 @@ export const savedPlacePatchSchema = z
     form: z.enum(GROWING_FORMS),
     isHome: z.boolean(),
   })
-  .partial();
+  .partial()
+  .strict();
 export type SavedPlacePatch = z.infer<typeof savedPlacePatchSchema>;
 
 /** POST and PATCH answer with the place as saved. */

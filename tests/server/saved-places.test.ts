@@ -23,9 +23,12 @@ describe('/api/saved-places', () => {
     // Fields left out of a PATCH keep their values (no defaults sneak in).
     expect(patched.body.place).toMatchObject({ name: 'Allotment plot 7', form: 'container', isHome: false });
 
-    // An empty patch, or one of unknown keys only, changes nothing.
+    // An empty patch changes nothing.
     expect((await grower.patch(`/api/saved-places/${id}`).send({})).body.place).toMatchObject({ name: 'Allotment plot 7' });
-    expect((await grower.patch(`/api/saved-places/${id}`).send({ colour: 'red' })).status).toBe(200);
+    // A misspelt or unknown field is refused, naming it, rather than silently ignored.
+    const unknown = await grower.patch(`/api/saved-places/${id}`).send({ colour: 'red' });
+    expect(unknown.status).toBe(400);
+    expect(unknown.body.error.message + JSON.stringify(unknown.body.error.fields)).toContain('colour');
 
     expect((await grower.get('/api/saved-places')).body.places.map((p: { id: number }) => p.id)).toEqual([id]);
     expect((await grower.delete(`/api/saved-places/${id}`)).status).toBe(204);
