@@ -5,7 +5,8 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { integrityCheck } from '../../../server/backup/backup';
 import { DEMO_PASSWORD } from '../../../server/seed/demo-scenario';
-import { multipartBody, sendRequest, startServerProcess, type ServerProcess } from './server-process';
+import { startServerProcess, type ServerProcess } from '../../helpers/server-process';
+import { multipartBody, sendRequest } from './server-process';
 
 /*
  * Kill the production server (SIGKILL: no shutdown code runs) in the middle of a large write, then
@@ -18,7 +19,7 @@ import { multipartBody, sendRequest, startServerProcess, type ServerProcess } fr
  */
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-faults-'));
-const env = { SYCONIUM_DB: path.join(dir, 'faults.db'), SYCONIUM_UPLOADS: path.join(dir, 'uploads') };
+const env = { SYCONIUM_DB: path.join(dir, 'faults.db'), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'fault-test-secret' };
 let server: ServerProcess | undefined;
 
 beforeAll(async () => {
