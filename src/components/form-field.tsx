@@ -1,13 +1,10 @@
 import { useId, type InputHTMLAttributes, type ReactNode } from 'react';
 
-interface FormFieldProps extends InputHTMLAttributes<HTMLInputElement> {
-  label: string;
-  hint?: ReactNode;
-  error?: string;
-}
+export const inputClass =
+  'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600';
 
-/** A labelled input with a hint under it and the field's error in plain words. */
-export function FormField({ label, hint, error, ...input }: FormFieldProps) {
+/** A labelled control with a hint under it and its error in plain words (for selects, text areas, groups). */
+export function Field({ label, hint, error, children }: { label: string; hint?: ReactNode; error?: string; children: (props: { id: string; 'aria-describedby'?: string; 'aria-invalid'?: true }) => ReactNode }) {
   const id = useId();
   const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
   return (
@@ -15,13 +12,7 @@ export function FormField({ label, hint, error, ...input }: FormFieldProps) {
       <label htmlFor={id} className="text-sm font-medium text-ink">
         {label}
       </label>
-      <input
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600"
-        {...input}
-      />
+      {children({ id, 'aria-describedby': describedBy, 'aria-invalid': error ? true : undefined })}
       {hint && (
         <p id={`${id}-hint`} className="text-xs text-ink/70">
           {hint}
@@ -33,5 +24,20 @@ export function FormField({ label, hint, error, ...input }: FormFieldProps) {
         </p>
       )}
     </div>
+  );
+}
+
+interface FormFieldProps extends InputHTMLAttributes<HTMLInputElement> {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+}
+
+/** A labelled input with a hint under it and the field's error in plain words. */
+export function FormField({ label, hint, error, ...input }: FormFieldProps) {
+  return (
+    <Field label={label} hint={hint} error={error}>
+      {(control) => <input className={inputClass} {...control} {...input} />}
+    </Field>
   );
 }

@@ -1,29 +1,5 @@
 import { useId, type ReactNode } from 'react';
 
-/** A labelled control with a hint under it and its error in plain words (for selects, text areas, groups). */
-export function Field({ label, hint, error, children }: { label: string; hint?: ReactNode; error?: string; children: (props: { id: string; 'aria-describedby'?: string; 'aria-invalid'?: true }) => ReactNode }) {
-  const id = useId();
-  const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-medium text-ink">
-        {label}
-      </label>
-      {children({ id, 'aria-describedby': describedBy, 'aria-invalid': error ? true : undefined })}
-      {hint && (
-        <p id={`${id}-hint`} className="text-xs text-ink/70">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
 /** A group of radio buttons with a legend, a hint and an error. */
 export function ChoiceGroup({ legend, hint, error, children }: { legend: string; hint?: ReactNode; error?: string; children: ReactNode }) {
   const id = useId();
@@ -44,9 +20,6 @@ export function ChoiceGroup({ legend, hint, error, children }: { legend: string;
     </fieldset>
   );
 }
-
-export const inputClass =
-  'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600';
 
 export const choiceClass =
   'flex cursor-pointer items-center gap-2 rounded-md border border-fig-200 bg-white px-3 py-1.5 text-sm has-[:checked]:border-fig-600 has-[:checked]:bg-fig-50 has-[:checked]:text-fig-700';

@@ -6,7 +6,7 @@ import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, REPORT_STATUSES, type Crop, typ
 import type { ReportListItem, ReportListQuery, ReportSort } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
-import { inputClass } from './fields';
+import { inputClass } from '../../../components/form-field';
 
 const column = createColumnHelper<ReportListItem>();
 const STATUS_LABEL = { published: 'Published', draft: 'Draft', hidden: 'Hidden by an editor' } as const;

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useId, useState } from 'react';
 import { placeSearchQueries } from '../../places/api';
-import { inputClass } from './fields';
+import { inputClass } from '../../../components/form-field';
 
 /** Find a town by name (the server's own gazetteer) and move the location there, to refine afterwards. */
 export function PlaceSearch({ onPick }: { onPick: (place: { lat: number; lon: number; name: string }) => void }) {

@@ -5,7 +5,7 @@ import type { Report } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
 import { useDeleteReport, useFlagReport, useHideReport, usePublishReport, useRestoreReport } from '../api';
-import { inputClass } from './fields';
+import { inputClass } from '../../../components/form-field';
 import { NearbyEvidence } from './nearby-evidence';
 import { ReportMapSnippet } from './report-map-snippet';
 

@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useEffect, useId, useState } from 'react';
 import { LABELS } from '@shared/domain/codes';
 import { reportQueries } from '../api';
-import { inputClass } from './fields';
+import { inputClass } from '../../../components/form-field';
 
 interface VarietyPickerProps {
   varietyId: number | null;

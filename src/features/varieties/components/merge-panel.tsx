@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import type { CatalogueEntry } from '@shared/schemas/varieties';
 import { Button } from '../../../components/button';
-import { inputClass } from '../../reports/components/fields';
+import { inputClass } from '../../../components/form-field';
 import { useMergeVariety, varietyQueries } from '../api';
 
 /** Merge one entry into an accepted variety; says exactly what will move before it happens. */

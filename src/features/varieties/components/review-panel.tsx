@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { CatalogueEntry } from '@shared/schemas/varieties';
 import { Button } from '../../../components/button';
-import { inputClass } from '../../reports/components/fields';
+import { inputClass } from '../../../components/form-field';
 import { useAcceptVariety, useRejectVariety } from '../api';
 import { MergePanel } from './merge-panel';
 import { VarietyForm } from './variety-form';

@@ -4,9 +4,8 @@ import { Controller, useForm } from 'react-hook-form';
 import { FIG_TYPES, LABELS, RIPENING_CLASSES } from '@shared/domain/codes';
 import { varietyInputSchema, type Variety, type VarietyFormValues, type VarietyInput } from '@shared/schemas/varieties';
 import { Button } from '../../../components/button';
-import { FormField } from '../../../components/form-field';
 import { ApiError } from '../../../lib/api-client';
-import { Field, inputClass } from '../../reports/components/fields';
+import { Field, FormField, inputClass } from '../../../components/form-field';
 
 export type VarietyFormMode = 'create' | 'edit' | 'accept';
 

@@ -2,9 +2,8 @@ import { useState, type FormEvent } from 'react';
 import { closeRing, validateWaspGeometry } from '@shared/domain/wasp-geometry';
 import { waspAreaInputSchema, type WaspAreaGeometry, type WaspAreaRecord } from '@shared/schemas/wasp-areas';
 import { Button } from '../../../components/button';
-import { FormField } from '../../../components/form-field';
 import { ApiError } from '../../../lib/api-client';
-import { Field, inputClass } from '../../reports/components/fields';
+import { Field, FormField, inputClass } from '../../../components/form-field';
 
 export type OutlineMode = 'keep' | 'draw' | 'upload';
 
