@@ -7,6 +7,7 @@
 //    map pins, /api/atlas/near, report reads, and signed-in report posts from 50 concurrent writers.
 // 4. Prints per route: requests/s, median and p99 latency, errors and non-2xx answers, and any
 //    "database is locked" seen in answers or the server log; then checks the targets.
+// LOAD_PROFILE=dir profiles the server's CPU.
 // Bounded: LOAD_SECONDS (default 20) of traffic; a route missing from the server is skipped with a note.
 import autocannon from 'autocannon';
 import { spawn } from 'node:child_process';
@@ -80,7 +81,9 @@ check.sqlite.close();
 
 const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
-const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+// LOAD_PROFILE=/some/dir writes a V8 CPU profile of the server there (open it in Chrome's DevTools).
+const profileArgs = process.env.LOAD_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.LOAD_PROFILE}`] : [];
+const server = spawn(process.execPath, [...profileArgs, '--import', 'tsx', 'server/index.ts'], {
   env: {
     ...process.env,
     NODE_ENV: 'production',

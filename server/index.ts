@@ -11,10 +11,31 @@ const db = createDb(config.dbFile);
 migrateDb(db);
 await seedDatabase(db, config);
 
-const { mailer } = await startMail(config, db);
-createScheduler(db, appJobs({ db, mailer, appUrl: config.appUrl })).start();
+const mail = await startMail(config, db);
+const scheduler = createScheduler(db, appJobs({ db, mailer: mail.mailer, appUrl: config.appUrl }));
+scheduler.start();
 
-const app = createApp({ db, config, mailer });
-app.listen(config.port, config.host, () => {
+const app = createApp({ db, config, mailer: mail.mailer });
+const server = app.listen(config.port, config.host, () => {
   console.log(`Syconium is running at http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${config.port}/`);
 });
+
+/** SIGTERM/SIGINT: stop taking requests, let those in flight finish, then close the database cleanly. */
+let stopping = false;
+function shutdown(signal: string): void {
+  if (stopping) return;
+  stopping = true;
+  console.log(`${signal}: shutting down`);
+  scheduler.stop();
+  // Idle keep-alive connections would hold close() open; requests in flight still finish.
+  server.closeIdleConnections();
+  const forced = setTimeout(() => process.exit(1), 10_000);
+  forced.unref();
+  server.close(async () => {
+    await mail.close();
+    db.sqlite.close();
+    process.exit(0);
+  });
+}
+process.once('SIGTERM', () => shutdown('SIGTERM'));
+process.once('SIGINT', () => shutdown('SIGINT'));
