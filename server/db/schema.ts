@@ -162,6 +162,12 @@ export const reports = sqliteTable(
     hiddenReason: text('hidden_reason'),
     hiddenById: integer('hidden_by_id').references(() => users.id, { onDelete: 'set null' }),
     hiddenAt: text('hidden_at'),
+    /**
+     * When the report first became public: at creation for a verified grower, else when its draft
+     * was published. Hiding and restoring keep it (a restored report is not news). Null for drafts.
+     * A row inserted as non-draft without it takes created_at (trigger in the published-at migration).
+     */
+    publishedAt: text('published_at'),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
     updatedById: integer('updated_by_id').references(() => users.id, { onDelete: 'set null' }),
