@@ -157,7 +157,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
       const variety = resolveVariety(db, input, user.id);
       const treeId = resolveTree(db, user.id, input.treeId, input.newTreeLabel, variety.name);
       const now = new Date().toISOString();
-      const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, createdAt: now, updatedAt: now, updatedById: user.id });
+      const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
       recordAudit(db, { actorId: user.id, action: 'report.create', entityType: 'report', entityId: created.id, after: created });
       return created;
     });
@@ -220,7 +220,9 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     if (before.status !== 'draft') throw new HttpError(409, 'not_a_draft', 'Only a draft can be published');
     if (!user.emailVerified) throw new HttpError(403, 'email_unverified', 'Verify your e-mail address first; then your drafts can be published');
     const after = db.transaction(() => {
-      const updated = updateReportRow(db, id, { status: 'published', updatedAt: new Date().toISOString(), updatedById: user.id });
+      const now = new Date().toISOString();
+      // Published now, so the next nearby digest includes it although it was written earlier.
+      const updated = updateReportRow(db, id, { status: 'published', publishedAt: before.publishedAt ?? now, updatedAt: now, updatedById: user.id });
       recordAudit(db, { actorId: user.id, action: 'report.publish', entityType: 'report', entityId: id, before: { status: before.status }, after: { status: updated.status } });
       return updated;
     });
@@ -252,6 +254,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     const before = visibleReport(id, editor);
     if (before.status !== 'hidden') throw new HttpError(409, 'not_hidden', 'Only a hidden report can be restored');
     const after = db.transaction(() => {
+      // publishedAt stays as it was: a restored report was public before, so no digest announces it again.
       const updated = updateReportRow(db, id, { status: 'published', hiddenReason: null, hiddenById: null, hiddenAt: null, updatedAt: new Date().toISOString(), updatedById: editor.id });
       recordAudit(db, { actorId: editor.id, action: 'report.restore', entityType: 'report', entityId: id, before: { status: 'hidden', hiddenReason: before.hiddenReason }, after: { status: 'published' } });
       return updated;
@@ -389,7 +392,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
         let treeId = treeIds.get(key) ?? findTreeByLabel(db, user.id, label);
         if (treeId === undefined) treeId = resolveTree(db, user.id, null, label, label);
         treeIds.set(key, treeId);
-        const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, createdAt: now, updatedAt: now, updatedById: user.id });
+        const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
         recordAudit(db, { actorId: user.id, action: 'report.import', entityType: 'report', entityId: created.id, after: created });
         return created.id;
       });
