@@ -77,15 +77,18 @@ export interface NearbyRipening {
   crop: Crop;
   form: GrowingForm;
   firstRipeDate: string | null;
-  createdAt: string;
+  publishedAt: string;
   varietyName: string | null;
   proposedVarietyName: string | null;
   distanceKm: number;
 }
 
 /**
- * Published 'ripened' reports created in (since, until] within radiusKm of a point, other growers'
- * only: the R*Tree narrows to bounding boxes, then the exact great-circle distance decides.
+ * Published 'ripened' reports that became public in (since, until] within radiusKm of a point,
+ * other growers' only: the R*Tree narrows to bounding boxes, then the exact great-circle distance
+ * decides. Publication time, not creation time: a draft written before the last digest and
+ * published after it is news in the next one, and a report restored after hiding keeps its first
+ * publication time, so it is never announced twice.
  */
 export function nearbyRipenedReports(db: Db, centre: LatLon, radiusKm: number, since: string, until: string, excludeUserId: number): NearbyRipening[] {
   const boxes = boundingBox(centre, radiusKm);
@@ -95,16 +98,16 @@ export function nearbyRipenedReports(db: Db, centre: LatLon, radiusKm: number, s
   );
   const rows = db.all<Omit<NearbyRipening, 'distanceKm'> & { lat: number; lon: number }>(sql`
     SELECT r.id, r.lat, r.lon, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.season, r.crop, r.form,
-           r.first_ripe_date AS firstRipeDate, r.created_at AS createdAt,
+           r.first_ripe_date AS firstRipeDate, r.published_at AS publishedAt,
            v.name AS varietyName, r.proposed_variety_name AS proposedVarietyName
     FROM reports_rtree t
     JOIN reports r ON r.id = t.id
     LEFT JOIN varieties v ON v.id = r.variety_id
     WHERE (${inBox})
       AND r.status = 'published' AND r.outcome = 'ripened'
-      AND r.created_at > ${since} AND r.created_at <= ${until}
+      AND r.published_at > ${since} AND r.published_at <= ${until}
       AND r.user_id <> ${excludeUserId}
-    ORDER BY r.created_at, r.id`);
+    ORDER BY r.published_at, r.id`);
   return rows
     .map(({ lat, lon, ...row }) => ({ ...row, distanceKm: distanceKm(centre, { lat, lon }) }))
     .filter((row) => row.distanceKm <= radiusKm);

@@ -22,8 +22,8 @@ function toItem(report: NearbyRipening, home: { name: string; lat: number; lon: 
 
 /**
  * The weekly nearby digest. Each active subscription whose last digest is a week old (or that
- * never had one) gets the published 'ripened' reports created within its radius of the home place
- * since then (a first digest looks back one week). A week with nothing new sends nothing but
+ * never had one) gets the 'ripened' reports published within its radius of the home place since
+ * then (a first digest looks back one week), by when they became public, not when they were written. A week with nothing new sends nothing but
  * still moves the window on. Growers without a home place are skipped until they save one.
  */
 export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise<{ sent: number; checked: number }> {
