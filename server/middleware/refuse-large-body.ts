@@ -16,3 +16,21 @@ export function refuseLargeJson(limitBytes: number): RequestHandler {
     next();
   };
 }
+
+/**
+ * Refuse a multipart upload whose declared length is over `limitBytes` (plus room for the form
+ * fields and multipart framing) with 413 before reading any of it, naming the limit under `field`.
+ * The connection is closed after the answer. A body without a declared length (chunked) is still
+ * cut off by multer's own fileSize limit.
+ */
+export function refuseLargeUpload(limitBytes: number, field: string, overheadBytes = 64 * 1024): RequestHandler {
+  return (req, res, next) => {
+    const declared = Number(req.get('content-length') ?? 0);
+    if (declared > limitBytes + overheadBytes) {
+      res.setHeader('Connection', 'close');
+      const message = `The file is larger than ${Math.round(limitBytes / 1024 / 1024)} MB, the most an upload may be`;
+      throw new HttpError(413, 'file_too_large', message, { [field]: [message] });
+    }
+    next();
+  };
+}

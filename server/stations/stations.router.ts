@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { stationDetailSchema, stationListSchema, stationUploadFieldsSchema } from '../../shared/schemas/stations';
 import type { Db } from '../db/client';
 import { HttpError, notFound } from '../lib/http-error';
+import { refuseLargeUpload } from '../middleware/refuse-large-body';
 import { requireRole } from '../middleware/require-role';
 import { computeStationData } from './station-import';
 import { deleteStation, findStationDetail, listStations, saveStation } from './stations.repo';
@@ -15,13 +16,24 @@ export const STATION_FILE_LIMIT_BYTES = 25 * 1024 * 1024;
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: STATION_FILE_LIMIT_BYTES, files: 1, fields: 12 } });
 
-/** multer's own errors (too large, wrong field) become 400s that name the field. */
+/** A declared length over the limit is refused unread; a chunked body is cut off at the limit by multer. */
+const refuseLargeFile = refuseLargeUpload(STATION_FILE_LIMIT_BYTES, 'file');
+
+/**
+ * multer's own errors become answers that name the field: 413 for a file over the limit (a body
+ * sent chunked, without a length to refuse it by early; multer reads and discards the rest first,
+ * and the server's request timeout bounds that), 400 for anything else.
+ */
 const receiveFile: RequestHandler = (req, res, next) => {
   upload.single('file')(req, res, (err: unknown) => {
     if (!err) return next();
     if (err instanceof multer.MulterError) {
-      const message = err.code === 'LIMIT_FILE_SIZE' ? `The file is larger than ${STATION_FILE_LIMIT_BYTES / 1024 / 1024} MB` : `The upload was not accepted (${err.message})`;
-      return next(new HttpError(err.code === 'LIMIT_FILE_SIZE' ? 413 : 400, 'invalid_upload', message, { [err.field ?? 'file']: [message] }));
+      if (err.code === 'LIMIT_FILE_SIZE') {
+        const message = `The file is larger than ${STATION_FILE_LIMIT_BYTES / 1024 / 1024} MB, the most an upload may be`;
+        return next(new HttpError(413, 'file_too_large', message, { [err.field ?? 'file']: [message] }));
+      }
+      const message = `The upload was not accepted (${err.message})`;
+      return next(new HttpError(400, 'invalid_upload', message, { [err.field ?? 'file']: [message] }));
     }
     next(err);
   });
@@ -42,7 +54,7 @@ export function createStationsRouter({ db }: { db: Db }): Router {
     res.json(stationDetailSchema.parse(detail));
   });
 
-  router.post('/upload', requireRole('editor'), receiveFile, (req, res) => {
+  router.post('/upload', requireRole('editor'), refuseLargeFile, receiveFile, (req, res) => {
     const fields = stationUploadFieldsSchema.parse(req.body ?? {});
     if (!req.file || req.file.size === 0) throw new HttpError(400, 'invalid_input', 'Please choose a CSV file', { file: ['Please choose a CSV file'] });
     const data = computeStationData(req.file.buffer.toString('utf8'), fields.unit, fields.lat);

@@ -308,7 +308,7 @@ describe('oversized bodies and uploads are refused early', () => {
   );
 
   /** Declare a huge body, send only its first kilobyte: the answer must come before the rest. */
-  function declareHuge(pathname: string, contentType: string, declared: number, cookie?: string): Promise<{ status: number; body: string }> {
+  function declareHuge(pathname: string, contentType: string, declared: number, cookie?: string): Promise<{ status: number; body: string; headers: http.IncomingHttpHeaders }> {
     return new Promise((resolve, reject) => {
       const req = http.request(`${base}${pathname}`, {
         method: 'POST',
@@ -319,12 +319,48 @@ describe('oversized bodies and uploads are refused early', () => {
         res.on('data', (c) => (body += c));
         res.on('end', () => {
           req.destroy();
-          resolve({ status: res.statusCode ?? 0, body });
+          resolve({ status: res.statusCode ?? 0, body, headers: res.headers });
         });
       });
       req.on('error', reject);
       req.setTimeout(10_000, () => reject(new Error(`${pathname}: no answer within 10 s although the body was too large`)));
       req.write(Buffer.alloc(1024, 'a'));
+    });
+  }
+
+  /** Send a multipart upload chunked (no declared length, so nothing to refuse it by early) with a file of `fileBytes`. */
+  function streamChunked(pathname: string, cookie: string, fields: Record<string, string>, fileBytes: number): Promise<{ status: number; body: string }> {
+    return new Promise((resolve, reject) => {
+      const boundary = 'syconium-chunked-test';
+      const req = http.request(`${base}${pathname}`, {
+        method: 'POST',
+        headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'transfer-encoding': 'chunked', 'x-syconium-request': '1', cookie },
+      });
+      let sent = 0;
+      let answered = false;
+      const parts = Object.entries(fields).map(([name, value]) => `--${boundary}\r\nContent-Disposition: form-data; name="${name}"\r\n\r\n${value}\r\n`);
+      req.write(`${parts.join('')}--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.csv"\r\nContent-Type: text/csv\r\n\r\n`);
+      const chunk = Buffer.alloc(256 * 1024, '1');
+      const pump = (): void => {
+        while (!answered && !req.destroyed && sent < fileBytes) {
+          sent += chunk.length;
+          if (!req.write(chunk)) return void req.once('drain', pump);
+        }
+        if (!answered && !req.destroyed) req.end(`\r\n--${boundary}--\r\n`);
+      };
+      req.on('response', (res) => {
+        answered = true;
+        let body = '';
+        res.on('data', (c) => (body += c));
+        res.on('end', () => {
+          req.destroy();
+          resolve({ status: res.statusCode ?? 0, body });
+        });
+      });
+      // Once answered, the server may close the connection under the rest of the body.
+      req.on('error', (error) => answered || reject(error));
+      req.setTimeout(60_000, () => reject(new Error(`${pathname}: no answer within 60 s to an oversized chunked upload`)));
+      pump();
     });
   }
 
@@ -353,11 +389,22 @@ describe('oversized bodies and uploads are refused early', () => {
     expect(csv.status).toBe(413);
   }, 30_000);
 
-  it('a station file over its limit gets 413', async () => {
-    const res = await world.agents.editor.post('/api/stations/upload').field('name', 'Too big').field('lat', '1').field('lon', '1').attach('file', Buffer.alloc(26 * 1024 * 1024, '1'), 'big.csv');
+  it('a station file declared over its limit gets 413 naming the limit before the file is read', async () => {
+    const before = dataFingerprint(ctx.db.sqlite);
+    const res = await declareHuge('/api/stations/upload', 'multipart/form-data; boundary=x', 200 * 1024 * 1024, await cookieOf('editor'));
     expect(res.status).toBe(413);
-    expect(res.body.error.fields.file).toBeDefined();
-  }, 60_000);
+    expect(res.headers.connection).toBe('close');
+    expect(JSON.parse(res.body).error.fields.file[0]).toContain('25 MB');
+    expect(dataFingerprint(ctx.db.sqlite)).toBe(before);
+  }, 30_000);
+
+  it('a station file sent chunked (no declared length) over its limit is still refused with 413 by the upload limit', async () => {
+    const before = dataFingerprint(ctx.db.sqlite);
+    const res = await streamChunked('/api/stations/upload', await cookieOf('editor'), { name: 'Too big', lat: '1', lon: '1' }, 26 * 1024 * 1024);
+    expect(res.status).toBe(413);
+    expect(JSON.parse(res.body).error.fields.file[0]).toContain('25 MB');
+    expect(dataFingerprint(ctx.db.sqlite)).toBe(before);
+  }, 90_000);
 });
 
 describe('path traversal', () => {
