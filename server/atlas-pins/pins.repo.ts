@@ -1,4 +1,4 @@
-import { and, count, desc, eq, gte, lte, max, sql, type SQL } from 'drizzle-orm';
+import { and, count, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
 import type { CellQuery, PinFilters, PinReportSummary } from '../../shared/schemas/pins';
 import type { Db } from '../db/client';
 import { reports, varieties } from '../db/schema';
@@ -28,26 +28,6 @@ export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
   if (filters.figType) query.leftJoin(varieties, eq(varieties.id, reports.varietyId));
   const rows = query.where(and(...filterConditions(filters))).groupBy(reports.gridLat, reports.gridLon).all();
   return rows.map((r) => ({ gridLat: r.gridLat, gridLon: r.gridLon, reports: r.reports, reportId: r.reports === 1 ? r.firstId : null }));
-}
-
-/**
- * Changes whenever a report or variety is added, edited or removed: the pin indexes are rebuilt
- * when it does. Counting is included so a deletion of the newest row is seen too.
- */
-export function pinDataVersion(db: Db): string {
-  const r = db.select({ n: count(), updated: max(reports.updatedAt), maxId: max(reports.id) }).from(reports).get()!;
-  const v = db.select({ n: count(), updated: max(varieties.updatedAt) }).from(varieties).get()!;
-  return `${r.n}:${r.maxId ?? 0}:${r.updated ?? ''}|${v.n}:${v.updated ?? ''}`;
-}
-
-/**
- * A cheap stamp that moves on any write to the database (by this connection or another one): the
- * full version above is only recomputed when it has moved.
- */
-export function writeStamp(db: Db): string {
-  const dataVersion = db.sqlite.pragma('data_version', { simple: true }) as number;
-  const changes = (db.sqlite.prepare('SELECT total_changes() AS n').get() as { n: number }).n;
-  return `${dataVersion}:${changes}`;
 }
 
 const CELL_EPSILON = 1e-6;

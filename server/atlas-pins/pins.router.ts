@@ -2,7 +2,8 @@ import { Router } from 'express';
 import { cellQuerySchema, cellResponseSchema, pinsQuerySchema, pinsResponseSchema, type PinFilters } from '../../shared/schemas/pins';
 import type { Db } from '../db/client';
 import { buildPinIndex, type PinIndex } from './pin-index';
-import { listCellReports, listPinCells, pinDataVersion, writeStamp } from './pins.repo';
+import { atlasDataVersion } from '../db/data-version';
+import { listCellReports, listPinCells } from './pins.repo';
 
 const MAX_CACHED_FILTER_SETS = 24;
 
@@ -13,39 +14,20 @@ export function filterKey(filters: PinFilters): string {
 }
 
 /**
- * A build (or version check) slower than this marks a large atlas: its pins may then lag new
- * reports by up to `MAX_STALE_MS`, so a stream of writes does not rebuild the index for every
- * read. A small atlas (the demo, the tests) is always answered fresh.
+ * A build slower than this marks a large atlas: its pins may then lag new reports by up to
+ * `MAX_STALE_MS`, so a stream of writes does not rebuild the index for every read. A small atlas
+ * (the demo, the tests) is always answered fresh.
  */
 export const MAX_STALE_MS = 5_000;
 const SLOW_MS = 50;
 
-/**
- * Pin indexes kept in memory per filter set, valid for one data version. The data version is
- * only recomputed after some write has happened, so a quiet database answers from memory alone.
- */
+/** Pin indexes kept in memory per filter set, valid for one atlas data version (an O(1) read). */
 export function createPinCache(db: Db) {
-  let stamp = '';
-  let version = '';
-  let versionAt = 0;
-  let versionTookMs = 0;
   const indexes = new Map<string, { version: string; index: PinIndex; builtAt: number; tookMs: number }>();
-
-  const currentVersion = (now: number): string => {
-    const latest = writeStamp(db);
-    if (latest !== stamp && (versionTookMs < SLOW_MS || now - versionAt >= MAX_STALE_MS)) {
-      const started = performance.now();
-      version = pinDataVersion(db);
-      versionTookMs = performance.now() - started;
-      versionAt = now;
-      stamp = latest;
-    }
-    return version;
-  };
 
   return {
     get(filters: PinFilters, now = Date.now()): { version: string; index: PinIndex } {
-      const v = currentVersion(now);
+      const v = String(atlasDataVersion(db));
       const key = filterKey(filters);
       const hit = indexes.get(key);
       if (hit && (hit.version === v || (hit.tookMs >= SLOW_MS && now - hit.builtAt < MAX_STALE_MS))) {
