@@ -106,7 +106,8 @@ export function AppShell() {
         )}
       </header>
       <VerifyBanner />
-      <main className="relative min-h-0 flex-1">
+      {/* Pages scroll inside themselves; clipping here stops a visually hidden table caption from widening the whole page on a phone. */}
+      <main className="relative min-h-0 flex-1 overflow-hidden">
         <Outlet />
       </main>
     </div>

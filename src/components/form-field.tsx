@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode } from 'react';
+import { useEffect, useId, useRef, type InputHTMLAttributes, type ReactNode, type RefObject } from 'react';
 
 export const inputClass =
   'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600';
@@ -40,4 +40,23 @@ export function FormField({ label, hint, error, ...input }: FormFieldProps) {
       {(control) => <input className={inputClass} {...control} {...input} />}
     </Field>
   );
+}
+
+/**
+ * After a submit that failed the checks, move focus to the first field marked invalid in page order
+ * (an input with aria-invalid, or the first choice of a radio group marked data-invalid), so the
+ * grower lands on the first problem instead of wherever the form library registered a field first.
+ * Pass react-hook-form's submitCount and isSubmitting; each submit moves focus once, when its checks end.
+ */
+export function useFocusFirstInvalid(formRef: RefObject<HTMLFormElement | null>, { submitCount, isSubmitting, hasErrors }: { submitCount: number; isSubmitting: boolean; hasErrors: boolean }) {
+  const handled = useRef(0);
+  useEffect(() => {
+    if (isSubmitting || submitCount === handled.current) return;
+    handled.current = submitCount;
+    if (!hasErrors) return;
+    const first = formRef.current?.querySelector<HTMLElement>('[aria-invalid="true"], fieldset[data-invalid]');
+    const target = first?.matches('fieldset') ? first.querySelector<HTMLElement>('input, select, textarea') : first;
+    target?.focus();
+    target?.scrollIntoView?.({ block: 'center' });
+  }, [formRef, submitCount, isSubmitting, hasErrors]);
 }

@@ -4,7 +4,7 @@ import { useId, type ReactNode } from 'react';
 export function ChoiceGroup({ legend, hint, error, children }: { legend: string; hint?: ReactNode; error?: string; children: ReactNode }) {
   const id = useId();
   return (
-    <fieldset className="flex flex-col gap-1" aria-describedby={hint ? `${id}-hint` : undefined}>
+    <fieldset className="flex flex-col gap-1" aria-describedby={[hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined} data-invalid={error ? true : undefined}>
       <legend className="mb-1 text-sm font-medium text-ink">{legend}</legend>
       <div className="flex flex-wrap gap-2">{children}</div>
       {hint && (
@@ -13,7 +13,7 @@ export function ChoiceGroup({ legend, hint, error, children }: { legend: string;
         </p>
       )}
       {error && (
-        <p role="alert" className="text-sm text-red-700">
+        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
           {error}
         </p>
       )}

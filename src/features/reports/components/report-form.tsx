@@ -1,15 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
-import { lazy, Suspense, useState } from 'react';
+import { lazy, Suspense, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, PLANT_ORIGINS } from '@shared/domain/codes';
 import { NOTES_MAX, PHOTOS_PER_REPORT, createReportInputSchema, type CreateReportInput, type CreateReportValues, type Report } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
-import { FormField } from '../../../components/form-field';
 import { ApiError } from '../../../lib/api-client';
 import { reportQueries, useCreateReport, useDeletePhoto, useUpdateReport, useUploadPhotos } from '../api';
 import { ChoiceGroup, FormSection, choiceClass } from './fields';
-import { Field, inputClass } from '../../../components/form-field';
+import { Field, FormField, inputClass, useFocusFirstInvalid } from '../../../components/form-field';
 import { PhotoPicker, checkPhotoFiles } from './photo-picker';
 import { PlaceSearch } from './place-search';
 import { VarietyPicker } from './variety-picker';
@@ -94,9 +93,14 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
   const form = useForm<CreateReportInput, unknown, CreateReportValues>({
     resolver: zodResolver(createReportInputSchema),
     defaultValues: report ? valuesOf(report) : emptyValues(),
+    // The variety picker is not a registered field: focus goes to the first problem on the page instead.
+    shouldFocusError: false,
   });
   const { register, setValue, watch, formState } = form;
   const { errors } = formState;
+  const formRef = useRef<HTMLFormElement>(null);
+  const errorCount = Object.keys(errors).length;
+  useFocusFirstInvalid(formRef, { submitCount: formState.submitCount, isSubmitting: formState.isSubmitting, hasErrors: errorCount > 0 });
   const trees = useQuery(reportQueries.trees());
   const create = useCreateReport();
   const update = useUpdateReport();
@@ -171,7 +175,7 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
   const busy = formState.isSubmitting || create.isPending || update.isPending || upload.isPending;
 
   return (
-    <form noValidate className="flex flex-col gap-6" onSubmit={onSubmit} aria-label={editing ? 'Edit report' : 'New report'}>
+    <form ref={formRef} noValidate className="flex flex-col gap-6" onSubmit={onSubmit} aria-label={editing ? 'Edit report' : 'New report'}>
       <FormSection title="Which tree" intro="One report covers one tree (or one planting) for one season and one crop. Reports of the same tree over the years count as one tree in the atlas.">
         <Field label="Tree" hint={editing ? 'Move this report to another of your trees, or to a new one.' : 'Pick a tree you reported before to fill in what stays the same, or start a new one.'} error={errors.treeId?.message}>
           {(props) => (
@@ -346,7 +350,11 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
         <Button type="submit" disabled={busy}>
           {busy ? (progress !== null ? 'Uploading photos…' : 'Saving…') : editing ? 'Save changes' : 'Post report'}
         </Button>
-        {Object.keys(errors).length > 0 && <span className="text-sm text-red-700">Please check the fields marked above.</span>}
+        {errorCount > 0 && (
+          <span className="text-sm text-red-700">
+            {errorCount === 1 ? 'One field needs' : `${errorCount} fields need`} a look: see the messages in red above.
+          </span>
+        )}
       </div>
     </form>
   );

@@ -88,6 +88,7 @@ export function VarietyPicker({ varietyId, varietyName, proposedName, onChoose, 
         aria-expanded={results.length > 0}
         aria-controls={`${id}-results`}
         aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-hint ${id}-error` : `${id}-hint`}
         autoComplete="off"
         placeholder="Type a name or a synonym"
         value={text}
@@ -112,9 +113,9 @@ export function VarietyPicker({ varietyId, varietyName, proposedName, onChoose, 
         </ul>
       )}
       {debounced && search.isSuccess && results.length === 0 && <p className="text-sm text-ink/70">No listed variety matches “{debounced}”.</p>}
-      <p className="text-xs text-ink/70">Pick the name on the label or from the person who gave you the plant. Unsure? Choose the closest match and say so in the notes.</p>
+      <p id={`${id}-hint`} className="text-xs text-ink/70">Pick the name on the label or from the person who gave you the plant. Unsure? Choose the closest match and say so in the notes.</p>
       {error && (
-        <p role="alert" className="text-sm text-red-700">
+        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
           {error}
         </p>
       )}
