@@ -32,8 +32,9 @@ const emptyToUndefined = (value: unknown) => (typeof value === 'string' && value
 export const stationUploadFieldsSchema = z.object({
   name: z.string({ message: 'name is required' }).trim().min(1, { message: 'name is required' }).max(120, { message: 'name must be at most 120 characters' }),
   code: z.preprocess(emptyToUndefined, z.string().trim().max(40, { message: 'code must be at most 40 characters' }).optional()),
-  lat: z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' }),
-  lon: z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' }),
+  // An empty field is missing, not 0 (z.coerce.number alone turns '' into 0, a station off West Africa).
+  lat: z.preprocess(emptyToUndefined, z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' })),
+  lon: z.preprocess(emptyToUndefined, z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' })),
   elevationM: z.preprocess(
     emptyToUndefined,
     z.coerce.number({ message: 'elevationM must be a number' }).min(-450, { message: 'elevationM must be at least -450' }).max(9000, { message: 'elevationM must be at most 9000' }).optional(),

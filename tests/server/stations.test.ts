@@ -111,6 +111,10 @@ describe('station upload', () => {
     const res = await upload(editor, 'date,tmin_c\n2020-01-01,-3', { name: '', lat: '91', lon: 'east', unit: 'K' });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['lat', 'lon', 'name', 'unit']);
+    // Empty coordinates are missing, not 0.
+    const empty = await upload(editor, 'date,tmin_c\n2020-01-01,-3', { name: 'No place', lat: '', lon: ' ' });
+    expect(empty.status).toBe(400);
+    expect(Object.keys(empty.body.error.fields).sort()).toEqual(['lat', 'lon']);
     const noFile = await editor.post('/api/stations/upload').field('name', 'X').field('lat', '1').field('lon', '1');
     expect(noFile.status).toBe(400);
     expect(noFile.body.error.fields).toHaveProperty('file');
