@@ -1,7 +1,7 @@
 import type { Statement } from 'better-sqlite3';
-import type { Crop, GrowingForm, Outcome } from '../../shared/domain/codes';
+import type { GrowingForm } from '../../shared/domain/codes';
 import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
-import type { EvidenceReport } from '../../shared/domain/ripening-stats';
+import type { TreeEvidence } from '../../shared/domain/ripening-stats';
 import type { VarietyInfo } from '../../shared/domain/evidence';
 import type { StationSeason } from '../../shared/domain/season-estimate';
 import { stationsInBoxes } from '../stations/stations.repo';
@@ -12,31 +12,24 @@ import type { Db } from '../db/client';
  * distance. The numbers themselves are computed by the pure functions in shared/domain.
  */
 
-/** A report near the point, as the engine reads it, with the frost-free days its grower reported. */
-export type NearReport = EvidenceReport & { frostSeasonDays: number | null };
+/** A tree row near the point (see TreeEvidence), with its reports' own frost-free seasons as 'season:days' pairs. */
+export type NearTree = TreeEvidence & { frostSeasons: string | null };
 
-type ReportTuple = [number, number, number, number, Crop, GrowingForm, Outcome, number, number, number, number | null, number | null, number | null];
+type TreeTuple = [number, number, number, number, GrowingForm, number, number, number, number, number, number, string | null, string | null, string | null];
 
-// Only published reports of accepted varieties count. CROSS JOIN keeps the R*Tree as the outer
-// loop (SQLite does not reorder it), so the query never walks the reports table itself.
-const NEAR_REPORTS_SQL = `
-  SELECT r.id, r.tree_id, r.user_id, r.variety_id, r.crop, r.form, r.outcome, r.season, r.lat, r.lon,
-         CAST(strftime('%j', r.first_ripe_date) AS INTEGER),
-         CAST(strftime('%j', r.spring_frost_date) AS INTEGER),
-         CAST(julianday(r.fall_frost_date) - julianday(r.spring_frost_date) - 1 AS INTEGER)
-    FROM reports_rtree t
-    CROSS JOIN reports r ON r.id = t.id
-    CROSS JOIN varieties v ON v.id = r.variety_id
-   WHERE t.min_lat <= ? AND t.max_lat >= ? AND t.min_lon <= ? AND t.max_lon >= ?
-     AND r.status = 'published' AND v.status = 'accepted'`;
+// tree_evidence holds published reports only (its triggers see to that); the variety's status is
+// checked against the catalogue in memory. CROSS JOIN keeps the R*Tree as the outer loop (SQLite
+// does not reorder it), so the query never walks the table itself.
+const NEAR_TREES_SQL = `
+  SELECT e.id, e.tree_id, e.user_id, e.variety_id, e.form, e.lat, e.lon, e.reports, e.ripened, e.breba_reports, e.breba_ripened,
+         e.first_ripe_doys, e.frost_to_ripe_days, e.frost_seasons
+    FROM tree_evidence_rtree t
+    CROSS JOIN tree_evidence e ON e.id = t.id
+   WHERE t.min_lat <= ? AND t.max_lat >= ? AND t.min_lon <= ? AND t.max_lon >= ?`;
 
-const ALL_REPORTS_SQL = `
-  SELECT r.id, r.tree_id, r.user_id, r.variety_id, r.crop, r.form, r.outcome, r.season, 0, 0,
-         CAST(strftime('%j', r.first_ripe_date) AS INTEGER),
-         CAST(strftime('%j', r.spring_frost_date) AS INTEGER),
-         NULL
-    FROM reports r
-   WHERE r.variety_id = ? AND r.status = 'published'`;
+const ALL_TREES_SQL = `
+  SELECT 0, tree_id, user_id, variety_id, form, 0, 0, reports, ripened, breba_reports, breba_ripened, NULL, frost_to_ripe_days, NULL
+    FROM tree_evidence ORDER BY variety_id`;
 
 const statementCache = new WeakMap<Db, Map<string, Statement>>();
 
@@ -53,50 +46,65 @@ function statement(db: Db, sql: string, raw = false): Statement {
   return prepared;
 }
 
-function toReport(row: ReportTuple, distance: number): NearReport {
+const NO_NUMBERS: number[] = [];
+
+/** "230,241" -> [230, 241] (SQLite's group_concat of integers). */
+function numbers(list: string | null): number[] {
+  if (list === null) return NO_NUMBERS;
+  const parts = list.split(',');
+  const out = new Array<number>(parts.length);
+  for (let i = 0; i < parts.length; i++) out[i] = +parts[i]!;
+  return out;
+}
+
+function toTree(row: TreeTuple, distance: number): NearTree {
   return {
-    reportId: row[0],
     treeId: row[1],
     userId: row[2],
     varietyId: row[3],
-    crop: row[4],
-    form: row[5],
-    outcome: row[6],
-    season: row[7],
+    form: row[4],
     distanceKm: distance,
-    firstRipeDoy: row[10],
-    springFrostDoy: row[11],
-    frostSeasonDays: row[12],
+    reports: row[7],
+    ripened: row[8],
+    brebaReports: row[9],
+    brebaRipened: row[10],
+    mainFirstRipeDoys: numbers(row[11]),
+    mainFrostToRipeDays: numbers(row[12]),
+    frostSeasons: row[13],
   };
 }
 
-/** Published reports of accepted varieties within `radiusKm` of the point (exact great-circle distance). */
-export function reportsNear(db: Db, point: LatLon, radiusKm: number): NearReport[] {
-  const near = statement(db, NEAR_REPORTS_SQL, true);
-  const result: NearReport[] = [];
+/** Tree rows within `radiusKm` of the point (exact great-circle distance), from published reports. */
+export function treesNear(db: Db, point: LatLon, radiusKm: number): NearTree[] {
+  const near = statement(db, NEAR_TREES_SQL, true);
+  const result: NearTree[] = [];
   const boxes = boundingBox(point, radiusKm);
   // Boxes either side of the antimeridian only touch at +-180; a point there could be read twice.
   const seen = boxes.length > 1 ? new Set<number>() : null;
   for (const box of boxes) {
     // all() rather than iterate(): one call into SQLite instead of one per row.
-    for (const row of near.all(box.maxLat, box.minLat, box.maxLon, box.minLon) as ReportTuple[]) {
-      const distance = distanceKm(point, { lat: row[8], lon: row[9] });
+    for (const row of near.all(box.maxLat, box.minLat, box.maxLon, box.minLon) as TreeTuple[]) {
+      const distance = distanceKm(point, { lat: row[5], lon: row[6] });
       if (distance > radiusKm) continue;
       if (seen) {
         if (seen.has(row[0])) continue;
         seen.add(row[0]);
       }
-      result.push(toReport(row, distance));
+      result.push(toTree(row, distance));
     }
   }
   return result;
 }
 
-/** Every published report of each accepted variety, one variety at a time (its index). */
-export function* reportsByVariety(db: Db): Generator<{ varietyId: number; reports: NearReport[] }> {
-  const ids = statement(db, "SELECT id FROM varieties WHERE status = 'accepted' ORDER BY id", true).all() as [number][];
-  const ofVariety = statement(db, ALL_REPORTS_SQL, true);
-  for (const [varietyId] of ids) yield { varietyId, reports: (ofVariety.all(varietyId) as ReportTuple[]).map((row) => toReport(row, 0)) };
+/** Every tree row of every variety (for the variety's overall figures), grouped by variety. */
+export function treesByVariety(db: Db): Map<number, TreeEvidence[]> {
+  const byVariety = new Map<number, TreeEvidence[]>();
+  for (const row of statement(db, ALL_TREES_SQL, true).iterate() as IterableIterator<TreeTuple>) {
+    let list = byVariety.get(row[3]);
+    if (!list) byVariety.set(row[3], (list = []));
+    list.push(toTree(row, 0));
+  }
+  return byVariety;
 }
 
 /** Accepted varieties of the catalogue, by id (a small table: read on each request). */
@@ -112,15 +120,20 @@ export function acceptedVarieties(db: Db): Map<number, VarietyInfo> {
  * Growers' own frost-free seasons near the point: one per grower and season (a garden's frost does
  * not count again for each of its trees and crops).
  */
-export function reportFrostSeasons(reports: NearReport[]): { distanceKm: number; seasonDays: number }[] {
+export function reportFrostSeasons(trees: NearTree[]): { distanceKm: number; seasonDays: number }[] {
   const seen = new Set<string>();
   const seasons: { distanceKm: number; seasonDays: number }[] = [];
-  for (const r of reports) {
-    if (r.frostSeasonDays === null || r.frostSeasonDays <= 0 || r.frostSeasonDays > 366) continue;
-    const key = `${r.userId}:${r.season}`;
-    if (seen.has(key)) continue;
-    seen.add(key);
-    seasons.push({ distanceKm: r.distanceKm, seasonDays: r.frostSeasonDays });
+  for (const t of trees) {
+    if (t.frostSeasons === null) continue;
+    for (const pair of t.frostSeasons.split(',')) {
+      const [season, days] = pair.split(':');
+      const seasonDays = Number(days);
+      if (!(seasonDays > 0 && seasonDays <= 366)) continue;
+      const key = `${t.userId}:${season}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      seasons.push({ distanceKm: t.distanceKm, seasonDays });
+    }
   }
   return seasons;
 }

@@ -6,7 +6,7 @@ import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse }
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
 import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
-import { reportFrostSeasons, reportsNear, stationSeasonsNear, type NearReport } from './atlas.repo';
+import { reportFrostSeasons, stationSeasonsNear, treesNear, type NearTree } from './atlas.repo';
 import { cachedAcceptedVarieties, overallByVariety } from './overall-cache';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
@@ -28,20 +28,20 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
   router.get('/atlas/near', (req, res) => {
     const query = nearQuerySchema.parse(req.query);
     const point = { lat: query.lat, lon: query.lon };
-    const reports = reportsNear(db, point, query.radiusKm);
-    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(reports), radiusKm: query.radiusKm });
+    const trees = treesNear(db, point, query.radiusKm);
+    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm: query.radiusKm });
     const catalogue = cachedAcceptedVarieties(db);
     const overall = overallByVariety(db);
-    const byVariety = new Map<number, NearReport[]>();
-    for (const r of reports) {
-      let list = byVariety.get(r.varietyId);
-      if (!list) byVariety.set(r.varietyId, (list = []));
-      list.push(r);
+    const byVariety = new Map<number, NearTree[]>();
+    for (const t of trees) {
+      let list = byVariety.get(t.varietyId);
+      if (!list) byVariety.set(t.varietyId, (list = []));
+      list.push(t);
     }
     const varieties: VarietyEvidenceInput[] = [];
-    for (const [id, localReports] of byVariety) {
+    for (const [id, localTrees] of byVariety) {
       const variety = catalogue.get(id);
-      if (variety) varieties.push({ variety, localReports, overall: overall.get(id) ?? NO_OVERALL });
+      if (variety) varieties.push({ variety, localTrees, overall: overall.get(id) ?? NO_OVERALL });
     }
     const body: NearResponse = buildNearResponse({ point, radiusKm: query.radiusKm, form: query.form, season, wasp: waspAt(db, query.lat, query.lon), varieties });
     // Typed as NearResponse by the domain function; a runtime parse of this (the hot path) would
@@ -55,8 +55,8 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     const variety = cachedAcceptedVarieties(db).get(id);
     if (!variety) throw notFound('Variety');
     const point = { lat: query.lat, lon: query.lon };
-    const reports = reportsNear(db, point, query.radiusKm);
-    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(reports), radiusKm: query.radiusKm });
+    const trees = treesNear(db, point, query.radiusKm);
+    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm: query.radiusKm });
     const body = buildFitResponse({ variety, overall: overallByVariety(db).get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
     res.json(fitResponseSchema.parse(body));
   });

@@ -2,11 +2,11 @@ import { varietyOverall } from '../../shared/domain/ripening-stats';
 import type { Db } from '../db/client';
 import type { VarietyOverall } from '../../shared/domain/evidence';
 import type { VarietyInfo } from '../../shared/domain/evidence';
-import { acceptedVarieties, dataVersion, reportsByVariety } from './atlas.repo';
+import { acceptedVarieties, dataVersion, treesByVariety } from './atlas.repo';
 
 /**
  * Each variety's rate over all its reports everywhere, which local shares lean toward. It reads every
- * published report, so it is kept per database and recomputed only when the data changed. When one
+ * tree row (tree_evidence), so it is kept per database and recomputed only when the data changed. When one
  * computation is slow (a large atlas), a changed atlas is re-read at most every `MAX_STALE_MS`: the
  * overall rates may then lag new reports by that much.
  */
@@ -24,7 +24,7 @@ const cache = new WeakMap<Db, Entry>();
 
 export function computeOverall(db: Db): Map<number, VarietyOverall> {
   const overall = new Map<number, VarietyOverall>();
-  for (const { varietyId, reports } of reportsByVariety(db)) overall.set(varietyId, varietyOverall(reports));
+  for (const [varietyId, trees] of treesByVariety(db)) overall.set(varietyId, varietyOverall(trees));
   return overall;
 }
 

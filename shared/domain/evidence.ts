@@ -2,7 +2,7 @@ import type { FigType, GrowingForm, RipeningClass } from './codes';
 import type { FitResponse, NearResponse, SeasonEstimate } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
 import { RANKING_METHOD, rankVarieties, type RankInput } from './ranking';
-import { type EvidenceReport, adjustedShareMethod, tallyEvidence } from './ripening-stats';
+import { type TreeEvidence, adjustedShareMethod, tallyEvidence } from './ripening-stats';
 import { seasonFit } from './season-fit';
 
 /**
@@ -25,8 +25,8 @@ export type VarietyOverall = { share: number | null; neededDays: number | null; 
 
 export type VarietyEvidenceInput = {
   variety: VarietyInfo;
-  /** This variety's reports within the radius, each with its distance from the point. */
-  localReports: EvidenceReport[];
+  /** This variety's tree rows within the radius, each with its distance from the point. */
+  localTrees: TreeEvidence[];
   overall: VarietyOverall;
 };
 
@@ -41,7 +41,7 @@ export function buildVarietyEvidence(
   context: { localSeasonDays: number | null; waspEstablished: boolean; form: GrowingForm; headStartDays?: number; bandwidthKm?: number },
 ): RankInput {
   const { variety, overall } = input;
-  const tally = tallyEvidence(input.localReports, overall.share, { bandwidthKm: context.bandwidthKm });
+  const tally = tallyEvidence(input.localTrees, overall.share, { bandwidthKm: context.bandwidthKm });
   return {
     varietyId: variety.id,
     name: variety.name,
@@ -95,10 +95,10 @@ export function buildNearResponse(input: {
   const growers = new Set<number>();
   let reports = 0;
   for (const v of input.varieties) {
-    reports += v.localReports.length;
-    for (const r of v.localReports) {
-      trees.add(r.treeId);
-      growers.add(r.userId);
+    for (const row of v.localTrees) {
+      reports += row.reports;
+      trees.add(row.treeId);
+      growers.add(row.userId);
     }
   }
   return {
@@ -108,7 +108,7 @@ export function buildNearResponse(input: {
     season: input.season,
     wasp: input.wasp,
     totals: { reports, trees: trees.size, growers: growers.size },
-    varieties: rankVarieties(input.varieties.filter((v) => v.localReports.length > 0).map((v) => buildVarietyEvidence(v, context))),
+    varieties: rankVarieties(input.varieties.filter((v) => v.localTrees.length > 0).map((v) => buildVarietyEvidence(v, context))),
     method: `${adjustedShareMethod(bandwidthKm)} ${RANKING_METHOD}`,
   };
 }

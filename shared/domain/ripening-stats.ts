@@ -176,18 +176,77 @@ export function medianDaysFrostToRipe(reports: EvidenceReport[]): number | null 
 }
 
 /**
- * A variety's figures over ALL its reports (not only near the point): the overall share that the
+ * A tree's published reports of one variety at one place in one growing form, summed: the unit the
+ * server stores (table tree_evidence, kept by triggers) and reads for a radius, so a query touches
+ * about a third as many rows as there are reports. A tree usually has one such row; a tree moved
+ * from a container into the ground, or re-placed, has one per form or place. `groupTreeEvidence`
+ * is the same grouping in plain code; every figure below is defined on reports and computed on these.
+ */
+export type TreeEvidence = {
+  treeId: number;
+  userId: number;
+  varietyId: number;
+  form: GrowingForm;
+  /** Distance from the query point to this row's place, km. */
+  distanceKm: number;
+  reports: number;
+  ripened: number;
+  brebaReports: number;
+  brebaRipened: number;
+  /** Main crop only, one entry per report that gave a first-ripe date. */
+  mainFirstRipeDoys: number[];
+  /** Main crop only, one entry per report with both a spring frost and a first-ripe date (daysFrostToRipe). */
+  mainFrostToRipeDays: number[];
+};
+
+/** Reports grouped as the server groups them into tree_evidence rows (tree, variety, place ~ distance, form). */
+export function groupTreeEvidence(reports: EvidenceReport[]): TreeEvidence[] {
+  const rows = new Map<string, TreeEvidence>();
+  for (const r of reports) {
+    const key = `${r.treeId}|${r.userId}|${r.varietyId}|${r.distanceKm}|${r.form}`;
+    let row = rows.get(key);
+    if (!row) {
+      row = { treeId: r.treeId, userId: r.userId, varietyId: r.varietyId, form: r.form, distanceKm: r.distanceKm, reports: 0, ripened: 0, brebaReports: 0, brebaRipened: 0, mainFirstRipeDoys: [], mainFrostToRipeDays: [] };
+      rows.set(key, row);
+    }
+    const ok = r.outcome === 'ripened' ? 1 : 0;
+    row.reports++;
+    row.ripened += ok;
+    if (r.crop === 'breba') {
+      row.brebaReports++;
+      row.brebaRipened += ok;
+    } else {
+      if (r.firstRipeDoy !== null) row.mainFirstRipeDoys.push(r.firstRipeDoy);
+      const days = daysFrostToRipe(r);
+      if (days !== null) row.mainFrostToRipeDays.push(days);
+    }
+  }
+  return [...rows.values()];
+}
+
+/**
+ * A variety's figures over ALL its trees (not only near the point): the overall share that the
  * local share is shrunk toward, and the days from spring frost to first ripe main-crop fig of trees
  * in the ground, which season fit compares with the local season. `treesBehindNeed` counts the trees
- * that gave a days figure.
+ * that gave a days figure. Equal to summarizeShare(reports).share and medianDaysFrostToRipe of the
+ * main-crop, in-ground reports.
  */
-export function varietyOverall(reports: EvidenceReport[]): { share: number | null; neededDays: number | null; treesBehindNeed: number } {
-  const need = reports.filter((r) => r.crop === 'main' && r.form === 'ground' && daysFrostToRipe(r) !== null);
-  return {
-    share: summarizeShare(reports).share,
-    neededDays: medianDaysFrostToRipe(need),
-    treesBehindNeed: new Set(need.map((r) => r.treeId)).size,
-  };
+export function varietyOverall(rows: TreeEvidence[]): { share: number | null; neededDays: number | null; treesBehindNeed: number } {
+  const trees = new Map<number, { n: number; ripe: number; need: number[] | null }>();
+  for (const row of rows) {
+    let t = trees.get(row.treeId);
+    if (!t) trees.set(row.treeId, (t = { n: 0, ripe: 0, need: null }));
+    t.n += row.reports;
+    t.ripe += row.ripened;
+    if (row.form === 'ground' && row.mainFrostToRipeDays.length > 0) (t.need ??= []).push(...row.mainFrostToRipeDays);
+  }
+  let ripened = 0;
+  const need: number[] = [];
+  for (const t of trees.values()) {
+    ripened += t.ripe / t.n;
+    if (t.need) need.push(smallMedian(t.need));
+  }
+  return { share: trees.size > 0 ? ripened / trees.size : null, neededDays: median(need), treesBehindNeed: need.length };
 }
 
 const FORM_INDEX: Record<GrowingForm, number> = { ground: 0, container: 1, wall: 2, greenhouse: 3 };
@@ -220,12 +279,12 @@ function smallMedian(list: number[]): number {
 }
 
 /**
- * Everything the near answer needs about one variety's local reports, in one pass over them:
+ * Everything the near answer needs about one variety's local trees, in one pass over their rows:
  * the same figures as summarizeShare (all, by crop, by form), adjustedShare, and the main-crop
- * medians, but fast enough for tens of thousands of reports per request.
+ * medians of the reports behind them, fast enough for thousands of trees per request.
  */
 export function tallyEvidence(
-  reports: EvidenceReport[],
+  rows: TreeEvidence[],
   overallShare: number | null,
   options: { bandwidthKm?: number; priorStrength?: number } = {},
 ): {
@@ -241,30 +300,32 @@ export function tallyEvidence(
   const users = new Set<number>();
   const cropReports = [0, 0];
   const formReports = [0, 0, 0, 0];
-  for (const r of reports) {
-    users.add(r.userId);
-    let t = trees.get(r.treeId);
+  let reports = 0;
+  for (const row of rows) {
+    users.add(row.userId);
+    let t = trees.get(row.treeId);
     if (!t) {
-      t = { n: 0, ripe: 0, d: r.distanceKm, cropN: [0, 0], cropRipe: [0, 0], formN: [0, 0, 0, 0], formRipe: [0, 0, 0, 0], firstRipe: null, frostToRipe: null };
-      trees.set(r.treeId, t);
+      t = { n: 0, ripe: 0, d: row.distanceKm, cropN: [0, 0], cropRipe: [0, 0], formN: [0, 0, 0, 0], formRipe: [0, 0, 0, 0], firstRipe: null, frostToRipe: null };
+      trees.set(row.treeId, t);
     }
-    const ok = r.outcome === 'ripened' ? 1 : 0;
-    const c = r.crop === 'main' ? 1 : 0;
-    const f = FORM_INDEX[r.form];
-    t.n++;
-    t.ripe += ok;
-    if (r.distanceKm < t.d) t.d = r.distanceKm;
-    t.cropN[c]++;
-    t.cropRipe[c] += ok;
-    t.formN[f]++;
-    t.formRipe[f] += ok;
-    cropReports[c]++;
-    formReports[f]++;
-    if (c === 1) {
-      if (r.firstRipeDoy !== null && Number.isFinite(r.firstRipeDoy)) (t.firstRipe ??= []).push(r.firstRipeDoy);
-      const days = daysFrostToRipe(r);
-      if (days !== null && Number.isFinite(days)) (t.frostToRipe ??= []).push(days);
-    }
+    const f = FORM_INDEX[row.form];
+    const mainN = row.reports - row.brebaReports;
+    const mainRipe = row.ripened - row.brebaRipened;
+    reports += row.reports;
+    t.n += row.reports;
+    t.ripe += row.ripened;
+    if (row.distanceKm < t.d) t.d = row.distanceKm;
+    t.cropN[0] += row.brebaReports;
+    t.cropRipe[0] += row.brebaRipened;
+    t.cropN[1] += mainN;
+    t.cropRipe[1] += mainRipe;
+    t.formN[f] += row.reports;
+    t.formRipe[f] += row.ripened;
+    cropReports[0] += row.brebaReports;
+    cropReports[1] += mainN;
+    formReports[f] += row.reports;
+    if (row.mainFirstRipeDoys.length > 0) (t.firstRipe ??= []).push(...row.mainFirstRipeDoys);
+    if (row.mainFrostToRipeDays.length > 0) (t.frostToRipe ??= []).push(...row.mainFrostToRipeDays);
   }
 
   const h = options.bandwidthKm ?? ADJUSTED_SHARE_DEFAULTS.bandwidthKm;
@@ -303,7 +364,7 @@ export function tallyEvidence(
   const byForm = (f: number) => shareOf(formTrees[f], formReports[f], formRipened[f]);
   return {
     growers: users.size,
-    all: shareOf(trees.size, reports.length, ripened),
+    all: shareOf(trees.size, reports, ripened),
     byCrop: { breba: shareOf(cropTrees[0], cropReports[0], cropRipened[0]), main: shareOf(cropTrees[1], cropReports[1], cropRipened[1]) },
     byForm: { ground: byForm(0), container: byForm(1), wall: byForm(2), greenhouse: byForm(3) },
     adjustedShare: adjusted,

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildFitResponse, buildNearResponse, type VarietyInfo } from '../../shared/domain/evidence';
 import type { EvidenceReport } from '../../shared/domain/ripening-stats';
-import { varietyOverall } from '../../shared/domain/ripening-stats';
+import { groupTreeEvidence, varietyOverall } from '../../shared/domain/ripening-stats';
 import { estimateSeason } from '../../shared/domain/season-estimate';
 import { fitResponseSchema, nearResponseSchema } from '../../shared/schemas/atlas';
 
@@ -45,9 +45,9 @@ describe('buildNearResponse', () => {
       season,
       wasp: { established: false, areas: [] },
       varieties: [
-        { variety: smyrna, localReports: brass, overall: varietyOverall(brass) },
-        { variety: common, localReports: amber, overall: { share: 0.6, neededDays: null, treesBehindNeed: 0 } },
-        { variety: { ...common, id: 3, name: 'Fictional Unreported' }, localReports: [], overall: { share: null, neededDays: null, treesBehindNeed: 0 } },
+        { variety: smyrna, localTrees: groupTreeEvidence(brass), overall: varietyOverall(groupTreeEvidence(brass)) },
+        { variety: common, localTrees: groupTreeEvidence(amber), overall: { share: 0.6, neededDays: null, treesBehindNeed: 0 } },
+        { variety: { ...common, id: 3, name: 'Fictional Unreported' }, localTrees: [], overall: { share: null, neededDays: null, treesBehindNeed: 0 } },
       ],
     });
     expect(nearResponseSchema.parse(response)).toEqual(response);
