@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Link } from 'react-router';
 import { FIG_TYPES, GROWING_FORMS, LABELS } from '@shared/domain/codes';
 import { diagnose, localDataFrom, questionsFor, type QuestionKey } from '@shared/domain/diagnosis';
@@ -59,10 +59,11 @@ type Draft = Partial<DiagnosisAnswers> & { symptom?: Symptom };
 /** What an unanswered question counts as ("not sure", full sun, in the ground): shown selected. */
 const DEFAULTS = diagnosisAnswersSchema.parse({ symptom: 'no-fruit' });
 
-function Choice<T extends string>({ name, value, options, onChange }: { name: string; value: T | undefined; options: Record<T, string>; onChange: (v: T) => void }) {
+/** Radio choices, named for screen readers by the question's heading unless a legend of their own is given. */
+function Choice<T extends string>({ name, legend, value, options, onChange }: { name: string; legend?: string; value: T | undefined; options: Record<T, string>; onChange: (v: T) => void }) {
   return (
-    <fieldset className="flex flex-col gap-2">
-      <legend className="sr-only">{name}</legend>
+    <fieldset className="flex flex-col gap-2" aria-labelledby={legend ? undefined : 'q-title'}>
+      {legend && <legend className="mb-1 text-sm font-medium">{legend}</legend>}
       {(Object.keys(options) as T[]).map((key) => (
         <label key={key} className={`flex cursor-pointer items-center gap-3 rounded-md border px-3 py-2 ${value === key ? 'border-fig-500 bg-fig-50' : 'border-fig-100 bg-white hover:bg-fig-50'}`}>
           <input type="radio" name={name} value={key} checked={value === key} onChange={() => onChange(key)} />
@@ -79,6 +80,17 @@ export function DiagnosisStepper() {
   const [step, setStep] = useState(0); // 0 = what did you see; 1..n = questions; n+1 = result
   const [place, setPlace] = useState<{ lat: number; lon: number; name: string } | null>(null);
   const set = (patch: Draft) => setDraft((d) => ({ ...d, ...patch }));
+  // Each step replaces the button just pressed: move focus to the new step's heading so keyboard and
+  // screen-reader users continue from the question, not from the top of the page.
+  const stepsRef = useRef<HTMLDivElement>(null);
+  const movedOn = useRef(false);
+  useEffect(() => {
+    if (!movedOn.current) {
+      movedOn.current = true;
+      return;
+    }
+    stepsRef.current?.querySelector<HTMLElement>('h2')?.focus();
+  }, [step]);
 
   const questions = draft.symptom ? questionsFor(draft.symptom) : [];
   const total = questions.length;
@@ -86,7 +98,7 @@ export function DiagnosisStepper() {
   const question = step >= 1 && step <= total ? questions[step - 1]! : null;
 
   return (
-    <div className="flex flex-col gap-5">
+    <div ref={stepsRef} className="flex flex-col gap-5">
       {draft.symptom && (
         <div aria-label="Progress" className="flex items-center gap-3 text-sm text-ink/70">
           <div className="h-1.5 flex-1 overflow-hidden rounded-full bg-fig-50">
@@ -98,7 +110,7 @@ export function DiagnosisStepper() {
 
       {step === 0 && (
         <section aria-labelledby="q-symptom">
-          <h2 id="q-symptom" className="text-lg font-semibold text-fig-900">
+          <h2 id="q-symptom" tabIndex={-1} className="focus:outline-none text-lg font-semibold text-fig-900">
             What did you see this season?
           </h2>
           <div className="mt-3 grid gap-3 sm:grid-cols-3">
@@ -122,7 +134,7 @@ export function DiagnosisStepper() {
 
       {question && (
         <section aria-labelledby="q-title" className="flex flex-col gap-3">
-          <h2 id="q-title" className="text-lg font-semibold text-fig-900">
+          <h2 id="q-title" tabIndex={-1} className="focus:outline-none text-lg font-semibold text-fig-900">
             {TITLES[question]}
           </h2>
           <QuestionBody question={question} draft={draft} set={set} place={place} setPlace={setPlace} />
@@ -249,8 +261,7 @@ function VarietyQuestion({ draft, set }: { draft: Draft; set: (p: Draft) => void
         <p className="text-xs text-ink/70">Choosing it fills in its type, and lets us compare with how it did near you.</p>
       </div>
       <div>
-        <p className="text-sm font-medium">Its type</p>
-        <Choice name="figType" value={draft.figType ?? DEFAULTS.figType} options={Object.fromEntries(FIG_TYPES.map((t) => [t, LABELS.figType[t]])) as Record<(typeof FIG_TYPES)[number], string>} onChange={(figType) => set({ figType })} />
+        <Choice name="figType" legend="Its type" value={draft.figType ?? DEFAULTS.figType} options={Object.fromEntries(FIG_TYPES.map((t) => [t, LABELS.figType[t]])) as Record<(typeof FIG_TYPES)[number], string>} onChange={(figType) => set({ figType })} />
       </div>
     </div>
   );
@@ -332,7 +343,7 @@ function DiagnosisResult({ answers, place, onRestart, onBack }: { answers: Diagn
   return (
     <section aria-labelledby="result-title" className="flex flex-col gap-4">
       <div>
-        <h2 id="result-title" className="text-xl font-semibold text-fig-900">
+        <h2 id="result-title" tabIndex={-1} className="focus:outline-none text-xl font-semibold text-fig-900">
           Likely causes, most likely first
         </h2>
         <p className="mt-1 text-sm text-ink/70">
