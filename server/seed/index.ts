@@ -11,13 +11,22 @@ import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
 import { seedDemoStations } from './demo-stations';
+import { seedDemoAtlas } from './demo-atlas-seed';
+import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
 /**
  * Load the demo scenario into an empty atlas, and the first admin from the environment.
  * Idempotent: each part checks what is already there and adds only what is missing.
  */
-export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'adminEmail' | 'adminPassword'> & { uploadsDir?: string }): Promise<void> {
+export async function seedDatabase(
+  db: Db,
+  config: Pick<Config, 'seedDemo' | 'adminEmail' | 'adminPassword'> & {
+    uploadsDir?: string;
+    /** The demo atlas's several hundred growers (default: yes). Tests that need only the story skip them to stay quick. */
+    demoAtlas?: boolean;
+  },
+): Promise<void> {
   if (config.adminEmail && config.adminPassword && !findUserByEmail(db, config.adminEmail)) {
     insertUser(db, {
       email: config.adminEmail,
@@ -31,6 +40,7 @@ export async function seedDatabase(db: Db, config: Pick<Config, 'seedDemo' | 'ad
   await seedDemoAccounts(db);
   seedDemoVarieties(db);
   seedDemoReports(db);
+  if (config.demoAtlas !== false) seedDemoAtlas(db);
   if (config.uploadsDir) await seedDemoPhotos(db, config.uploadsDir);
   seedDemoWaspAreas(db);
   seedDemoStations(db);
@@ -70,7 +80,7 @@ function seedDemoVarieties(db: Db): void {
 
 function seedDemoReports(db: Db): void {
   if (db.select({ n: count() }).from(reports).get()!.n > 0) return;
-  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@'));
+  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@') && !u.email.endsWith(`@${DEMO_ATLAS_EMAIL_DOMAIN}`));
   const varietyIds = new Map(db.select({ id: varieties.id, name: varieties.name }).from(varieties).all().map((v) => [v.name, v.id]));
   const demoReports = buildDemoReports(demoGrowers.length, DEMO_VARIETIES);
   db.transaction(() => {
