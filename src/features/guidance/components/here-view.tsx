@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router';
 import type { NearResponse } from '@shared/schemas/atlas';
+import { MethodNote } from '../../../components/method-note';
 import { SavePlaceForm } from '../../places/components/save-place-form';
 import { useCurrentUser } from '../../auth/api';
 import { guidanceQueries, type PointQuery } from '../api';
@@ -56,9 +57,11 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
         </div>
         {shortOnly && days50 !== null && <ShortSeasonList seasonDays={days50} form={query.form} />}
         <VarietyRanking near={near} onlyIds={onlyIds} />
-        <p className="text-xs text-ink/70">
-          How the list is ranked: {near.method} The bar shows the share of trees that ripened (tick), its 90 % interval (green band) and the adjusted share (dot).
-        </p>
+        <MethodNote method={<>How the list is ranked: {near.method}</>}>
+          Varieties whose nearby trees ripened more often rank higher; a variety known from only a few trees counts for less than one seen on many, and one that needs the fig wasp
+          where it is not recorded, or a longer season than this place gives, moves down. In each bar the tick is the share of trees that ripened, the green band the range it
+          likely lies in (90 %), and the dot the share after weighting.
+        </MethodNote>
       </section>
 
       <section className="rounded-lg border border-fig-100 bg-white p-4">

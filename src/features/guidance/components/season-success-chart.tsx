@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { Bar, CartesianGrid, ComposedChart, ErrorBar, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { LABELS, type GrowingForm } from '@shared/domain/codes';
+import { MethodNote } from '../../../components/method-note';
 import { guidanceQueries } from '../api';
 
 /** Ripening success against frost-free season length, across all reports, with 90 % intervals. */
@@ -22,10 +23,10 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
     <figure>
       <div className="h-56 w-full">
         <ResponsiveContainer width="100%" height="100%" initialDimension={{ width: 480, height: 180 }}>
-          <ComposedChart data={rows} margin={{ top: 20, right: 8, bottom: 4, left: -12 }}>
+          <ComposedChart data={rows} margin={{ top: 20, right: 8, bottom: 12, left: 8 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" />
-            <XAxis dataKey="band" tick={{ fontSize: 11 }} />
-            <YAxis domain={[0, 100]} unit=" %" tick={{ fontSize: 11 }} />
+            <XAxis dataKey="band" tick={{ fontSize: 11 }} label={{ value: 'Frost-free days in the season', position: 'insideBottom', offset: -8, fontSize: 11, fill: '#2b2230' }} />
+            <YAxis domain={[0, 100]} unit=" %" tick={{ fontSize: 11 }} label={{ value: 'Trees that ripened', angle: -90, position: 'insideLeft', offset: 4, dy: 50, fontSize: 11, fill: '#2b2230' }} />
             <Tooltip formatter={(value, _name, item) => [`${value} % of ${(item.payload as { trees: number }).trees} trees`, 'ripened']} labelFormatter={(label) => `${label} frost-free days`} />
             <Bar dataKey="share" fill="#5e8a57" radius={[3, 3, 0, 0]} maxBarSize={56}>
               <ErrorBar dataKey="err" width={4} stroke="#3d5e39" />
@@ -34,9 +35,18 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
           </ComposedChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="text-xs text-ink/70">
-        Share of trees that ripened their main crop, by the frost-free days of the season they grew in{form ? ` (${LABELS.growingForm[form].toLowerCase()})` : ''}: {data.reports} reports (
-        {data.fromOwnFrostDates} with the grower’s own frost dates, {data.fromStations} from the nearest station; {data.withoutSeason} without a season left out). Whiskers: 90 % interval. {data.method}
+      <figcaption>
+        <MethodNote
+          method={
+            <>
+              {data.reports} reports: {data.fromOwnFrostDates} with the grower’s own frost dates, {data.fromStations} from the nearest station; {data.withoutSeason} without a season left
+              out. {data.method}
+            </>
+          }
+        >
+          Each bar is the share of trees that ripened their main crop in seasons of that many frost-free days{form ? ` (${LABELS.growingForm[form].toLowerCase()})` : ''}; the
+          whisker shows the range it likely lies in (90 %).{here ? ' The dashed line marks this place’s typical season.' : ''}
+        </MethodNote>
       </figcaption>
     </figure>
   );

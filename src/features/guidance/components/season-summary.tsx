@@ -1,5 +1,6 @@
 import type { NearResponse } from '@shared/schemas/atlas';
 import { doyLabel } from '@shared/domain/guidance';
+import { MethodNote } from '../../../components/method-note';
 
 const days = (v: number | null) => (v === null ? '—' : `${Math.round(v)} days`);
 
@@ -47,10 +48,10 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
             </p>
           </>
         )}
-        <p className="mt-2 text-xs text-ink/70">
+        <MethodNote className="mt-2" method={season.method}>
           Rests on {season.stationCount} station{season.stationCount === 1 ? '' : 's'} and {season.reportFrostCount} grower frost report{season.reportFrostCount === 1 ? '' : 's'}
-          {season.nearestStationKm !== null ? `; nearest station ${Math.round(season.nearestStationKm)} km away` : ''}. {season.method}
-        </p>
+          {season.nearestStationKm !== null ? `; nearest station ${Math.round(season.nearestStationKm)} km away` : ''}.
+        </MethodNote>
       </div>
       <div className={`rounded-lg border p-4 ${wasp.established ? 'border-leaf-300 bg-leaf-100/50' : 'border-fig-100 bg-white'}`}>
         <h2 className="font-semibold text-fig-900">Fig wasp</h2>

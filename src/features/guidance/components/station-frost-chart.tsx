@@ -1,7 +1,11 @@
 import { useQuery } from '@tanstack/react-query';
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { doyLabel } from '@shared/domain/guidance';
+import { MethodNote } from '../../../components/method-note';
 import { stationQueries } from '../../stations/api';
+
+/** The same words as the season cards above the chart. */
+const YEAR_LABEL: Record<number, string> = { 10: 'Short year', 50: 'Typical year', 90: 'Long year' };
 
 /**
  * The nearest station's frost dates at 32 deg F: for 10, 50 and 90 % probability, a bar from the
@@ -15,7 +19,7 @@ export function StationFrostChart({ stationId, distanceKm }: { stationId: number
   const at32 = data.summaries.filter((s) => s.thresholdF === 32 && s.lastSpringDoy !== null && s.firstFallDoy !== null).sort((a, b) => a.probability - b.probability);
   if (at32.length === 0) return <p className="text-sm text-ink/70">{data.station.name} has no frost-date summary yet.</p>;
   const rows = at32.map((s) => ({
-    level: `${s.probability} %`,
+    level: YEAR_LABEL[s.probability] ?? `${s.probability} %`,
     before: s.lastSpringDoy!,
     span: s.firstFallDoy! - s.lastSpringDoy!,
     spring: doyLabel(s.lastSpringDoy!),
@@ -29,7 +33,7 @@ export function StationFrostChart({ stationId, distanceKm }: { stationId: number
           <BarChart data={rows} layout="vertical" margin={{ top: 4, right: 12, bottom: 4, left: 4 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" horizontal={false} />
             <XAxis type="number" domain={[1, 365]} ticks={[1, 60, 121, 182, 244, 305, 365]} tickFormatter={(d: number) => doyLabel(d)} tick={{ fontSize: 11 }} />
-            <YAxis type="category" dataKey="level" width={44} tick={{ fontSize: 11 }} />
+            <YAxis type="category" dataKey="level" width={92} tick={{ fontSize: 11 }} />
             <Tooltip
               formatter={(_value, name, item) => {
                 const p = item.payload as (typeof rows)[number];
@@ -41,10 +45,18 @@ export function StationFrostChart({ stationId, distanceKm }: { stationId: number
           </BarChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="text-xs text-ink/70">
-        Nearest station: {data.station.name}, {Math.round(distanceKm)} km away. Frost-free span at 32 °F, as in national climate normals: at 10 % a freeze after the spring date, or before the fall date,
-        comes in only 1 year of 10 (a short, safe span); at 50 % in half the years; at 90 % in 9 years of 10.{' '}
-        {rows.map((r) => `${r.level}: ${r.spring} to ${r.fall}`).join('; ')}.
+      <figcaption>
+        <MethodNote
+          method={
+            <>
+              Frost-free span at 32 °F, as in national climate normals: in the short year (10 %) a freeze after the spring date, or before the fall date, comes in only 1 year of 10
+              (a safe span); in the typical year (50 %) in half the years; in the long year (90 %) in 9 years of 10.
+            </>
+          }
+        >
+          Nearest station: {data.station.name}, {Math.round(distanceKm)} km away. Each bar runs from the last spring freeze to the first fall freeze:{' '}
+          {rows.map((r) => `${r.level.toLowerCase()} ${r.spring} to ${r.fall}`).join('; ')}.
+        </MethodNote>
       </figcaption>
     </figure>
   );
