@@ -51,7 +51,12 @@ function reasonFor(item: RankInput): string {
   if (item.all.share === null) parts.push('No local trees reported yet');
   else {
     const adjusted = item.adjustedShare ?? item.all.share;
-    parts.push(`${pct(item.all.share)} of ${trees} nearby ${trees === 1 ? 'tree' : 'trees'} ripened fruit (${pct(adjusted)} after weighting)`);
+    // The share counts each tree's seasons as a fraction, so "40 % of 1 tree" would read as nonsense.
+    parts.push(
+      trees === 1
+        ? `The one nearby tree ripened fruit in ${pct(item.all.share)} of its reported seasons (${pct(adjusted)} after weighting)`
+        : `${trees} nearby trees ripened fruit in ${pct(item.all.share)} of their reported seasons, each tree counted once (${pct(adjusted)} after weighting)`,
+    );
   }
   const main = item.pollination.main.fruitExpected;
   const breba = item.pollination.breba.fruitExpected;
