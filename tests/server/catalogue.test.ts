@@ -7,7 +7,7 @@ import { findWaspAreasAt } from '../../server/wasp-areas/wasp-areas.repo';
 describe('public catalogue reads', { timeout: 60_000 }, () => {
   it('finds a variety by a synonym, case-insensitively', async () => {
     const { db, agent } = createTestContext();
-    await seedDatabase(db, { seedDemo: true });
+    await seedDatabase(db, { seedDemo: true, demoAtlas: false }); // the story's varieties are enough
     const res = await agent().get('/api/varieties?q=amber%20LANTERN');
     expect(res.status).toBe(200);
     expect(res.body.varieties.map((v: { name: string }) => v.name)).toEqual(['Lantern Amber']);
@@ -22,7 +22,7 @@ describe('public catalogue reads', { timeout: 60_000 }, () => {
 
   it('serves wasp areas as GeoJSON and finds the area around a point', async () => {
     const { db, agent } = createTestContext();
-    await seedDatabase(db, { seedDemo: true });
+    await seedDatabase(db, { seedDemo: true, demoAtlas: false }); // the story's wasp areas are enough
     const res = await agent().get('/api/wasp-areas');
     expect(res.body.type).toBe('FeatureCollection');
     expect(res.body.features).toHaveLength(2);

@@ -364,8 +364,9 @@ describe('CSV import and export', () => {
 describe('demo photos', () => {
   it('gives the demo grower three drawn photos, cleaned like uploads, once', async () => {
     const demo = createTestContext();
-    await seedDatabase(demo.db, { seedDemo: true, uploadsDir: demo.config.uploadsDir });
-    await seedDatabase(demo.db, { seedDemo: true, uploadsDir: demo.config.uploadsDir });
+    // the demo grower's photos need only the story, not the demo atlas's crowd
+    await seedDatabase(demo.db, { seedDemo: true, demoAtlas: false, uploadsDir: demo.config.uploadsDir });
+    await seedDatabase(demo.db, { seedDemo: true, demoAtlas: false, uploadsDir: demo.config.uploadsDir });
     const rows = demo.db.sqlite.prepare('SELECT p.file_name AS fileName, r.status FROM report_photos p JOIN reports r ON r.id = p.report_id').all() as { fileName: string; status: string }[];
     expect(rows).toHaveLength(3);
     const res = await demo.agent().get(`/uploads/reports/${rows[0]!.fileName}`).buffer(true).parse((r, cb) => {
