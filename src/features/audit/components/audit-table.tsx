@@ -1,12 +1,66 @@
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
+import { Link } from 'react-router';
 import { auditChanges } from '@shared/domain/audit-diff';
 import type { AuditEntryView } from '@shared/schemas/audit';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { auditQueries } from '../api';
 
 const column = createColumnHelper<AuditEntryView>();
+
+/** Plain words for the server's action codes; an unknown code is shown as it is. */
+const ACTION_LABELS: Record<string, string> = {
+  'report.create': 'Report posted',
+  'report.update': 'Report edited',
+  'report.delete': 'Report deleted',
+  'report.publish': 'Report published',
+  'report.import': 'Reports imported',
+  'report.flag': 'Report flagged',
+  'report.hide': 'Report hidden',
+  'report.restore': 'Report restored',
+  'report.reviewed': 'Report marked as fine',
+  'report.photo.add': 'Photo added',
+  'report.photo.delete': 'Photo removed',
+  'flag.clear': 'Flag cleared',
+  'variety.create': 'Variety added',
+  'variety.update': 'Variety edited',
+  'variety.accept': 'Proposed name accepted',
+  'variety.reject': 'Proposed name rejected',
+  'variety.merge': 'Varieties merged',
+  'variety.import': 'Catalogue imported',
+  'wasp-area.create': 'Wasp area recorded',
+  'wasp-area.update': 'Wasp area edited',
+  'wasp-area.retire': 'Wasp area retired',
+  'station.create': 'Station uploaded',
+  'station.replace': 'Station data replaced',
+  'station.delete': 'Station deleted',
+  'user.role': 'Role changed',
+};
+const actionLabel = (code: string) => ACTION_LABELS[code] ?? code;
+
+const ENTITY_LABELS: Record<string, string> = {
+  report: 'Report',
+  'report-flag': 'Flag',
+  variety: 'Variety',
+  catalogue: 'Catalogue',
+  'wasp-area': 'Wasp area',
+  station: 'Station',
+  user: 'Person',
+};
+const entityLabel = (type: string) => ENTITY_LABELS[type] ?? type;
+
+/** Where an entry's record can be opened, if anywhere. */
+function entityHref(type: string, id: number | null): string | null {
+  if (id === null) return null;
+  if (type === 'report') return `/reports/${id}`;
+  if (type === 'station') return `/editors/stations/${id}`;
+  return null;
+}
+
+const ISO_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
+/** Timestamps in before/after read as local dates and times, not raw ISO strings. */
+const readable = (s: string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)) ? new Date(s).toLocaleString() : s);
 
 /** Before → after for the keys that changed, one line each. */
 export function ChangeList({ before, after }: { before: unknown; after: unknown }) {
@@ -18,7 +72,7 @@ export function ChangeList({ before, after }: { before: unknown; after: unknown 
         <div key={c.key} className="contents">
           <dt className="font-medium text-ink/80">{c.key}</dt>
           <dd className="break-words">
-            <del className="text-red-800 decoration-red-800/50">{truncate(c.before)}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(c.after)}</ins>
+            <del className="text-red-800 decoration-red-800/50">{truncate(readable(c.before))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(readable(c.after))}</ins>
           </dd>
         </div>
       ))}
@@ -45,8 +99,23 @@ export function AuditTable() {
     () => [
       column.accessor('createdAt', { header: 'When', cell: (c) => <time dateTime={c.getValue()} className="whitespace-nowrap tabular-nums">{new Date(c.getValue()).toLocaleString()}</time> }),
       column.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? <span className="text-ink/60">system</span> }),
-      column.accessor('action', { header: 'What', cell: (c) => <code className="rounded bg-fig-50 px-1 text-xs">{c.getValue()}</code> }),
-      column.accessor((e) => `${e.entityType}${e.entityId ? ` #${e.entityId}` : ''}`, { id: 'entity', header: 'On' }),
+      column.accessor('action', { header: 'What', cell: (c) => <span title={c.getValue()}>{actionLabel(c.getValue())}</span> }),
+      column.accessor((e) => `${e.entityType}${e.entityId ? ` #${e.entityId}` : ''}`, {
+        id: 'entity',
+        header: 'On',
+        cell: (c) => {
+          const { entityType, entityId } = c.row.original;
+          const text = `${entityLabel(entityType)}${entityId ? ` #${entityId}` : ''}`;
+          const href = entityHref(entityType, entityId);
+          return href ? (
+            <Link to={href} className="whitespace-nowrap text-fig-700 underline">
+              {text}
+            </Link>
+          ) : (
+            <span className="whitespace-nowrap">{text}</span>
+          );
+        },
+      }),
       column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} /> }),
     ],
     [],
@@ -71,7 +140,9 @@ export function AuditTable() {
           <select className={filterClass} value={filters.action} onChange={set('action')}>
             <option value="">Any action</option>
             {data?.facets.actions.map((a) => (
-              <option key={a}>{a}</option>
+              <option key={a} value={a}>
+                {actionLabel(a)}
+              </option>
             ))}
           </select>
         </label>
@@ -80,7 +151,9 @@ export function AuditTable() {
           <select className={filterClass} value={filters.entityType} onChange={set('entityType')}>
             <option value="">Any</option>
             {data?.facets.entityTypes.map((a) => (
-              <option key={a}>{a}</option>
+              <option key={a} value={a}>
+                {entityLabel(a)}
+              </option>
             ))}
           </select>
         </label>

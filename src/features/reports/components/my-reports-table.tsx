@@ -139,7 +139,7 @@ export function MyReportsTable() {
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   return (
-                    <th key={header.id} scope="col" className="px-3 py-2 font-medium" aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
+                    <th key={header.id} scope="col" className="whitespace-nowrap px-3 py-2 font-medium" aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
                       {header.column.getCanSort() ? (
                         <button type="button" className="inline-flex items-center gap-1 hover:text-fig-700" onClick={header.column.getToggleSortingHandler()}>
                           {flexRender(header.column.columnDef.header, header.getContext())}
@@ -158,7 +158,7 @@ export function MyReportsTable() {
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-50 hover:bg-paper">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
+                  <td key={cell.id} className="whitespace-nowrap px-3 py-2 align-middle">
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}
