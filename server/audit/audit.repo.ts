@@ -1,6 +1,7 @@
 import { and, asc, count, desc, eq, gte, lt, type SQL } from 'drizzle-orm';
 import type { AuditPage, AuditQuery } from '../../shared/schemas/audit';
 import type { Db } from '../db/client';
+import { statement } from '../db/prepared';
 import { auditLog, users } from '../db/schema';
 
 export interface AuditEntry {
@@ -12,11 +13,13 @@ export interface AuditEntry {
   after?: unknown;
 }
 
+// Every report post writes one entry: plain SQL prepared once (created_at takes the column's default).
+const INSERT_SQL = 'INSERT INTO audit_log (actor_id, action, entity_type, entity_id, before, after) VALUES (?, ?, ?, ?, ?, ?)';
+const json = (value: unknown) => (value === undefined || value === null ? null : JSON.stringify(value));
+
 /** Write one audit entry; call it inside the same transaction as the change it records. */
 export function recordAudit(db: Db, entry: AuditEntry): void {
-  db.insert(auditLog)
-    .values({ ...entry, entityId: entry.entityId ?? null, before: entry.before ?? null, after: entry.after ?? null })
-    .run();
+  statement(db, INSERT_SQL).run(entry.actorId ?? null, entry.action, entry.entityType, entry.entityId ?? null, json(entry.before), json(entry.after));
 }
 
 /** Read the log, newest first, with filters and server-side pagination. */

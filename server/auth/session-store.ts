@@ -1,12 +1,19 @@
 import session from 'express-session';
-import { and, eq, lt } from 'drizzle-orm';
 import type { Db } from '../db/client';
-import { sessions } from '../db/schema';
+import { statement } from '../db/prepared';
 
 /** A session's stored expiry may lag the cookie's by up to this much (of a 30-day life). */
 const TOUCH_SLACK_MS = 60 * 60_000;
 
 type Callback = (err?: unknown, data?: session.SessionData | null) => void;
+
+// Plain SQL prepared once per database: every signed-in request reads its session and touches it.
+const GET_SQL = 'SELECT data, expires_at AS expiresAt FROM sessions WHERE sid = ?';
+const SET_SQL = `INSERT INTO sessions (sid, data, user_id, expires_at) VALUES (?, ?, ?, ?)
+  ON CONFLICT (sid) DO UPDATE SET data = excluded.data, user_id = excluded.user_id, expires_at = excluded.expires_at`;
+const SWEEP_SQL = 'DELETE FROM sessions WHERE expires_at < ?';
+const DESTROY_SQL = 'DELETE FROM sessions WHERE sid = ?';
+const TOUCH_SQL = 'UPDATE sessions SET expires_at = ? WHERE sid = ? AND expires_at < ?';
 
 /**
  * express-session store on the app's own SQLite database, so sessions survive restarts and are
@@ -21,7 +28,7 @@ export class SqliteSessionStore extends session.Store {
 
   override get(sid: string, callback: Callback): void {
     try {
-      const row = this.db.select().from(sessions).where(eq(sessions.sid, sid)).get();
+      const row = statement(this.db, GET_SQL).get(sid) as { data: string; expiresAt: number } | undefined;
       if (!row || row.expiresAt <= Date.now()) return callback(null, null);
       callback(null, JSON.parse(row.data));
     } catch (err) {
@@ -33,9 +40,8 @@ export class SqliteSessionStore extends session.Store {
     try {
       const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
       const userId = typeof data.passport?.user === 'number' ? data.passport.user : null;
-      const values = { sid, data: JSON.stringify(data), userId, expiresAt };
-      this.db.insert(sessions).values(values).onConflictDoUpdate({ target: sessions.sid, set: values }).run();
-      if (++this.writes % 100 === 0) this.db.delete(sessions).where(lt(sessions.expiresAt, Date.now())).run();
+      statement(this.db, SET_SQL).run(sid, JSON.stringify(data), userId, expiresAt);
+      if (++this.writes % 100 === 0) statement(this.db, SWEEP_SQL).run(Date.now());
       callback?.();
     } catch (err) {
       callback?.(err);
@@ -44,7 +50,7 @@ export class SqliteSessionStore extends session.Store {
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
     try {
-      this.db.delete(sessions).where(eq(sessions.sid, sid)).run();
+      statement(this.db, DESTROY_SQL).run(sid);
       callback?.();
     } catch (err) {
       callback?.(err);
@@ -56,11 +62,7 @@ export class SqliteSessionStore extends session.Store {
     try {
       // Rolling sessions touch on every answer; only write when the expiry moves by more than the
       // slack, so signed-in reads do not write (and do not invalidate caches keyed by data version).
-      this.db
-        .update(sessions)
-        .set({ expiresAt })
-        .where(and(eq(sessions.sid, sid), lt(sessions.expiresAt, expiresAt - TOUCH_SLACK_MS)))
-        .run();
+      statement(this.db, TOUCH_SQL).run(expiresAt, sid, expiresAt - TOUCH_SLACK_MS);
     } catch {
       // A full or read-only disk must not hang the answer (express-session ends the response in
       // this callback); the session simply keeps its old expiry.

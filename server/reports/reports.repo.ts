@@ -3,6 +3,7 @@ import type { PublicReportRow } from '../../shared/domain/report-csv';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import type { CreateReportValues, Report, ReportFilter, ReportListItem, ReportPhoto, ReportSort, Tree } from '../../shared/schemas/reports';
 import type { Db } from '../db/client';
+import { perDb } from '../db/prepared';
 import { reportFlags, reportPhotos, reports, trees, users, varieties, varietySynonyms } from '../db/schema';
 import { HttpError } from '../lib/http-error';
 import { isEditor } from '../middleware/require-role';
@@ -21,17 +22,50 @@ export function canView(row: Pick<ReportRow, 'status' | 'userId'>, viewer: Viewe
 /** Exact place and tree label: the owner's and editors' only. */
 const seesExact = (row: Pick<ReportRow, 'userId'>, viewer: Viewer) => viewer?.id === row.userId || isEditor(viewer);
 
+// Reading one report (GET /api/reports/:id, and the answer to every write) and posting one run
+// these on every request: Drizzle queries prepared once per database (server/db/prepared.ts).
+const ph = sql.placeholder;
+const q = {
+  reportById: perDb((db) => db.select().from(reports).where(eq(reports.id, ph('id'))).prepare()),
+  photos: perDb((db) => db.select().from(reportPhotos).where(eq(reportPhotos.reportId, ph('reportId'))).orderBy(asc(reportPhotos.position), asc(reportPhotos.id)).prepare()),
+  varietyRef: perDb((db) => db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType, status: varieties.status }).from(varieties).where(eq(varieties.id, ph('id'))).prepare()),
+  treeLabel: perDb((db) => db.select({ label: trees.label }).from(trees).where(eq(trees.id, ph('id'))).prepare()),
+  growerName: perDb((db) => db.select({ displayName: users.displayName }).from(users).where(eq(users.id, ph('id'))).prepare()),
+  openFlagOf: perDb((db) =>
+    db.select({ id: reportFlags.id }).from(reportFlags).where(and(eq(reportFlags.reportId, ph('reportId')), eq(reportFlags.userId, ph('userId')), eq(reportFlags.status, 'open'))).prepare(),
+  ),
+  openFlagCount: perDb((db) => db.select({ n: count() }).from(reportFlags).where(and(eq(reportFlags.reportId, ph('reportId')), eq(reportFlags.status, 'open'))).prepare()),
+  varietyById: perDb((db) => db.select().from(varieties).where(eq(varieties.id, ph('id'))).prepare()),
+  varietyByName: perDb((db) =>
+    db.select({ id: varieties.id, status: varieties.status, mergedIntoId: varieties.mergedIntoId }).from(varieties).where(sql`lower(${varieties.name}) = lower(${ph('name')})`).prepare(),
+  ),
+  varietyBySynonym: perDb((db) =>
+    db
+      .select({ id: varieties.id, status: varieties.status })
+      .from(varietySynonyms)
+      .innerJoin(varieties, eq(varieties.id, varietySynonyms.varietyId))
+      .where(sql`lower(${varietySynonyms.name}) = lower(${ph('name')})`)
+      .prepare(),
+  ),
+  treeById: perDb((db) => db.select().from(trees).where(eq(trees.id, ph('id'))).prepare()),
+  insertTree: perDb((db) => db.insert(trees).values({ userId: ph('userId'), label: ph('label') }).returning({ id: trees.id }).prepare()),
+  insertReport: perDb((db) =>
+    db
+      .insert(reports)
+      .values(Object.fromEntries(NEW_REPORT_KEYS.map((key) => [key, ph(key)])) as unknown as typeof reports.$inferInsert)
+      .returning()
+      .prepare(),
+  ),
+};
+
 export function findReportRow(db: Db, id: number): ReportRow | undefined {
-  return db.select().from(reports).where(eq(reports.id, id)).get();
+  return q.reportById(db).get({ id });
 }
 
 function photosOf(db: Db, reportId: number): (ReportPhoto & { fileName: string; thumbName: string })[] {
-  return db
-    .select()
-    .from(reportPhotos)
-    .where(eq(reportPhotos.reportId, reportId))
-    .orderBy(asc(reportPhotos.position), asc(reportPhotos.id))
-    .all()
+  return q
+    .photos(db)
+    .all({ reportId })
     .map((p) => ({ id: p.id, url: photoUrl(p.fileName), thumbUrl: photoUrl(p.thumbName), width: p.width, height: p.height, fileName: p.fileName, thumbName: p.thumbName }));
 }
 
@@ -44,13 +78,11 @@ export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
   const exact = seesExact(row, viewer);
   const isOwner = viewer?.id === row.userId;
   const moderator = isEditor(viewer);
-  const variety = row.varietyId ? db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType, status: varieties.status }).from(varieties).where(eq(varieties.id, row.varietyId)).get() : undefined;
-  const tree = db.select({ label: trees.label }).from(trees).where(eq(trees.id, row.treeId)).get();
-  const grower = db.select({ displayName: users.displayName }).from(users).where(eq(users.id, row.userId)).get();
-  const hasOpenFlag = viewer
-    ? !!db.select({ id: reportFlags.id }).from(reportFlags).where(and(eq(reportFlags.reportId, row.id), eq(reportFlags.userId, viewer.id), eq(reportFlags.status, 'open'))).get()
-    : false;
-  const openFlags = moderator ? db.select({ n: count() }).from(reportFlags).where(and(eq(reportFlags.reportId, row.id), eq(reportFlags.status, 'open'))).get()!.n : 0;
+  const variety = row.varietyId ? q.varietyRef(db).get({ id: row.varietyId }) : undefined;
+  const tree = q.treeLabel(db).get({ id: row.treeId });
+  const grower = q.growerName(db).get({ id: row.userId });
+  const hasOpenFlag = viewer ? !!q.openFlagOf(db).get({ reportId: row.id, userId: viewer.id }) : false;
+  const openFlags = moderator ? q.openFlagCount(db).get({ reportId: row.id })!.n : 0;
   return {
     id: row.id,
     treeId: row.treeId,
@@ -259,15 +291,9 @@ export function findVarietyByName(db: Db, name: string): { id: number; status: s
   // Compare with SQLite's own lower() on both sides: it folds ASCII only, exactly like the unique
   // index on lower(name), so a name the index would call a duplicate is always found here.
   const trimmed = name.trim();
-  const direct = db.select({ id: varieties.id, status: varieties.status, mergedIntoId: varieties.mergedIntoId }).from(varieties).where(sql`lower(${varieties.name}) = lower(${trimmed})`).get();
+  const direct = q.varietyByName(db).get({ name: trimmed });
   if (direct) return direct.status === 'merged' && direct.mergedIntoId ? { id: direct.mergedIntoId, status: 'accepted' } : direct;
-  const synonym = db
-    .select({ id: varieties.id, status: varieties.status })
-    .from(varietySynonyms)
-    .innerJoin(varieties, eq(varieties.id, varietySynonyms.varietyId))
-    .where(sql`lower(${varietySynonyms.name}) = lower(${trimmed})`)
-    .get();
-  return synonym;
+  return q.varietyBySynonym(db).get({ name: trimmed });
 }
 
 /**
@@ -276,7 +302,7 @@ export function findVarietyByName(db: Db, name: string): { id: number; status: s
  */
 export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyId' | 'proposedVarietyName'>, userId: number): { varietyId: number; proposedVarietyName: string | null; name: string } {
   if (input.varietyId !== null) {
-    const row = db.select().from(varieties).where(eq(varieties.id, input.varietyId)).get();
+    const row = q.varietyById(db).get({ id: input.varietyId });
     if (!row || (row.status !== 'accepted' && row.status !== 'proposed')) {
       throw new HttpError(400, 'invalid_input', 'Please check: varietyId', { varietyId: ['Choose a variety from the catalogue'] });
     }
@@ -288,7 +314,7 @@ export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyI
     if (existing.status === 'rejected') {
       throw new HttpError(400, 'invalid_input', 'Please check: proposedVarietyName', { proposedVarietyName: ['Editors have declined this name; choose a listed variety or a different name'] });
     }
-    const row = db.select().from(varieties).where(eq(varieties.id, existing.id)).get()!;
+    const row = q.varietyById(db).get({ id: existing.id })!;
     return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? name : null, name: row.name };
   }
   const created = db.insert(varieties).values({ name, status: 'proposed', proposedByUserId: userId, figType: 'unknown' }).returning().get();
@@ -298,11 +324,11 @@ export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyI
 /** The grower's existing tree, or a new one with the given label. */
 export function resolveTree(db: Db, userId: number, treeId: number | null, label: string | null, fallbackLabel: string): number {
   if (treeId !== null) {
-    const tree = db.select().from(trees).where(eq(trees.id, treeId)).get();
+    const tree = q.treeById(db).get({ id: treeId });
     if (!tree || tree.userId !== userId) throw new HttpError(400, 'invalid_input', 'Please check: treeId', { treeId: ['Choose one of your own trees, or a new tree'] });
     return tree.id;
   }
-  return db.insert(trees).values({ userId, label: label ?? fallbackLabel }).returning({ id: trees.id }).get().id;
+  return q.insertTree(db).get({ userId, label: label ?? fallbackLabel })!.id;
 }
 
 /** A tree of this grower with this label (case-insensitive), for CSV rows. */
@@ -337,8 +363,16 @@ export function reportColumns(input: CreateReportValues) {
   };
 }
 
-export function insertReport(db: Db, values: typeof reports.$inferInsert): ReportRow {
-  return db.insert(reports).values(values).returning().get();
+/** Every column a new report is written with (the hidden* columns start null, the id is SQLite's). */
+const NEW_REPORT_KEYS = [
+  'userId', 'treeId', 'varietyId', 'proposedVarietyName', 'lat', 'lon', 'gridLat', 'gridLon', 'form', 'origin', 'yearPlanted', 'season', 'crop', 'outcome',
+  'firstRipeDate', 'lastHarvestDate', 'springFrostDate', 'fallFrostDate', 'pinched', 'pinchedDate', 'winterProtection', 'feeding', 'watering', 'notes',
+  'status', 'publishedAt', 'createdAt', 'updatedAt', 'updatedById',
+] as const satisfies readonly (keyof typeof reports.$inferInsert)[];
+export type NewReport = Required<Pick<typeof reports.$inferInsert, (typeof NEW_REPORT_KEYS)[number]>>;
+
+export function insertReport(db: Db, values: NewReport): ReportRow {
+  return q.insertReport(db).get(values)!;
 }
 
 export function updateReportRow(db: Db, id: number, values: Partial<typeof reports.$inferInsert>): ReportRow {

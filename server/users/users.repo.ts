@@ -1,7 +1,8 @@
-import { asc, eq } from 'drizzle-orm';
+import { asc, eq, sql } from 'drizzle-orm';
 import type { CurrentUser } from '../../shared/schemas/auth';
 import type { Role } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
+import { perDb } from '../db/prepared';
 import { users } from '../db/schema';
 
 type UserRow = typeof users.$inferSelect;
@@ -17,12 +18,16 @@ export function toCurrentUser(row: UserRow): CurrentUser {
   };
 }
 
+const userByEmail = perDb((db) => db.select().from(users).where(eq(users.email, sql.placeholder('email'))).prepare());
+// Every signed-in request loads its user (passport's deserializeUser).
+const userById = perDb((db) => db.select().from(users).where(eq(users.id, sql.placeholder('id'))).prepare());
+
 export function findUserByEmail(db: Db, email: string): UserRow | undefined {
-  return db.select().from(users).where(eq(users.email, email.toLowerCase())).get();
+  return userByEmail(db).get({ email: email.toLowerCase() });
 }
 
 export function findUserById(db: Db, id: number): UserRow | undefined {
-  return db.select().from(users).where(eq(users.id, id)).get();
+  return userById(db).get({ id });
 }
 
 export function insertUser(
