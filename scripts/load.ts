@@ -7,7 +7,9 @@
 //    map pins, /api/atlas/near, report reads, and signed-in report posts from 50 concurrent writers.
 // 4. Prints per route: requests/s, median and p99 latency, errors and non-2xx answers, and any
 //    "database is locked" seen in answers or the server log; then checks the targets.
-// LOAD_PROFILE=dir profiles the server's CPU.
+// 5. Prints the server's event-loop delay over the traffic (p50/p99/max, the longest stalls) and
+//    the CPU used by this client process, which shares the machine with the server.
+// LOAD_PROFILE=dir profiles the server's CPU, and names what ran during each long stall.
 // Bounded: LOAD_SECONDS (default 20) of traffic; a route missing from the server is skipped with a note.
 import autocannon from 'autocannon';
 import { spawn } from 'node:child_process';
@@ -44,6 +46,69 @@ function serverCpuSeconds(): number {
   } catch {
     return Number.NaN;
   }
+}
+
+interface LoopStats {
+  p50: number;
+  p90: number;
+  p99: number;
+  max: number;
+  stalls: { ms: number; endS: number; endUs: number }[];
+  stallCount: number;
+}
+
+/** The `loop-stats {json}` line the server prints at shutdown (server/lib/loop-stats.ts). */
+function parseLoopStats(text: string): LoopStats | undefined {
+  const line = text.split('\n').find((l) => l.startsWith('loop-stats '));
+  return line ? (JSON.parse(line.slice('loop-stats '.length)) as LoopStats) : undefined;
+}
+
+interface CpuProfile {
+  nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }[];
+  startTime: number;
+  samples: number[];
+  timeDeltas: number[];
+}
+
+/** The main-thread V8 CPU profile the server wrote (file names carry the pid and thread 0). */
+function readServerProfile(dir: string, pid: number): CpuProfile | undefined {
+  const file = fs.readdirSync(dir).find((f) => f.includes(`.${pid}.0.`) && f.endsWith('.cpuprofile'));
+  return file ? (JSON.parse(fs.readFileSync(path.join(dir, file), 'utf8')) as CpuProfile) : undefined;
+}
+
+/**
+ * What the server ran between two moments (µs on the monotonic clock, which V8's profile and
+ * process.hrtime share): the three functions with the most samples whose own code or callees ran,
+ * named by the innermost frame of our own code (server/, shared/) when there is one.
+ */
+function busiestDuring(profile: CpuProfile, fromUs: number, toUs: number): string {
+  const byId = new Map(profile.nodes.map((n) => [n.id, n]));
+  const parent = new Map<number, number>();
+  for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+  const label = (id: number): string => {
+    const own = (n: CpuProfile['nodes'][number]) => /\/(server|shared)\//.test(n.callFrame.url);
+    let cur: number | undefined = id;
+    const leaf = byId.get(id)!;
+    while (cur !== undefined && !own(byId.get(cur)!)) cur = parent.get(cur);
+    const at = (n: CpuProfile['nodes'][number]) => `${n.callFrame.functionName || '(anonymous)'} ${n.callFrame.url.split('/').slice(-2).join('/')}:${n.callFrame.lineNumber + 1}`;
+    return cur === undefined ? at(leaf) : cur === id ? at(leaf) : `${at(byId.get(cur)!)} > ${leaf.callFrame.functionName || '(native)'}`;
+  };
+  const spent = new Map<string, number>();
+  let t = profile.startTime;
+  let busy = 0;
+  for (let i = 0; i < profile.samples.length; i++) {
+    t += profile.timeDeltas[i] ?? 0;
+    if (t < fromUs || t > toUs) continue;
+    const node = byId.get(profile.samples[i]!)!;
+    if (node.callFrame.functionName === '(idle)') continue;
+    const us = profile.timeDeltas[i + 1] ?? 0;
+    busy += us;
+    const key = label(node.id);
+    spent.set(key, (spent.get(key) ?? 0) + us);
+  }
+  const top = [...spent].sort((a, b) => b[1] - a[1]).slice(0, 3);
+  // Much less sampled than wall time: the thread waited for a core (a busy machine), not for its own work.
+  return top.length ? `${(busy / 1000).toFixed(0)} ms sampled: ${top.map(([k, us]) => `${k} ${(us / 1000).toFixed(0)} ms`).join('; ')}` : 'no samples in the window';
 }
 
 async function freePort(): Promise<number> {
@@ -94,6 +159,7 @@ const server = spawn(process.execPath, [...profileArgs, '--import', 'tsx', 'serv
     SYCONIUM_DEV_MAIL: 'false',
     SMTP_HOST: '',
     SESSION_SECRET: 'load-test-secret',
+    SYCONIUM_LOOP_STATS: '1', // server/lib/loop-stats.ts: printed at shutdown
   },
   stdio: ['ignore', 'pipe', 'pipe'],
 });
@@ -226,7 +292,9 @@ try {
   // ---------------------------------------------------------------- 4. mixed traffic, all at once
 
   log(`\nDriving ${active.map((r) => `${r.connections} × ${r.name}`).join(', ')} for ${SECONDS} s at the same time...`);
+  server.kill('SIGUSR2'); // a new event-loop-delay window for the traffic alone
   const cpuBefore = serverCpuSeconds();
+  const clientCpuBefore = process.cpuUsage();
   const wallBefore = performance.now();
   const lockedInAnswers = new Map<string, number>();
   const results = await Promise.all(
@@ -252,6 +320,11 @@ try {
 
   const cpuUsed = serverCpuSeconds() - cpuBefore;
   const wall = (performance.now() - wallBefore) / 1000;
+  const clientCpu = process.cpuUsage(clientCpuBefore);
+  const clientCpuUsed = (clientCpu.user + clientCpu.system) / 1e6;
+  // Stop the server now: it prints its event-loop figures (and writes its CPU profile) on the way out.
+  await stopServer();
+  const loop = parseLoopStats(serverLog);
 
   const lockedInLog = (serverLog.match(/database is locked|SQLITE_BUSY/g) ?? []).length;
   const rows = active.map((route, i) => {
@@ -281,6 +354,14 @@ try {
   if (Number.isFinite(cpuUsed)) {
     // The server's own CPU time does not depend on what else the machine runs: a fairer figure on a shared host.
     log(`Server CPU: ${cpuUsed.toFixed(1)} s over ${wall.toFixed(1)} s of traffic (${((100 * cpuUsed) / wall).toFixed(0)} % of one core), ${((1000 * cpuUsed) / Math.max(1, answered)).toFixed(1)} ms per answered request; machine load average ${os.loadavg()[0]!.toFixed(1)} on ${os.cpus().length} cores`);
+  }
+  log(`Load client CPU (autocannon, this process): ${clientCpuUsed.toFixed(1)} s (${((100 * clientCpuUsed) / wall).toFixed(0)} % of one core)`);
+  if (loop) {
+    log(`Server event loop over the traffic: delay p50 ${loop.p50} ms, p90 ${loop.p90} ms, p99 ${loop.p99} ms, max ${loop.max} ms; ${loop.stallCount} stalls of 100 ms or more`);
+    const profile = process.env.LOAD_PROFILE ? readServerProfile(process.env.LOAD_PROFILE, server.pid!) : undefined;
+    for (const stall of loop.stalls.slice(0, 8)) {
+      log(`  stall ${stall.ms} ms ending ${stall.endS.toFixed(2)} s into the traffic${profile ? `: ${busiestDuring(profile, stall.endUs - stall.ms * 1000, stall.endUs)}` : ''}`);
+    }
   }
 
   const failures: string[] = [];

@@ -4,9 +4,13 @@ import { startMail } from './email';
 import { appJobs } from './jobs/app-jobs';
 import { createScheduler } from './jobs/scheduler';
 import { readConfig } from './lib/config';
+import { startLoopStats } from './lib/loop-stats';
 import { seedDatabase } from './seed';
 
 const config = readConfig();
+// Measuring only (npm run load): event-loop delay, printed at shutdown; SIGUSR2 starts a new window.
+const loopStats = process.env.SYCONIUM_LOOP_STATS === '1' ? startLoopStats() : undefined;
+if (loopStats) process.on('SIGUSR2', () => loopStats.reset());
 const db = createDb(config.dbFile);
 migrateDb(db);
 await seedDatabase(db, config);
@@ -25,6 +29,7 @@ let stopping = false;
 function shutdown(signal: string): void {
   if (stopping) return;
   stopping = true;
+  if (loopStats) console.log(`loop-stats ${JSON.stringify(loopStats.report())}`);
   console.log(`${signal}: shutting down`);
   scheduler.stop();
   // Idle keep-alive connections would hold close() open; requests in flight still finish.
