@@ -2,7 +2,7 @@ import { and, count, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
 import type { CellQuery, PinFilters, PinReportSummary } from '../../shared/schemas/pins';
 import type { Db } from '../db/client';
 import { reports, varieties } from '../db/schema';
-import type { GridCell } from './pin-index';
+import { toGridCell, type GridCell } from './pin-index';
 
 /** Conditions for published reports matching the map's filters. */
 function filterConditions(filters: PinFilters): SQL[] {
@@ -18,16 +18,30 @@ function filterConditions(filters: PinFilters): SQL[] {
   return conditions;
 }
 
-/** Published reports matching the filters, counted per public grid cell. */
-export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
+/**
+ * The query behind `listPinCells`: published reports matching the filters, counted per public grid
+ * cell. Its columns, in order: gridLat, gridLon, reports, firstId (the smallest report id).
+ */
+export function pinCellsQuery(db: Db, filters: PinFilters) {
   const query = db
     .select({ gridLat: reports.gridLat, gridLon: reports.gridLon, reports: count(), firstId: sql<number>`min(${reports.id})` })
     .from(reports)
     .$dynamic();
   // The join is only needed to filter by fig type; without it SQLite reads the reports table alone.
   if (filters.figType) query.leftJoin(varieties, eq(varieties.id, reports.varietyId));
-  const rows = query.where(and(...filterConditions(filters))).groupBy(reports.gridLat, reports.gridLon).all();
-  return rows.map((r) => ({ gridLat: r.gridLat, gridLon: r.gridLon, reports: r.reports, reportId: r.reports === 1 ? r.firstId : null }));
+  return query.where(and(...filterConditions(filters))).groupBy(reports.gridLat, reports.gridLon);
+}
+
+/** The highest report id: a size estimate read from the end of the primary key, in O(log n). */
+export function maxReportId(db: Db): number {
+  return db.select({ id: sql<number | null>`max(${reports.id})` }).from(reports).get()?.id ?? 0;
+}
+
+/** Published reports matching the filters, counted per public grid cell. */
+export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
+  return pinCellsQuery(db, filters)
+    .all()
+    .map((r) => toGridCell(r.gridLat, r.gridLon, r.reports, r.firstId));
 }
 
 const CELL_EPSILON = 1e-6;

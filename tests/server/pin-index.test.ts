@@ -1,5 +1,6 @@
+import Supercluster from 'supercluster';
 import { describe, expect, it } from 'vitest';
-import { buildPinIndex, CLUSTER_MAX_ZOOM, type GridCell } from '../../server/atlas-pins/pin-index';
+import { buildPinIndex, CLUSTER_MAX_ZOOM, CLUSTER_RADIUS_PX, type GridCell } from '../../server/atlas-pins/pin-index';
 import { seededRandom } from '../../server/seed/random';
 import { snapToGrid } from '../../shared/domain/public-grid';
 
@@ -60,6 +61,34 @@ describe('clustering report cells', () => {
     const fiji = index.query({ west: 170, south: -30, east: -170, north: -10 }, 3);
     expect(sum(fiji)).toBe(cells.filter((c) => c.gridLon > 170 || c.gridLon < -170).reduce((n, c) => n + c.reports, 0));
     expect(sum(fiji)).toBeGreaterThan(0);
+  });
+
+  it('answers every view as supercluster itself does (the reference library, queried directly)', () => {
+    const reference = new Supercluster<{ reports: number }, { reports: number }>({
+      radius: CLUSTER_RADIUS_PX,
+      maxZoom: CLUSTER_MAX_ZOOM,
+      minPoints: 2,
+      map: (p) => ({ reports: p.reports }),
+      reduce: (acc, p) => {
+        acc.reports += p.reports;
+      },
+    });
+    reference.load(cells.map((c) => ({ type: 'Feature', geometry: { type: 'Point', coordinates: [c.gridLon, c.gridLat] }, properties: { reports: c.reports } })));
+    const round = (v: number) => Math.round(v * 1e4) / 1e4;
+    const views = [WORLD, { west: -80, south: 40, east: -70, north: 45 }, { west: -74, south: 42.5, east: -73.5, north: 42.8 }, { west: 170, south: -30, east: -170, north: -10 }, { west: -1, south: 51, east: 1, north: 52 }];
+    for (const view of views) {
+      for (const zoom of [0, 2, 5, 8, CLUSTER_MAX_ZOOM, CLUSTER_MAX_ZOOM + 1, 14]) {
+        const expected = reference
+          .getClusters([view.west, view.south, view.east, view.north], zoom)
+          .map((f) => `${round(f.geometry.coordinates[0]!)},${round(f.geometry.coordinates[1]!)},${f.properties.reports},${'cluster' in f.properties ? f.properties.point_count : 1}`)
+          .sort();
+        const actual = index
+          .query(view, zoom)
+          .map((f) => `${f.geometry.coordinates[0]},${f.geometry.coordinates[1]},${f.properties.reports},${f.properties.kind === 'cluster' ? f.properties.cells : 1}`)
+          .sort();
+        expect(actual, `${JSON.stringify(view)} zoom ${zoom}`).toEqual(expected);
+      }
+    }
   });
 
   it('returns nothing for an empty index', () => {
