@@ -4,6 +4,7 @@ import { LABELS } from '@shared/domain/codes';
 import type { Report } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
+import { useCurrentUser } from '../../auth/api';
 import { useDeleteReport, useFlagReport, useHideReport, usePublishReport, useRestoreReport } from '../api';
 import { inputClass } from '../../../components/form-field';
 import { NearbyEvidence } from './nearby-evidence';
@@ -28,7 +29,7 @@ export function ReportDetails({ report }: { report: Report }) {
     ['First ripe fig', formatDate(report.firstRipeDate)],
     ['Last harvest', formatDate(report.lastHarvestDate)],
     ['First fall frost', formatDate(report.fallFrostDate)],
-    ['Pinched the tips', report.pinched ? (formatDate(report.pinchedDate) ?? 'yes') : 'no'],
+    ['Pinched the tips', report.pinched ? (formatDate(report.pinchedDate) ?? 'Yes') : 'No'],
     ['Winter protection', report.winterProtection || null],
     ['Feeding', report.feeding || null],
     ['Watering', report.watering || null],
@@ -97,7 +98,8 @@ export function ReportDetails({ report }: { report: Report }) {
 
       <Actions report={report} />
       <p className="text-xs text-ink/60">
-        Posted {new Date(report.createdAt).toLocaleDateString()} · last changed {new Date(report.updatedAt).toLocaleString()}
+        Posted {new Date(report.createdAt).toLocaleDateString(undefined, { dateStyle: 'medium' })} · last changed{' '}
+        {new Date(report.updatedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
       </p>
     </article>
   );
@@ -134,6 +136,7 @@ function Actions({ report }: { report: Report }) {
   const navigate = useNavigate();
   const remove = useDeleteReport();
   const { viewer } = report;
+  const { user } = useCurrentUser();
   return (
     <div className="flex flex-col gap-4">
       {viewer.isOwner && (
@@ -150,7 +153,14 @@ function Actions({ report }: { report: Report }) {
           </Button>
         </div>
       )}
-      {!viewer.isOwner && report.status === 'published' && <FlagForm report={report} />}
+      {!viewer.isOwner && report.status === 'published' &&
+        (user ? (
+          <FlagForm report={report} />
+        ) : (
+          <Link to={`/sign-in?next=${encodeURIComponent(`/reports/${report.id}`)}`} className="self-start text-sm text-fig-700 underline">
+            Sign in to flag this report as doubtful
+          </Link>
+        ))}
       {viewer.canModerate && <ModerationForm report={report} />}
     </div>
   );
@@ -194,7 +204,7 @@ function FlagForm({ report }: { report: Report }) {
   return (
     <ReasonForm
       label="Why does this report look doubtful?"
-      hint="Editors read every flag. Be specific, e.g. “ripe figs in April in a cold town”. Sign in to flag."
+      hint="Editors read every flag. Be specific, e.g. “ripe figs in April in a cold town”."
       submit="Send flag"
       pending={flag.isPending}
       error={flag.error}
