@@ -153,7 +153,7 @@ function weightedPick<T>(random: () => number, items: readonly T[], weight: (ite
 function varietyWeight(variety: DemoVariety, seasonDays: number, wasp: boolean): number {
   const popularity = { early: 3, mid: 2, late: 1 }[variety.ripeningClass ?? 'mid'];
   let w = popularity;
-  if (seasonDays < 175) w *= variety.ripeningClass === 'early' ? 1.8 : variety.ripeningClass === 'late' ? 0.5 : 1;
+  if (seasonDays < 175) w *= variety.ripeningClass === 'early' ? 1.6 : variety.ripeningClass === 'late' ? 0.6 : 1;
   else if (seasonDays >= 230) w *= variety.ripeningClass === 'late' ? 1.6 : variety.ripeningClass === 'early' ? 0.7 : 1;
   if (variety.figType === 'smyrna') w *= wasp ? 2.5 : 0.5;
   if (variety.figType === 'san-pedro') w *= wasp ? 1.6 : 0.8;
@@ -180,14 +180,20 @@ const TREE_LABELS: Record<GrowingForm, string[]> = {
  */
 export function buildDemoAtlas(options: { growers?: number; seed?: number; now?: Date } = {}): DemoAtlas {
   const growerCount = options.growers ?? DEMO_ATLAS_GROWERS;
-  const random = seededRandom(options.seed ?? 20261203);
+  const seed = options.seed ?? 20261203;
+  // Who lives where comes from its own stream, so tuning the story below never moves a garden.
+  const placeRandom = seededRandom(seed + 1);
+  const random = seededRandom(seed);
   const nowIso = (options.now ?? new Date()).toISOString();
-  const gauss = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
+  const gaussOf = (r: () => number) => () => Math.sqrt(-2 * Math.log(1 - r())) * Math.cos(2 * Math.PI * r());
+  const gauss = gaussOf(random);
+  const placeGauss = gaussOf(placeRandom);
   const varieties = [...DEMO_VARIETIES, ...DEMO_ATLAS_VARIETIES].filter((v) => v.figType !== 'caprifig');
 
   // The story's own towns first (more growers each), then the towns around them.
   const towns: AtlasTown[] = [
-    ...DEMO_TOWNS.map((t) => ({ ...t, weight: 3 })),
+    // Albany, NY (the demo grower's home) and Milwaukee, WI have real stations: the most growers.
+    ...DEMO_TOWNS.map((t) => ({ ...t, weight: t.name === 'Albany, NY' ? 5 : t.name === 'Milwaukee, WI' ? 4 : 3 })),
     ...DEMO_ATLAS_TOWNS.map((t) => ({ ...t, weight: 1.2 })),
   ];
   // Each town's seasons: the year's character plus the town's own luck that year.
@@ -206,16 +212,16 @@ export function buildDemoAtlas(options: { growers?: number; seed?: number; now?:
 
   for (let g = 0; g < growerCount; g++) {
     let name: string;
-    do name = `${pick(random, DEMO_ATLAS_GIVEN_NAMES)} ${pick(random, DEMO_ATLAS_FAMILY_NAMES)}`;
+    do name = `${pick(placeRandom, DEMO_ATLAS_GIVEN_NAMES)} ${pick(placeRandom, DEMO_ATLAS_FAMILY_NAMES)}`;
     while (taken.has(name));
     taken.add(name);
-    const town = weightedPick(random, towns, (t) => t.weight);
+    const town = weightedPick(placeRandom, towns, (t) => t.weight);
     const verified = random() > 0.005;
     growers.push({ name, email: `${slug(name)}@${DEMO_ATLAS_EMAIL_DOMAIN}`, verified, town: town.name });
 
     // A garden within about 30 km of the town centre, most of them closer.
-    const lat = town.lat + clamp(gauss() * 0.1, -0.28, 0.28);
-    const lon = town.lon + clamp((gauss() * 0.1) / Math.cos((town.lat * Math.PI) / 180), -0.38, 0.38);
+    const lat = town.lat + clamp(placeGauss() * 0.1, -0.28, 0.28);
+    const lon = town.lon + clamp((placeGauss() * 0.1) / Math.cos((town.lat * Math.PI) / 180), -0.38, 0.38);
     const grid = toPublicPoint(lat, lon);
     const wasp = inDemoWaspArea(lat, lon);
     const garden = gauss() * 5; // a sheltered yard or a frost pocket
@@ -310,7 +316,7 @@ export function buildDemoAtlas(options: { growers?: number; seed?: number; now?:
         else if (random() < 0.04) outcome = 'dropped'; // a dry July, or roots standing in water
         else {
           const available = seasonDays + start + gauss() * 6;
-          outcome = random() < clamp((available - (need - 10)) / 20, 0, 1) ? 'ripened' : 'unripe';
+          outcome = random() < clamp((available - (need - 5)) / 20, 0, 1) ? 'ripened' : 'unripe';
         }
         let ripe: number | null = null;
         let harvest: number | null = null;
