@@ -1,4 +1,5 @@
-import { NavLink, Outlet } from 'react-router';
+import { useEffect, useRef } from 'react';
+import { NavLink, Outlet, useLocation } from 'react-router';
 import { RequireRole } from '../features/auth/components/require-role';
 import { hasRole, useCurrentUser } from '../features/auth/api';
 
@@ -8,10 +9,14 @@ const tabClass = ({ isActive }: { isActive: boolean }) =>
 /** The editors' workspace: a row of tabs over the selected tool. */
 export default function EditorsRoute() {
   const { user } = useCurrentUser();
+  const { pathname } = useLocation();
+  const tabsRef = useRef<HTMLElement>(null);
+  // On a phone the tabs scroll sideways: keep the open one in view.
+  useEffect(() => tabsRef.current?.querySelector('[aria-current="page"]')?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' }), [pathname]);
   return (
     <RequireRole role="editor">
       <div className="flex h-full flex-col">
-        <nav aria-label="Editors' tools" className="flex gap-1 overflow-x-auto border-b border-fig-100 bg-white px-4 py-2">
+        <nav ref={tabsRef} aria-label="Editors' tools" className="flex gap-1 overflow-x-auto border-b border-fig-100 bg-white px-4 py-2">
           <NavLink to="/editors" end className={tabClass}>
             Overview
           </NavLink>

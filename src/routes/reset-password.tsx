@@ -22,7 +22,7 @@ export default function ResetPasswordRoute() {
         <ResetPasswordForm token={token} onReset={setDone} />
       ) : (
         <p>
-          This link has no token. Please open the whole link from the message, or{' '}
+          This page needs the whole link from the e-mail we sent you (part of it seems to be missing). Open it again from the message, or{' '}
           <Link to="/forgot-password" className="text-fig-600 underline">
             ask for a new one
           </Link>

@@ -24,7 +24,7 @@ export default function UnsubscribeRoute() {
           <Button disabled={!token || unsubscribe.isPending} onClick={() => unsubscribe.mutate(token)}>
             {unsubscribe.isPending ? 'Unsubscribing…' : 'Unsubscribe'}
           </Button>
-          {!token && <p className="text-sm text-ink/80">This link has no token. Please open the whole link from the message.</p>}
+          {!token && <p className="text-sm text-ink/80">This page needs the whole link from the e-mail we sent you (part of it seems to be missing). Open it again from the message.</p>}
           {unsubscribe.error && (
             <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
               {unsubscribe.error.message}

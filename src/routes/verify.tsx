@@ -18,7 +18,7 @@ export default function VerifyRoute() {
 
   return (
     <Page title="Confirm your e-mail">
-      {!token && <p>This link has no token. Please open the whole link from the message we sent you.</p>}
+      {!token && <p>This page needs the whole link from the e-mail we sent you (part of it seems to be missing). Open it again from the message.</p>}
       {verify.isPending && <p className="text-ink/70">Confirming…</p>}
       {verify.isSuccess && (
         <div role="status" className="rounded-md bg-leaf-100 px-4 py-3 text-leaf-700">

@@ -24,6 +24,16 @@ export function ImportForm() {
           importReports.mutate({ file, onProgress: setProgress }, { onSettled: () => setProgress(null) });
         }}
       >
+        <p className="flex flex-wrap items-center gap-3 text-sm text-ink/80">
+          Start from the template, one row per tree, season and crop:
+          <a
+            href="/api/reports/import/template.csv"
+            download
+            className="rounded-md border border-fig-200 bg-white px-3 py-1.5 text-sm font-medium text-fig-700 hover:bg-fig-50"
+          >
+            Download the template (CSV)
+          </a>
+        </p>
         <label htmlFor="import-file" className="text-sm font-medium">
           CSV file
         </label>
@@ -38,11 +48,8 @@ export function ImportForm() {
           }}
         />
         <p className="text-xs text-ink/70">
-          UTF-8 CSV with a header row, up to {IMPORT_MAX_ROWS} rows and 2 MB. Start from the{' '}
-          <a href="/api/reports/import/template.csv" className="text-fig-700 underline" download>
-            template
-          </a>
-          . Every row is checked first: if any row has a problem, nothing is imported and you get the list below.
+          UTF-8 CSV with a header row, up to {IMPORT_MAX_ROWS.toLocaleString()} rows and 2 MB. Every row is checked first: if any row has a problem, nothing is imported and you
+          get the list of what to fix.
         </p>
         {progress !== null && <progress max={1} value={progress} className="h-2 w-48 accent-fig-600" aria-label="Upload progress" />}
         <Button type="submit" className="self-start" disabled={!file || importReports.isPending}>

@@ -1,6 +1,6 @@
 import { bbox } from '@turf/turf';
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import MapGl, { Layer, NavigationControl, Source, type LayerProps, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { closeRing } from '@shared/domain/wasp-geometry';
 import type { WaspAreaCollection, WaspAreaGeometry } from '@shared/schemas/wasp-areas';
@@ -70,6 +70,17 @@ export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing
     return { type: 'FeatureCollection' as const, features };
   }, [draftVertices, preview]);
 
+  // Open on the recorded areas (a few small outlines are hard to find on a whole-continent view).
+  const fittedToAreas = useRef(false);
+  const fitToAreas = useCallback(() => {
+    const map = mapRef.current;
+    if (fittedToAreas.current || !map || !areas?.features.length) return;
+    fittedToAreas.current = true;
+    const [w, s, e, n] = bbox(areas);
+    map.fitBounds([[w, s], [e, n]], { padding: 60, maxZoom: 7, duration: 0 });
+  }, [areas]);
+  useEffect(fitToAreas, [fitToAreas]);
+
   useEffect(() => {
     const map = mapRef.current;
     if (!map || !focus) return;
@@ -103,6 +114,7 @@ export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing
         cursor={drawing ? 'crosshair' : 'grab'}
         onClick={onClick}
         onIdle={onIdle}
+        onLoad={fitToAreas}
         doubleClickZoom={!drawing}
         attributionControl={false}
       >

@@ -37,8 +37,8 @@ export function WaspAreaTable({ selectedId, onSelect, onEdit }: { selectedId: nu
       }),
       column.accessor('observedOn', { header: 'Observed' }),
       column.accessor('source', { header: 'Source', enableSorting: false, cell: (c) => <span className="line-clamp-2 max-w-xs text-ink/80">{c.getValue()}</span> }),
-      column.accessor('areaKm2', { header: 'Size', cell: (c) => <span className="tabular-nums">{Math.round(c.getValue()).toLocaleString()} km²</span> }),
-      column.accessor('vertexCount', { header: 'Vertices', cell: (c) => <span className="tabular-nums">{c.getValue()}</span> }),
+      column.accessor('areaKm2', { header: 'Size', cell: (c) => <span className="whitespace-nowrap tabular-nums">{Math.round(c.getValue()).toLocaleString()} km²</span> }),
+      column.accessor('vertexCount', { header: 'Corners', cell: (c) => <span className="tabular-nums">{c.getValue()}</span> }),
       column.accessor('createdBy', { header: 'Recorded by', cell: (c) => c.getValue() ?? '—' }),
       column.display({
         id: 'actions',
