@@ -178,6 +178,8 @@ export const reports = sqliteTable(
     index('reports_variety_idx').on(t.varietyId),
     index('reports_status_created_idx').on(t.status, t.createdAt),
     index('reports_grid_idx').on(t.gridLat, t.gridLon),
+    // Covers the map pins' count per grid cell and its filters: SQLite reads the index alone, in cell order.
+    index('reports_pins_idx').on(t.status, t.gridLat, t.gridLon, t.varietyId, t.crop, t.outcome, t.form, t.season),
   ],
 );
 

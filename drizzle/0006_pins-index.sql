@@ -1,0 +1,1 @@
+CREATE INDEX `reports_pins_idx` ON `reports` (`status`,`grid_lat`,`grid_lon`,`variety_id`,`crop`,`outcome`,`form`,`season`);
