@@ -47,7 +47,7 @@ export function AppShell() {
   const account = user ? (
     <>
       <NavLink to="/account" className={navClass}>
-        {user.displayName} <span className="text-ink/60">· {LABELS.role[user.role]}</span>
+        {user.displayName} <span className="text-ink/70">· {LABELS.role[user.role]}</span>
       </NavLink>
       <button
         type="button"

@@ -65,7 +65,7 @@ const readable = (s: string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)
 /** Before → after for the keys that changed, one line each. */
 export function ChangeList({ before, after }: { before: unknown; after: unknown }) {
   const changes = auditChanges(before, after);
-  if (changes.length === 0) return <span className="text-ink/60">no field changed</span>;
+  if (changes.length === 0) return <span className="text-ink/70">no field changed</span>;
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-xs">
       {changes.slice(0, 12).map((c) => (
@@ -76,7 +76,7 @@ export function ChangeList({ before, after }: { before: unknown; after: unknown 
           </dd>
         </div>
       ))}
-      {changes.length > 12 && <dd className="col-span-2 text-ink/60">…{changes.length - 12} more</dd>}
+      {changes.length > 12 && <dd className="col-span-2 text-ink/70">…{changes.length - 12} more</dd>}
     </dl>
   );
 }
@@ -98,7 +98,7 @@ export function AuditTable() {
   const columns = useMemo(
     () => [
       column.accessor('createdAt', { header: 'When', cell: (c) => <time dateTime={c.getValue()} className="whitespace-nowrap tabular-nums">{new Date(c.getValue()).toLocaleString()}</time> }),
-      column.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? <span className="text-ink/60">system</span> }),
+      column.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? <span className="text-ink/70">system</span> }),
       column.accessor('action', { header: 'What', cell: (c) => <span title={c.getValue()}>{actionLabel(c.getValue())}</span> }),
       column.accessor((e) => `${e.entityType}${e.entityId ? ` #${e.entityId}` : ''}`, {
         id: 'entity',

@@ -15,7 +15,7 @@ export function CauseList({ causes }: { causes: Cause[] }) {
       {causes.map((c, i) => (
         <li key={c.code} className="rounded-lg border border-fig-100 bg-white p-4" data-testid="cause">
           <div className="flex flex-wrap items-baseline gap-2">
-            <span className="text-sm font-semibold text-ink/60">{i + 1}.</span>
+            <span className="text-sm font-semibold text-ink/70">{i + 1}.</span>
             <h3 className="text-lg font-semibold text-fig-900">{c.title}</h3>
             <span className={`ml-auto rounded-full px-2 py-0.5 text-xs font-medium ${BADGE[c.likelihood]}`}>{WORDS[c.likelihood]}</span>
           </div>

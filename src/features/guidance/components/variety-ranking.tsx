@@ -41,7 +41,7 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
   return (
     <li className={`rounded-lg border bg-white p-4 ${blocked ? 'border-dashed border-fig-300' : 'border-fig-100'}`} data-testid="variety-row">
       <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
-        <span className="text-sm font-semibold text-ink/60">#{v.rank}</span>
+        <span className="text-sm font-semibold text-ink/70">#{v.rank}</span>
         <h3 className="text-lg font-semibold text-fig-900">{v.name}</h3>
         {v.isFictional && <span className="rounded bg-fig-50 px-1.5 text-xs text-fig-700">fictional (demo)</span>}
         <span className="text-sm text-ink/70">{LABELS.figType[v.figType]}</span>

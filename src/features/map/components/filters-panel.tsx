@@ -19,7 +19,7 @@ function Field({ label, hint, children }: { label: string; hint?: string; childr
       </label>
       {children(id, hint ? `${id}-hint` : undefined)}
       {hint && (
-        <p id={`${id}-hint`} className="text-xs text-ink/60">
+        <p id={`${id}-hint`} className="text-xs text-ink/70">
           {hint}
         </p>
       )}
@@ -162,14 +162,14 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           <input type="checkbox" className="mt-0.5 h-4 w-4 accent-leaf-700" checked={overlays.includes('wasp')} onChange={(e) => toggle('wasp', e.target.checked)} />
           <span>
             Fig wasp established
-            <span className="block text-xs text-ink/60">Areas where editors recorded the pollinating wasp.</span>
+            <span className="block text-xs text-ink/70">Areas where editors recorded the pollinating wasp.</span>
           </span>
         </label>
         <label className="flex items-start gap-2 text-sm">
           <input type="checkbox" className="mt-0.5 h-4 w-4 accent-fig-600" checked={overlays.includes('frost')} onChange={(e) => toggle('frost', e.target.checked)} />
           <span>
             Frost-free season
-            <span className="block text-xs text-ink/60">Climate stations, coloured by days between frosts (32 °F) in half the years.</span>
+            <span className="block text-xs text-ink/70">Climate stations, coloured by days between frosts (32 °F) in half the years.</span>
           </span>
         </label>
       </fieldset>
@@ -178,7 +178,7 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
         <button type="button" onClick={copyLink} className="rounded-md border border-fig-200 bg-white px-3 py-1.5 text-sm font-medium text-fig-700 hover:bg-fig-50">
           {copied ? 'Link copied' : 'Copy a link to this view'}
         </button>
-        <p className="mt-1 text-xs text-ink/60">The link keeps the filters, layers and where the map is.</p>
+        <p className="mt-1 text-xs text-ink/70">The link keeps the filters, layers and where the map is.</p>
       </div>
     </div>
   );

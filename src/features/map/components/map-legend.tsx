@@ -13,7 +13,7 @@ export function MapLegend({ overlays, openAtStart }: { overlays: OverlayName[]; 
     <section aria-label="Map legend" className="pointer-events-auto max-w-[15rem] rounded-lg border border-fig-100 bg-paper/95 text-xs text-ink shadow-sm backdrop-blur">
       <button type="button" aria-expanded={open} onClick={() => setOpen(!open)} className="flex w-full items-center justify-between gap-3 px-3 py-1.5 font-medium text-fig-700">
         Legend
-        <span aria-hidden className="text-ink/50">
+        <span aria-hidden className="text-ink/70">
           {open ? '−' : '+'}
         </span>
       </button>
@@ -50,8 +50,8 @@ export function MapLegend({ overlays, openAtStart }: { overlays: OverlayName[]; 
               </ul>
             </div>
           )}
-          <p className="mt-2 text-[11px] leading-snug text-ink/60">Pins sit on a coarse grid to keep growers’ gardens private.</p>
-          <p className="mt-1 text-[10px] leading-snug text-ink/50">Map data: Natural Earth, US Census Bureau, GeoNames (CC BY).</p>
+          <p className="mt-2 text-[11px] leading-snug text-ink/70">Pins sit on a coarse grid to keep growers’ gardens private.</p>
+          <p className="mt-1 text-[10px] leading-snug text-ink/70">Map data: Natural Earth, US Census Bureau, GeoNames (CC BY).</p>
         </div>
       )}
     </section>

@@ -28,7 +28,7 @@ export function CellPopup({ lat, lon, reports, filters }: { lat: number; lon: nu
   return (
     <div className="text-sm text-ink" aria-live="polite">
       <p className="pr-6 font-semibold text-fig-900">{total === 1 ? 'One report here' : `${total} reports on this cell`}</p>
-      <p className="text-xs text-ink/60">Shown on a ~5 km grid cell, never the grower’s exact spot.</p>
+      <p className="text-xs text-ink/70">Shown on a ~5 km grid cell, never the grower’s exact spot.</p>
       {cell.isPending && <p className="mt-2 text-ink/70">Loading…</p>}
       {cell.isError && <p className="mt-2 text-red-700">Could not load these reports. Try again.</p>}
       <ul className="mt-2 flex max-h-64 flex-col gap-2 overflow-y-auto">
@@ -36,7 +36,7 @@ export function CellPopup({ lat, lon, reports, filters }: { lat: number; lon: nu
           <li key={r.id} className="rounded-md border border-fig-100 bg-white p-2">
             <div className="flex items-baseline justify-between gap-2">
               <span className="font-medium text-fig-700">{r.varietyName}</span>
-              <span className="text-xs text-ink/60">{r.season}</span>
+              <span className="text-xs text-ink/70">{r.season}</span>
             </div>
             <p className="text-xs text-ink/70">{LABELS.figType[r.figType]}</p>
             <p className="mt-1 flex flex-wrap items-center gap-1 text-xs">
@@ -50,7 +50,7 @@ export function CellPopup({ lat, lon, reports, filters }: { lat: number; lon: nu
           </li>
         ))}
       </ul>
-      {total > shown.length && cell.data && <p className="mt-2 text-xs text-ink/60">and {total - shown.length} more here; zoom in or narrow the filters.</p>}
+      {total > shown.length && cell.data && <p className="mt-2 text-xs text-ink/70">and {total - shown.length} more here; zoom in or narrow the filters.</p>}
       <Link to={hereLink(lat, lon)} className="mt-2 inline-block text-xs font-medium text-leaf-700 underline underline-offset-2">
         What ripens around here
       </Link>

@@ -110,8 +110,8 @@ export function PlaceSearch({ onGo }: { onGo: (view: MapView) => void }) {
       )}
       {open && q.trim().length >= 2 && (
         <ul id={listId} role="listbox" aria-label="Matching towns" className="absolute z-10 mt-1 max-h-72 w-full overflow-y-auto rounded-lg border border-fig-100 bg-white py-1 text-sm shadow-lg">
-          {search.isPending && <li className="px-3 py-2 text-ink/60">Searching…</li>}
-          {!search.isPending && places.length === 0 && <li className="px-3 py-2 text-ink/60">No town of that name in the gazetteer.</li>}
+          {search.isPending && <li className="px-3 py-2 text-ink/70">Searching…</li>}
+          {!search.isPending && places.length === 0 && <li className="px-3 py-2 text-ink/70">No town of that name in the gazetteer.</li>}
           {places.map((place, i) => (
             <li
               key={place.id}
@@ -123,7 +123,7 @@ export function PlaceSearch({ onGo }: { onGo: (view: MapView) => void }) {
               onMouseEnter={() => setActive(i)}
               className={`cursor-pointer px-3 py-1.5 ${i === active ? 'bg-fig-50' : ''}`}
             >
-              <span className="font-medium text-ink">{place.name}</span> <span className="text-xs text-ink/60">{place.context}</span>
+              <span className="font-medium text-ink">{place.name}</span> <span className="text-xs text-ink/70">{place.context}</span>
             </li>
           ))}
         </ul>

@@ -53,7 +53,7 @@ export function MyReportsTable() {
         cell: ({ row, getValue }) => (
           <Link to={`/reports/${row.original.id}`} className="font-medium text-fig-700 underline-offset-2 hover:underline">
             {getValue()}
-            {row.original.varietyStatus === 'proposed' && <span className="ml-1 text-xs font-normal text-ink/60">(proposed)</span>}
+            {row.original.varietyStatus === 'proposed' && <span className="ml-1 text-xs font-normal text-ink/70">(proposed)</span>}
           </Link>
         ),
       }),

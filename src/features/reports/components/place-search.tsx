@@ -32,7 +32,7 @@ export function PlaceSearch({ onPick }: { onPick: (place: { lat: number; lon: nu
                   setText('');
                 }}
               >
-                <span className="font-medium">{place.name}</span> <span className="text-ink/60">{place.context}</span>
+                <span className="font-medium">{place.name}</span> <span className="text-ink/70">{place.context}</span>
               </button>
             </li>
           ))}

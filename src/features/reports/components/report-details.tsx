@@ -97,7 +97,7 @@ export function ReportDetails({ report }: { report: Report }) {
       </section>
 
       <Actions report={report} />
-      <p className="text-xs text-ink/60">
+      <p className="text-xs text-ink/70">
         Posted {new Date(report.createdAt).toLocaleDateString(undefined, { dateStyle: 'medium' })} · last changed{' '}
         {new Date(report.updatedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
       </p>

@@ -286,7 +286,7 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
               <input type="radio" value={code} className="accent-fig-600" {...register('outcome')} />
               <span>
                 {LABELS.outcome[code]}
-                <span className="block text-xs text-ink/60">{OUTCOME_HINTS[code]}</span>
+                <span className="block text-xs text-ink/70">{OUTCOME_HINTS[code]}</span>
               </span>
             </label>
           ))}

@@ -101,7 +101,7 @@ export function VarietyPicker({ varietyId, varietyName, proposedName, onChoose, 
               <button type="button" className="flex w-full flex-col items-start px-3 py-2 text-left hover:bg-fig-50" onClick={() => onChoose({ id: variety.id, name: variety.name })}>
                 <span className="font-medium">
                   {variety.name}
-                  {variety.isFictional && <span className="ml-2 text-xs font-normal text-ink/60">fictional</span>}
+                  {variety.isFictional && <span className="ml-2 text-xs font-normal text-ink/70">fictional</span>}
                 </span>
                 <span className="text-xs text-ink/70">
                   {LABELS.figType[variety.figType]}

@@ -105,7 +105,7 @@ function FreezeChart({ detail }: { detail: StationDetail }) {
             <YAxis domain={[1, 366]} ticks={[1, 60, 121, 182, 244, 305, 366]} tickFormatter={(v: number) => formatDoy(v)} tick={{ fontSize: 12 }} width={56} />
             <Tooltip formatter={(value) => formatDoy(Number(value))} labelFormatter={(label) => `Year ${label}`} />
             <Legend />
-            <Line name="Last spring freeze" dataKey="spring" stroke="#5e8a57" dot={{ r: 2 }} strokeWidth={1} connectNulls={false} isAnimationActive={false} />
+            <Line name="Last spring freeze" dataKey="spring" stroke="#3d5e39" dot={{ r: 2 }} strokeWidth={1} connectNulls={false} isAnimationActive={false} />
             <Line name="First fall freeze" dataKey="fall" stroke="#8e4f73" dot={{ r: 2 }} strokeWidth={1} connectNulls={false} isAnimationActive={false} />
             {median?.lastSpringDoy != null && <ReferenceLine y={median.lastSpringDoy} stroke="#3d5e39" strokeDasharray="5 4" label={{ value: `50 % spring ${formatDoy(median.lastSpringDoy)}`, fontSize: 11, position: 'insideTopLeft' }} />}
             {median?.firstFallDoy != null && <ReferenceLine y={median.firstFallDoy} stroke="#552c48" strokeDasharray="5 4" label={{ value: `50 % fall ${formatDoy(median.firstFallDoy)}`, fontSize: 11, position: 'insideBottomLeft' }} />}

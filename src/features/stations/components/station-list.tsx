@@ -34,11 +34,11 @@ export function StationList({ selectedId, onDeleted }: { selectedId: number | nu
                 <Link to={`/editors/stations/${station.id}`} className="font-medium text-fig-700 hover:underline" aria-current={station.id === selectedId ? 'page' : undefined}>
                   {station.name}
                 </Link>
-                {station.code && <div className="text-xs text-ink/60">{station.code}</div>}
+                {station.code && <div className="text-xs text-ink/70">{station.code}</div>}
               </td>
               <td className="px-3 py-2 text-ink/80">
                 {station.firstDate?.slice(0, 4) ?? '—'}–{station.lastDate?.slice(0, 4) ?? '—'}
-                <div className="text-xs text-ink/60">{station.dayCount.toLocaleString()} days</div>
+                <div className="text-xs text-ink/70">{station.dayCount.toLocaleString()} days</div>
               </td>
               <td className="px-3 py-2 text-right tabular-nums">{station.days50 === null ? '—' : `${station.days50} days`}</td>
               <td className="px-3 py-2 text-right">

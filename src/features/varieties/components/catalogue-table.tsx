@@ -43,7 +43,7 @@ export function CatalogueTable({ status, onStatusChange, actions }: { status: Va
         cell: (c) => (
           <div>
             <div className="font-medium text-fig-900">
-              {c.getValue()} {c.row.original.isFictional && <span className="text-xs font-normal text-ink/60">(fictional)</span>}
+              {c.getValue()} {c.row.original.isFictional && <span className="text-xs font-normal text-ink/70">(fictional)</span>}
             </div>
             {c.row.original.synonyms.length > 0 && <div className="text-xs text-ink/70">also {c.row.original.synonyms.join(', ')}</div>}
           </div>
