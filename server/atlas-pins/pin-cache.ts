@@ -13,8 +13,9 @@ const MAX_CACHED_FILTER_SETS = 24;
  * most this plus one rebuild. A small atlas (the demo, the tests) is always answered fresh.
  */
 export const MAX_STALE_MS = 5_000;
-/** A build in the request thread slower than this marks a large atlas. */
+/** A build in the request thread slower than this, of at least `SLOW_MIN_CELLS` cells, marks a large atlas. */
 export const SLOW_MS = 50;
+const SLOW_MIN_CELLS = 1_000;
 /** An atlas with this many reports (by the highest id) is large from its first build on. */
 export const LARGE_ATLAS_REPORTS = 20_000;
 
@@ -44,8 +45,9 @@ interface Entry {
 export interface PinCacheOptions {
   /**
    * Count cells in a worker thread: `true` always (a database file only), `false` never,
-   * `'auto'` (the default) for an atlas of `LARGE_ATLAS_REPORTS` or more, or once a build in the
-   * request thread took `SLOW_MS` or more.
+   * `'auto'` (the default) for an atlas of `LARGE_ATLAS_REPORTS` or more, or once a build of many
+   * cells in the request thread took `SLOW_MS` or more. The demo and the tests stay in the request
+   * thread, always fresh.
    */
   worker?: boolean | 'auto';
   maxStaleMs?: number;
@@ -88,7 +90,8 @@ export function createPinCache(db: Db, options: PinCacheOptions = {}) {
     const clusterStarted = performance.now();
     const index = pinIndexFromLayers(buildPinLayers(cells));
     lastBuild = { where: 'thread', queryMs: clusterStarted - started, clusterMs: performance.now() - clusterStarted, cells: cells.length };
-    if (canUseWorker && performance.now() - started >= SLOW_MS) offThread = true;
+    // Only an atlas with many cells is slow by size; a few cells built slowly mean a busy machine.
+    if (canUseWorker && cells.length >= SLOW_MIN_CELLS && performance.now() - started >= SLOW_MS) offThread = true;
     return store(key, { version: String(version), index, readAt });
   };
 

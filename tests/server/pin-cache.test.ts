@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, migrateDb } from '../../server/db/client';
-import { createPinCache } from '../../server/atlas-pins/pin-cache';
+import { createPinCache, LARGE_ATLAS_REPORTS } from '../../server/atlas-pins/pin-cache';
 import { listPinCells } from '../../server/atlas-pins/pins.repo';
 import { reports, trees, users, varieties } from '../../server/db/schema';
 import { snapToGrid } from '../../shared/domain/public-grid';
@@ -116,6 +116,17 @@ describe('pin cache on a small atlas', () => {
     expect(total(await cache.get({}))).toBe(total(before) + 1);
     db.delete(reports).where(eq(reports.id, id)).run();
     expect(total(await cache.get({}))).toBe(total(before));
+  });
+
+  it('takes a large atlas (by its highest report id) to the worker from the first request', async () => {
+    const large = createTestDb().db;
+    const u = large.insert(users).values({ email: 'large@example.com', displayName: 'Large', passwordHash: 'x' }).returning().get().id;
+    const t = large.insert(trees).values({ userId: u, label: 'large tree' }).returning().get().id;
+    large.insert(reports).values({ id: LARGE_ATLAS_REPORTS, userId: u, treeId: t, lat: 1, lon: 1, gridLat: 1, gridLon: 1, form: 'ground', season: 2024, crop: 'main', outcome: 'ripened' }).run();
+    const cache = cacheFor(large);
+    expect(total(await cache.get({}))).toBe(1);
+    expect(cache.lastBuild()?.where).toBe('worker');
+    expect(cacheFor(db).offThread()).toBe(false);
   });
 
   it('never starts a worker for an in-memory database', async () => {
