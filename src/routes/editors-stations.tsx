@@ -1,3 +1,4 @@
+import { useEffect, useRef } from 'react';
 import { useNavigate, useParams } from 'react-router';
 import { StationDetailView } from '../features/stations/components/station-detail';
 import { StationList } from '../features/stations/components/station-list';
@@ -8,6 +9,11 @@ export default function EditorsStationsRoute() {
   const { stationId } = useParams();
   const navigate = useNavigate();
   const selectedId = stationId ? Number(stationId) : null;
+  const detailRef = useRef<HTMLDivElement>(null);
+  // The chosen station's dates sit below the list and the upload form: bring them into view.
+  useEffect(() => {
+    if (selectedId !== null) detailRef.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+  }, [selectedId]);
   return (
     <div className="mx-auto max-w-6xl px-4 py-8">
       <h1 className="text-2xl font-semibold text-fig-900">Climate stations</h1>
@@ -29,7 +35,7 @@ export default function EditorsStationsRoute() {
           <StationUploadForm onUploaded={(id) => navigate(`/editors/stations/${id}`)} />
         </section>
       </div>
-      <div className="mt-10">
+      <div ref={detailRef} className="mt-10 scroll-mt-4">
         {selectedId !== null && Number.isInteger(selectedId) ? <StationDetailView id={selectedId} /> : <p className="text-ink/70">Choose a station to see its freeze dates.</p>}
       </div>
     </div>

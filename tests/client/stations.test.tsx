@@ -22,10 +22,12 @@ describe('station upload form', () => {
     renderForm();
     await userEvent.type(screen.getByLabelText('Latitude'), '123');
     await userEvent.click(screen.getByRole('button', { name: 'Upload and compute' }));
-    expect(await screen.findByText('name is required')).toBeVisible();
-    expect(screen.getByText('lat must be between -90 and 90')).toBeVisible();
+    expect(await screen.findByText('Give the station a name')).toBeVisible();
+    expect(screen.getByText('Latitude must be between -90 and 90')).toBeVisible();
     expect(screen.getByText('Please choose a CSV file')).toBeVisible();
     expect(screen.getByLabelText('Latitude')).toHaveAttribute('aria-invalid', 'true');
+    // The first problem on the form takes the focus, so the editor starts there.
+    expect(screen.getByLabelText('Station name')).toHaveFocus();
     expect(send).not.toHaveBeenCalled();
     send.mockRestore();
   });

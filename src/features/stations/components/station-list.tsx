@@ -19,8 +19,8 @@ export function StationList({ selectedId, onDeleted }: { selectedId: number | nu
           <tr>
             <th className="px-3 py-2 font-medium">Station</th>
             <th className="px-3 py-2 font-medium">Record</th>
-            <th className="px-3 py-2 text-right font-medium" title="Frost-free days at 32 °F in half the years">
-              Season (50 %)
+            <th className="whitespace-nowrap px-3 py-2 text-right font-medium" title="Frost-free days at 32 °F in half the years">
+              Typical season
             </th>
             <th className="px-3 py-2">
               <span className="sr-only">Actions</span>
@@ -36,11 +36,11 @@ export function StationList({ selectedId, onDeleted }: { selectedId: number | nu
                 </Link>
                 {station.code && <div className="text-xs text-ink/70">{station.code}</div>}
               </td>
-              <td className="px-3 py-2 text-ink/80">
+              <td className="whitespace-nowrap px-3 py-2 text-ink/80">
                 {station.firstDate?.slice(0, 4) ?? '—'}–{station.lastDate?.slice(0, 4) ?? '—'}
                 <div className="text-xs text-ink/70">{station.dayCount.toLocaleString()} days</div>
               </td>
-              <td className="px-3 py-2 text-right tabular-nums">{station.days50 === null ? '—' : `${station.days50} days`}</td>
+              <td className="whitespace-nowrap px-3 py-2 text-right tabular-nums">{station.days50 === null ? '—' : `${station.days50} days`}</td>
               <td className="px-3 py-2 text-right">
                 <Button
                   variant="quiet"

@@ -1,7 +1,7 @@
-import { useState, type FormEvent } from 'react';
+import { useRef, useState, type FormEvent } from 'react';
 import { stationUploadFieldsSchema } from '@shared/schemas/stations';
 import { Button } from '../../../components/button';
-import { FormField } from '../../../components/form-field';
+import { FormField, useFocusFirstInvalid } from '../../../components/form-field';
 import { useStationUpload } from '../api';
 
 type FieldErrors = Record<string, string[] | undefined>;
@@ -17,6 +17,9 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
   const serverErrors: FieldErrors = phase.state === 'failed' ? phase.error.fields : {};
   const errors: FieldErrors = { ...serverErrors, ...localErrors };
   const fileErrors = errors.file ?? [];
+  const formRef = useRef<HTMLFormElement>(null);
+  const [attempts, setAttempts] = useState(0);
+  useFocusFirstInvalid(formRef, { submitCount: attempts, isSubmitting: false, hasErrors: Object.keys(localErrors).length > 0 });
 
   async function submit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -28,13 +31,14 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
     const file = form.get('file');
     if (!(file instanceof File) || file.size === 0) next.file = ['Please choose a CSV file'];
     setLocalErrors(next);
+    setAttempts((n) => n + 1);
     if (Object.keys(next).length > 0) return;
     const detail = await upload(form);
     if (detail) onUploaded(detail.station.id);
   }
 
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-4 rounded-lg border border-fig-100 bg-white p-5" aria-label="Upload a station">
+    <form ref={formRef} onSubmit={submit} noValidate className="flex flex-col gap-4 rounded-lg border border-fig-100 bg-white p-5" aria-label="Upload a station">
       <div className="grid gap-4 sm:grid-cols-2">
         <FormField label="Station name" name="name" required error={errors.name?.[0]} hint="As people know it, e.g. “Albany International Airport, NY”." />
         <FormField label="Station code" name="code" error={errors.code?.[0]} hint="Optional, e.g. a GHCN id. Uploading again with the same code replaces that station’s data." />
