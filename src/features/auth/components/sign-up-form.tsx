@@ -21,7 +21,14 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
         error={errors.displayName?.message ?? serverFields.displayName?.[0]}
         {...form.register('displayName')}
       />
-      <FormField label="E-mail" type="email" autoComplete="email" error={errors.email?.message ?? serverFields.email?.[0]} {...form.register('email')} />
+      <FormField
+        label="E-mail"
+        type="email"
+        autoComplete="email"
+        hint="We send a link to confirm it; it is never shown with your reports."
+        error={errors.email?.message ?? serverFields.email?.[0]}
+        {...form.register('email')}
+      />
       <FormField
         label="Password"
         type="password"
