@@ -1,9 +1,11 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
+import { Link } from 'react-router';
 import { LABELS } from '@shared/domain/codes';
 import { SUSPICION_RULES, type SuspicionRule } from '@shared/domain/moderation-rules';
 import { MODERATION_KINDS, type ModerationItem, type ModerationKind } from '@shared/schemas/moderation';
 import { Button } from '../../../components/button';
+import { Field, inputClass } from '../../../components/form-field';
 import { filterClass, Pager, type PageState } from '../../editors/components/data-table';
 import { moderationQueries, useClearFlag, useHideFromQueue, useMarkReviewed, useRestoreFromQueue } from '../api';
 
@@ -99,7 +101,10 @@ function QueueCard({ item }: { item: ModerationItem }) {
           {report.varietyName ?? 'Unnamed variety'} · {report.season} {report.crop === 'breba' ? 'breba' : 'main crop'} · {LABELS.outcome[report.outcome]}
         </h3>
         <span className="text-xs text-ink/70">
-          Report #{report.id} by {report.grower} · {LABELS.growingForm[report.form]} · {report.lat.toFixed(3)}, {report.lon.toFixed(3)}
+          <Link to={`/reports/${report.id}`} className="text-fig-700 underline">
+            Report #{report.id}
+          </Link>{' '}
+          by {report.grower} · {LABELS.growingForm[report.form]} · {report.lat.toFixed(3)}, {report.lon.toFixed(3)}
         </span>
       </div>
       <dl className="mt-2 flex flex-wrap gap-x-5 gap-y-1 text-sm">
@@ -153,10 +158,9 @@ function QueueCard({ item }: { item: ModerationItem }) {
               hide.mutate({ id: report.id, reason });
             }}
           >
-            <label className="flex flex-col gap-1 text-sm">
-              <span className="font-medium">Reason the grower will see</span>
-              <textarea className="rounded-md border border-fig-200 px-2 py-1" rows={2} value={reason} onChange={(e) => setReason(e.target.value)} />
-            </label>
+            <Field label="Reason the grower will see" hint="Plain and specific, e.g. “The first ripe date comes before the spring frost: please check the dates.” The grower can correct the report.">
+              {(props) => <textarea {...props} autoFocus className={inputClass} rows={2} value={reason} onChange={(e) => setReason(e.target.value)} />}
+            </Field>
             <div className="flex gap-2">
               <Button type="submit" variant="danger" disabled={hide.isPending}>
                 Hide report
