@@ -1,11 +1,11 @@
-import type { Statement } from 'better-sqlite3';
 import type { GrowingForm } from '../../shared/domain/codes';
 import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
-import type { TreeEvidence } from '../../shared/domain/ripening-stats';
+import { overallFromParts, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
 import type { VarietyInfo } from '../../shared/domain/evidence';
 import type { StationSeason } from '../../shared/domain/season-estimate';
 import { stationsInBoxes } from '../stations/stations.repo';
 import type { Db } from '../db/client';
+import { statement } from '../db/prepared';
 
 /*
  * Row gathering for the regional engine: R*Tree bounding boxes, then the exact great-circle
@@ -27,24 +27,16 @@ const NEAR_TREES_SQL = `
     CROSS JOIN tree_evidence e ON e.id = t.id
    WHERE t.min_lat <= ? AND t.max_lat >= ? AND t.min_lon <= ? AND t.max_lon >= ?`;
 
-const ALL_TREES_SQL = `
-  SELECT 0, tree_id, user_id, variety_id, form, 0, 0, reports, ripened, breba_reports, breba_ripened, NULL, frost_to_ripe_days, NULL
-    FROM tree_evidence ORDER BY variety_id`;
-
-const statementCache = new WeakMap<Db, Map<string, Statement>>();
-
-/** A prepared statement per database, prepared once (the hot path runs it on every request). */
-function statement(db: Db, sql: string, raw = false): Statement {
-  let perDb = statementCache.get(db);
-  if (!perDb) statementCache.set(db, (perDb = new Map()));
-  let prepared = perDb.get(sql);
-  if (!prepared) {
-    prepared = db.sqlite.prepare(sql);
-    if (raw) prepared.raw(true);
-    perDb.set(sql, prepared);
-  }
-  return prepared;
-}
+// A variety's overall figures in two passes over covering indexes (drizzle/0005_tree-evidence-overall.sql):
+// the mean of its trees' ripened fractions, and each in-ground tree's main-crop days lists.
+const OVERALL_SHARE_SQL = `
+  SELECT variety_id, avg(fraction)
+    FROM (SELECT variety_id, tree_id, CAST(sum(ripened) AS real) / sum(reports) AS fraction FROM tree_evidence GROUP BY variety_id, tree_id)
+   GROUP BY variety_id`;
+const OVERALL_NEED_SQL = `
+  SELECT variety_id, group_concat(frost_to_ripe_days)
+    FROM tree_evidence WHERE form = 'ground' AND frost_to_ripe_days IS NOT NULL
+   GROUP BY variety_id, tree_id`;
 
 const NO_NUMBERS: number[] = [];
 
@@ -96,15 +88,19 @@ export function treesNear(db: Db, point: LatLon, radiusKm: number): NearTree[] {
   return result;
 }
 
-/** Every tree row of every variety (for the variety's overall figures), grouped by variety. */
-export function treesByVariety(db: Db): Map<number, TreeEvidence[]> {
-  const byVariety = new Map<number, TreeEvidence[]>();
-  for (const row of statement(db, ALL_TREES_SQL, true).iterate() as IterableIterator<TreeTuple>) {
-    let list = byVariety.get(row[3]);
-    if (!list) byVariety.set(row[3], (list = []));
-    list.push(toTree(row, 0));
+/** Each variety's figures over all its trees everywhere (the same as varietyOverall on all its rows). */
+export function overallFigures(db: Db): Map<number, VarietyOverall> {
+  const needByVariety = new Map<number, number[][]>();
+  for (const [varietyId, days] of statement(db, OVERALL_NEED_SQL, true).all() as [number, string][]) {
+    let list = needByVariety.get(varietyId);
+    if (!list) needByVariety.set(varietyId, (list = []));
+    list.push(numbers(days));
   }
-  return byVariety;
+  const overall = new Map<number, VarietyOverall>();
+  for (const [varietyId, share] of statement(db, OVERALL_SHARE_SQL, true).all() as [number, number][]) {
+    overall.set(varietyId, overallFromParts(share, needByVariety.get(varietyId) ?? []));
+  }
+  return overall;
 }
 
 /** Accepted varieties of the catalogue, by id (a small table: read on each request). */
@@ -156,14 +152,4 @@ export function stationSeasonsNear(db: Db, point: LatLon, radiusKm: number): Sta
     }
   }
   return [...byId.values()];
-}
-
-/**
- * A cheap marker of "the data may have changed": this connection's write count and SQLite's
- * data_version (which moves when another connection commits). Both are O(1) to read.
- */
-export function dataVersion(db: Db): string {
-  const changes = (statement(db, 'SELECT total_changes() AS n').get() as { n: number }).n;
-  const version = (statement(db, 'PRAGMA data_version').get() as { data_version: number }).data_version;
-  return `${changes}:${version}`;
 }

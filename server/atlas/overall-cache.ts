@@ -1,8 +1,8 @@
-import { varietyOverall } from '../../shared/domain/ripening-stats';
 import type { Db } from '../db/client';
 import type { VarietyOverall } from '../../shared/domain/evidence';
 import type { VarietyInfo } from '../../shared/domain/evidence';
-import { acceptedVarieties, dataVersion, treesByVariety } from './atlas.repo';
+import { atlasDataVersion } from '../db/data-version';
+import { acceptedVarieties, overallFigures } from './atlas.repo';
 
 /**
  * Each variety's rate over all its reports everywhere, which local shares lean toward. It reads every
@@ -14,7 +14,7 @@ export const MAX_STALE_MS = 30_000;
 const SLOW_MS = 50;
 
 interface Entry {
-  version: string;
+  version: number;
   computedAt: number;
   tookMs: number;
   overall: Map<number, VarietyOverall>;
@@ -22,27 +22,21 @@ interface Entry {
 
 const cache = new WeakMap<Db, Entry>();
 
-export function computeOverall(db: Db): Map<number, VarietyOverall> {
-  const overall = new Map<number, VarietyOverall>();
-  for (const [varietyId, trees] of treesByVariety(db)) overall.set(varietyId, varietyOverall(trees));
-  return overall;
-}
-
 export function overallByVariety(db: Db, now = Date.now()): Map<number, VarietyOverall> {
-  const version = dataVersion(db);
+  const version = atlasDataVersion(db);
   const entry = cache.get(db);
   if (entry && (entry.version === version || (entry.tookMs >= SLOW_MS && now - entry.computedAt < MAX_STALE_MS))) return entry.overall;
   const started = performance.now();
-  const overall = computeOverall(db);
+  const overall = overallFigures(db);
   cache.set(db, { version, computedAt: now, tookMs: performance.now() - started, overall });
   return overall;
 }
 
-const catalogueCache = new WeakMap<Db, { version: string; varieties: Map<number, VarietyInfo> }>();
+const catalogueCache = new WeakMap<Db, { version: number; varieties: Map<number, VarietyInfo> }>();
 
 /** The accepted varieties, re-read whenever the data may have changed (a small table: no throttle). */
 export function cachedAcceptedVarieties(db: Db): Map<number, VarietyInfo> {
-  const version = dataVersion(db);
+  const version = atlasDataVersion(db);
   const entry = catalogueCache.get(db);
   if (entry?.version === version) return entry.varieties;
   const varieties = acceptedVarieties(db);

@@ -2,7 +2,7 @@ import type { FigType, GrowingForm, RipeningClass } from './codes';
 import type { FitResponse, NearResponse, SeasonEstimate } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
 import { RANKING_METHOD, rankVarieties, type RankInput } from './ranking';
-import { type TreeEvidence, adjustedShareMethod, tallyEvidence } from './ripening-stats';
+import { type TreeEvidence, type VarietyOverall, adjustedShareMethod, tallyEvidence } from './ripening-stats';
 import { seasonFit } from './season-fit';
 
 /**
@@ -20,8 +20,7 @@ export type VarietyInfo = {
   typicalDaysToRipen: number | null;
 };
 
-/** A variety's figures over all its reports (see varietyOverall in ripening-stats.ts). */
-export type VarietyOverall = { share: number | null; neededDays: number | null; treesBehindNeed: number };
+export type { VarietyOverall };
 
 export type VarietyEvidenceInput = {
   variety: VarietyInfo;

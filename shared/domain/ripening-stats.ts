@@ -231,7 +231,7 @@ export function groupTreeEvidence(reports: EvidenceReport[]): TreeEvidence[] {
  * that gave a days figure. Equal to summarizeShare(reports).share and medianDaysFrostToRipe of the
  * main-crop, in-ground reports.
  */
-export function varietyOverall(rows: TreeEvidence[]): { share: number | null; neededDays: number | null; treesBehindNeed: number } {
+export function varietyOverall(rows: TreeEvidence[]): VarietyOverall {
   const trees = new Map<number, { n: number; ripe: number; need: number[] | null }>();
   for (const row of rows) {
     let t = trees.get(row.treeId);
@@ -241,12 +241,24 @@ export function varietyOverall(rows: TreeEvidence[]): { share: number | null; ne
     if (row.form === 'ground' && row.mainFrostToRipeDays.length > 0) (t.need ??= []).push(...row.mainFrostToRipeDays);
   }
   let ripened = 0;
-  const need: number[] = [];
+  const need: number[][] = [];
   for (const t of trees.values()) {
     ripened += t.ripe / t.n;
-    if (t.need) need.push(smallMedian(t.need));
+    if (t.need) need.push(t.need);
   }
-  return { share: trees.size > 0 ? ripened / trees.size : null, neededDays: median(need), treesBehindNeed: need.length };
+  return overallFromParts(trees.size > 0 ? ripened / trees.size : null, need);
+}
+
+/** A variety's figures over all its trees (see varietyOverall). */
+export type VarietyOverall = { share: number | null; neededDays: number | null; treesBehindNeed: number };
+
+/**
+ * The overall figures from their parts, as the server gathers them in SQL: the share (mean over trees
+ * of each tree's ripened fraction) and, per tree in the ground, its main-crop days from spring frost
+ * to first ripe fig (each tree's median counts once).
+ */
+export function overallFromParts(share: number | null, needDaysPerTree: number[][]): VarietyOverall {
+  return { share, neededDays: median(needDaysPerTree.map(smallMedian)), treesBehindNeed: needDaysPerTree.length };
 }
 
 const FORM_INDEX: Record<GrowingForm, number> = { ground: 0, container: 1, wall: 2, greenhouse: 3 };

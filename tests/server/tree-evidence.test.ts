@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { type EvidenceReport, groupTreeEvidence } from '../../shared/domain/ripening-stats';
+import { type EvidenceReport, type TreeEvidence, groupTreeEvidence, varietyOverall } from '../../shared/domain/ripening-stats';
+import { overallFigures } from '../../server/atlas/atlas.repo';
 import { createTestDb } from '../helpers/test-app';
 import type { Db } from '../../server/db/client';
 
@@ -151,7 +152,7 @@ function columns(r: ArbReport, trees: { id: number; userId: number }[]) {
   };
 }
 
-describe('tree_evidence (kept by triggers)', { timeout: 120_000 }, () => {
+describe('tree_evidence (kept by triggers) and the overall figures read from it', { timeout: 120_000 }, () => {
   it('always equals the grouping of the published reports, whatever is inserted, edited, hidden, moved or deleted', () => {
     fc.assert(
       fc.property(fc.array(arbOp, { minLength: 1, maxLength: 30 }), (ops) => {
@@ -184,6 +185,32 @@ describe('tree_evidence (kept by triggers)', { timeout: 120_000 }, () => {
           }
         }
         expect(stored()).toEqual(expected());
+        // Each variety's overall figures, gathered in SQL, equal varietyOverall over its rows.
+        const rows = (sqlite.prepare('SELECT * FROM tree_evidence').all() as Record<string, never>[]).map(
+          (e): TreeEvidence => ({
+            treeId: e.tree_id,
+            userId: e.user_id,
+            varietyId: e.variety_id,
+            form: e.form,
+            distanceKm: 0,
+            reports: e.reports,
+            ripened: e.ripened,
+            brebaReports: e.breba_reports,
+            brebaRipened: e.breba_ripened,
+            mainFirstRipeDoys: [],
+            mainFrostToRipeDays: e.frost_to_ripe_days === null ? [] : String(e.frost_to_ripe_days).split(',').map(Number),
+          }),
+        );
+        const fromSql = overallFigures(db);
+        for (const varietyId of [1, 2]) {
+          const own = rows.filter((r) => r.varietyId === varietyId);
+          const expected = varietyOverall(own);
+          const got = fromSql.get(varietyId) ?? { share: null, neededDays: null, treesBehindNeed: 0 };
+          expect(got.treesBehindNeed).toBe(expected.treesBehindNeed);
+          expect(got.neededDays).toBe(expected.neededDays);
+          if (expected.share === null) expect(got.share).toBeNull();
+          else expect(got.share).toBeCloseTo(expected.share, 12);
+        }
         // Its R*Tree has exactly one entry per row.
         expect(sqlite.prepare('SELECT count(*) FROM tree_evidence_rtree').pluck().get()).toBe(sqlite.prepare('SELECT count(*) FROM tree_evidence').pluck().get());
       }),
