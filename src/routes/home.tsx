@@ -73,8 +73,8 @@ export default function HomeRoute() {
       </aside>
 
       <section className="relative min-w-0 flex-1" aria-label="Atlas map">
-        <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} />
-        <div className="pointer-events-none absolute inset-x-0 top-0 flex items-start gap-2 p-3 pr-14">
+        {/* Before the map in the page order, so Tab reaches the town search before the map canvas. */}
+        <div className="pointer-events-none absolute inset-x-0 top-0 z-[5] flex items-start gap-2 p-3 pr-14">
           {!panelOpen && (
             <button
               type="button"
@@ -88,6 +88,7 @@ export default function HomeRoute() {
           )}
           <PlaceSearch onGo={goTo} />
         </div>
+        <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} />
         <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
           <MapLegend overlays={state.layers} openAtStart={panelOpen} />
         </div>
