@@ -107,14 +107,19 @@ function build(db: Db): { centres: { lat: number; lon: number }[] } {
       }
     }
   })();
-  sqlite.exec(`INSERT INTO reports_rtree SELECT id, lat, lat, lon, lon FROM reports;
-    INSERT INTO stations_rtree SELECT id, lat, lat, lon, lon FROM stations;
-    INSERT INTO tree_evidence (tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened, first_ripe_doys, frost_to_ripe_days, frost_seasons)
-      SELECT * FROM tree_evidence_source;`);
+  sqlite.exec('INSERT INTO reports_rtree SELECT id, lat, lat, lon, lon FROM reports; INSERT INTO stations_rtree SELECT id, lat, lat, lon, lon FROM stations;');
+  // tree_evidence is filled by the statement its migration ends with (the rows with their place-ordered ids).
+  sqlite.exec(treeEvidenceFill());
   for (const t of triggers) sqlite.exec(t.sql);
   sqlite.exec('ANALYZE');
   sqlite.pragma('synchronous = NORMAL');
   return { centres };
+}
+
+function treeEvidenceFill(): string {
+  const folder = path.resolve(import.meta.dirname, '../../drizzle');
+  const file = fs.readdirSync(folder).find((name) => name.endsWith('_tree-evidence-clustered.sql'))!;
+  return fs.readFileSync(path.join(folder, file), 'utf8').split('--> statement-breakpoint').at(-1)!;
 }
 
 function isoDate(year: number, dayOfYear: number): string {

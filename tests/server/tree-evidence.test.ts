@@ -211,6 +211,12 @@ describe('tree_evidence (kept by triggers) and the overall figures read from it'
           if (expected.share === null) expect(got.share).toBeNull();
           else expect(got.share).toBeCloseTo(expected.share, 12);
         }
+        // Ids follow the place: the high part is the row's 0.1-degree cell (drizzle/0008_tree-evidence-clustered.sql).
+        for (const e of sqlite.prepare('SELECT id, lat, lon FROM tree_evidence').all() as { id: number; lat: number; lon: number }[]) {
+          const cell = Math.floor((e.lat + 90) * 10) * 3601 + Math.floor((e.lon + 180) * 10);
+          expect(Math.floor(e.id / 2 ** 30)).toBe(cell);
+          expect(Number.isSafeInteger(e.id)).toBe(true);
+        }
         // Its R*Tree has exactly one entry per row.
         expect(sqlite.prepare('SELECT count(*) FROM tree_evidence_rtree').pluck().get()).toBe(sqlite.prepare('SELECT count(*) FROM tree_evidence').pluck().get());
       }),
