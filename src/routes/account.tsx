@@ -13,9 +13,9 @@ export default function AccountRoute() {
         <Page title="My account">
           <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-2 rounded-lg border border-fig-100 bg-white p-5">
             <dt className="text-ink/70">Name</dt>
-            <dd>{user.displayName}</dd>
+            <dd className="min-w-0 break-words">{user.displayName}</dd>
             <dt className="text-ink/70">E-mail</dt>
-            <dd>{user.email}</dd>
+            <dd className="min-w-0 break-words">{user.email}</dd>
             <dt className="text-ink/70">Role</dt>
             <dd>{LABELS.role[user.role]}</dd>
             <dt className="text-ink/70">Member since</dt>

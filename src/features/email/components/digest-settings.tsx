@@ -44,7 +44,7 @@ export function DigestSettings() {
         </p>
       ) : (
         <p className="mt-3 rounded-md bg-leaf-100 px-3 py-2 text-sm text-leaf-700">
-          Save a home place first: find your garden on the <Link to="/" className="font-medium underline">atlas</Link>, save it as a place and mark it as home.
+          Save a home place first: open <Link to="/here" className="font-medium underline">What ripens here</Link>, find your town, then use <strong className="font-medium">Save this place</strong> and tick “Make this my home”.
         </p>
       )}
       <form

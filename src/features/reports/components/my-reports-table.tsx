@@ -175,17 +175,24 @@ export function MyReportsTable() {
         {list.isError && <p role="alert" className="p-4 text-sm text-red-800">{list.error.message}</p>}
       </div>
       {(remove.error ?? publish.error) && <p role="alert" className="text-sm text-red-800">{(remove.error ?? publish.error)!.message}</p>}
-      <div className="flex items-center gap-3 text-sm">
-        <Button variant="secondary" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-          Previous
-        </Button>
-        <span>
-          Page {page} of {pages} · {total} report{total === 1 ? '' : 's'}
-        </span>
-        <Button variant="secondary" disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
-          Next
-        </Button>
-      </div>
+      {total > 0 && (
+        <div className="flex items-center gap-3 text-sm">
+          {pages > 1 && (
+            <Button variant="secondary" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
+              Previous
+            </Button>
+          )}
+          <span>
+            {pages > 1 && `Page ${page} of ${pages} · `}
+            {total} report{total === 1 ? '' : 's'}
+          </span>
+          {pages > 1 && (
+            <Button variant="secondary" disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
+              Next
+            </Button>
+          )}
+        </div>
+      )}
     </div>
   );
 }
