@@ -122,7 +122,7 @@ export function DiagnosisStepper() {
                   set({ symptom: s });
                   setStep(1);
                 }}
-                className={`rounded-lg border p-4 text-left hover:border-fig-500 hover:bg-fig-50 ${draft.symptom === s ? 'border-fig-500 bg-fig-50' : 'border-fig-100 bg-white'}`}
+                className={`flex flex-col justify-start rounded-lg border p-4 text-left hover:border-fig-500 hover:bg-fig-50 ${draft.symptom === s ? 'border-fig-500 bg-fig-50' : 'border-fig-100 bg-white'}`}
               >
                 <span className="block font-medium text-fig-900">{SYMPTOM_TEXT[s].title}</span>
                 <span className="mt-1 block text-sm text-ink/70">{SYMPTOM_TEXT[s].hint}</span>
