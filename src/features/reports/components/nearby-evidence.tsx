@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { LABELS } from '@shared/domain/codes';
 import type { Report } from '@shared/schemas/reports';
+import { MethodNote } from '../../../components/method-note';
 import { reportQueries } from '../api';
 
 const VERDICT_CLASS = {
@@ -26,9 +27,9 @@ export function NearbyEvidence({ report }: { report: Report }) {
       </p>
       <p className="text-ink/80">{seasonFit.explanation}</p>
       {season.days50 !== null && (
-        <p className="text-ink/70">
-          Frost-free season here: about {Math.round(season.days50)} days in half of years. {season.method}
-        </p>
+        <MethodNote method={season.method}>
+          Frost-free season here: about {Math.round(season.days50)} days in a typical year (half the years are longer).
+        </MethodNote>
       )}
     </div>
   );
