@@ -80,5 +80,23 @@ describe('harvest reports in the browser', () => {
     await page.getByRole('button', { name: 'Post report' }).click();
     await expect.poll(() => page.getByText('The first ripe fig must come after the last spring frost (2025-05-01)').isVisible()).toBe(true);
     await expect.poll(() => page.getByText('Choose a variety, or propose a name if it is not listed').isVisible()).toBe(true);
+    // The first problem on the page (the variety, above the dates) takes the focus.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('role'))).toBe('combobox');
+  }, 120_000);
+
+  it('on a phone, My reports scrolls its wide table sideways, never the whole page', async () => {
+    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    page.setDefaultTimeout(60_000);
+    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${server.url}/my/reports`);
+    await expect.poll(() => page.getByRole('row').count()).toBeGreaterThan(2);
+    const widths = await page.evaluate(() => {
+      window.scrollTo(500, 0);
+      const table = document.querySelector('table')!.parentElement!;
+      return { page: document.documentElement.scrollWidth, scrolledX: window.scrollX, table: table.scrollWidth, tableBox: table.clientWidth };
+    });
+    expect(widths.page).toBeLessThanOrEqual(390);
+    expect(widths.scrolledX).toBe(0);
+    expect(widths.table).toBeGreaterThan(widths.tableBox);
   }, 120_000);
 });
