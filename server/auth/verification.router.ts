@@ -9,6 +9,7 @@ import { requireSignedIn } from '../middleware/require-role';
 import { findUserById } from '../users/users.repo';
 import { consumeEmailToken } from './email-tokens.repo';
 import { SqliteRateLimitStore } from './rate-limit-store';
+import { publishDraftsOf } from '../reports/publish';
 import { sendVerificationEmail } from './verification';
 
 /** Why an e-mailed link did not work, in words a grower can act on. */
@@ -16,6 +17,13 @@ export function linkError(reason: 'unknown' | 'used' | 'expired'): HttpError {
   if (reason === 'used') return new HttpError(410, 'link_used', 'This link has already been used.');
   if (reason === 'expired') return new HttpError(410, 'link_expired', 'This link has expired. Please ask for a new one.');
   return new HttpError(400, 'link_invalid', 'This link is not valid. Please use the newest link we sent you.');
+}
+
+/** What the /verify page says once the address is confirmed. */
+export function verifiedMessage(publishedDrafts: number): string {
+  if (publishedDrafts === 0) return 'Your e-mail address is confirmed. New reports are published as soon as you save them.';
+  const drafts = publishedDrafts === 1 ? 'your draft report is' : `your ${publishedDrafts} draft reports are`;
+  return `Your e-mail address is confirmed, and ${drafts} now published. New reports are published as soon as you save them.`;
 }
 
 /** POST /verify (no sign-in needed: the link may be opened in another browser) and POST /verify/resend. */
@@ -39,11 +47,16 @@ export function createVerificationRouter(deps: MailDeps): Router {
     const result = consumeEmailToken(db, token, 'verify');
     if (!result.ok) throw linkError(result.reason);
     const user = findUserById(db, result.userId);
+    let published = 0;
     if (user && !user.emailVerifiedAt) {
-      const now = new Date().toISOString();
-      db.update(users).set({ emailVerifiedAt: now, updatedAt: now }).where(eq(users.id, user.id)).run();
+      // The draft notice promises publication on confirmation: both in one transaction, or neither.
+      published = db.transaction(() => {
+        const now = new Date().toISOString();
+        db.update(users).set({ emailVerifiedAt: now, updatedAt: now }).where(eq(users.id, user.id)).run();
+        return publishDraftsOf(db, user.id, now).length;
+      });
     }
-    res.json(messageResponseSchema.parse({ message: 'Your e-mail address is confirmed. You can now publish your drafts from My reports.' }));
+    res.json(messageResponseSchema.parse({ message: verifiedMessage(published) }));
   });
 
   router.post('/verify/resend', requireSignedIn, resendLimit, async (req, res) => {

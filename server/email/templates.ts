@@ -9,7 +9,7 @@ export function verifyEmailMessage(input: { displayName: string; url: string; ex
     subject: 'Confirm your e-mail for Syconium',
     heading: `Welcome to the atlas, ${input.displayName}`,
     blocks: [
-      { kind: 'p', text: 'Thank you for joining Syconium. One step is left: confirm that this address is yours. Until then you can browse the atlas and save your harvest reports as drafts; once the address is confirmed you can publish them.' },
+      { kind: 'p', text: 'Thank you for joining Syconium. One step is left: confirm that this address is yours. Until then you can browse the atlas and save your harvest reports as drafts; they are published as soon as the address is confirmed.' },
       { kind: 'button', label: 'Confirm my e-mail', url: input.url },
       { kind: 'p', text: `The link works once and for ${input.expiresHours} hours. You can ask for a new one from the banner on the site.` },
       SIGN_OFF,

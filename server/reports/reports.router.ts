@@ -36,6 +36,7 @@ import type { Config } from '../lib/config';
 import { HttpError, notFound } from '../lib/http-error';
 import { requireRole, requireSignedIn } from '../middleware/require-role';
 import { processPhoto, removePhotoFiles, storePhoto, type ProcessedPhoto } from '../photos/photos';
+import { publishDraft } from './publish';
 import {
   canView,
   deletePhotoRow,
@@ -219,13 +220,8 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     const before = ownReport(id, user);
     if (before.status !== 'draft') throw new HttpError(409, 'not_a_draft', 'Only a draft can be published');
     if (!user.emailVerified) throw new HttpError(403, 'email_unverified', 'Verify your e-mail address first; then your drafts can be published');
-    const after = db.transaction(() => {
-      const now = new Date().toISOString();
-      // Published now, so the next nearby digest includes it although it was written earlier.
-      const updated = updateReportRow(db, id, { status: 'published', publishedAt: before.publishedAt ?? now, updatedAt: now, updatedById: user.id });
-      recordAudit(db, { actorId: user.id, action: 'report.publish', entityType: 'report', entityId: id, before: { status: before.status }, after: { status: updated.status } });
-      return updated;
-    });
+    // Published now, so the next nearby digest includes it although it was written earlier.
+    const after = db.transaction(() => publishDraft(db, before, user.id, new Date().toISOString()));
     res.json(reportResponseSchema.parse({ report: toReport(db, after, user) }));
   });
 

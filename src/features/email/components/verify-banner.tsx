@@ -14,11 +14,11 @@ export function VerifyBanner() {
     <div role="status" className="flex flex-wrap items-center gap-x-4 gap-y-2 border-b border-amber-soft bg-amber-soft/40 px-4 py-2 text-sm text-ink">
       <p className="flex-1">
         <span className="font-medium">Please confirm your e-mail address.</span> We sent a link to {user.email}. Until you follow it you can browse and
-        save reports as drafts; once it is confirmed you can publish them from{' '}
+        save reports as drafts (listed in{' '}
         <Link to="/my/reports" className="underline">
           My reports
         </Link>
-        .
+        ); they are published as soon as the address is confirmed.
       </p>
       {resend.isSuccess ? (
         <p className="text-leaf-700">{resend.data.message}</p>
