@@ -101,13 +101,10 @@ const DIEBACK_LOSS = 18;
 /** The character of each demo season, shared by every town: 2023 was a cool one. */
 const YEAR_SHIFT: Record<number, number> = { 2021: 4, 2022: -2, 2023: -11, 2024: 9, 2025: 1 };
 
-const MONTH_DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+/** 'YYYY-MM-DD' of a day of the year (kept within the year). */
 function isoDate(year: number, dayOfYear: number): string {
-  let day = Math.max(1, Math.min(365, Math.round(dayOfYear)));
-  let month = 0;
-  const leap = (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
-  while (day > MONTH_DAYS[month]! + (month === 1 && leap ? 1 : 0)) day -= MONTH_DAYS[month]! + (month === 1 && leap ? 1 : 0), month++;
-  return `${year}-${String(month + 1).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
+  const day = Math.max(1, Math.min(365, Math.round(dayOfYear)));
+  return new Date(Date.UTC(year, 0, day)).toISOString().slice(0, 10);
 }
 
 const round5 = (value: number) => Math.round(value * 1e5) / 1e5;
