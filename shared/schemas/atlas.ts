@@ -1,18 +1,20 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, RIPENING_CLASSES, SEASON_FIT_VERDICTS } from '../domain/codes';
+import { numberFromText } from './text-number';
 
 /*
  * The regional engine's wire shapes: GET /api/atlas/near and GET /api/varieties/:id/fit.
  * The pure functions in shared/domain produce these pieces; the server only gathers the rows.
  */
 
-export const latSchema = z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' });
-export const lonSchema = z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' });
+/** Latitude and longitude from a query string or a form: an empty value is missing, never 0 (the equator). */
+export const latSchema = numberFromText(z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' }));
+export const lonSchema = numberFromText(z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' }));
 
 export const nearQuerySchema = z.object({
   lat: latSchema,
   lon: lonSchema,
-  radiusKm: z.coerce.number({ message: 'radiusKm must be a number' }).gt(0, { message: 'radiusKm must be more than 0' }).max(500, { message: 'radiusKm must be at most 500' }).default(100),
+  radiusKm: numberFromText(z.coerce.number({ message: 'radiusKm must be a number' }).gt(0, { message: 'radiusKm must be more than 0' }).max(500, { message: 'radiusKm must be at most 500' }).default(100)),
   /** Rank for this growing form (season fit and ranking); all forms are counted either way. */
   form: z.enum(GROWING_FORMS).optional(),
 });

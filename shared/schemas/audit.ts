@@ -1,15 +1,16 @@
 import { z } from 'zod';
+import { numberFromText } from './text-number';
 
 /** GET /api/audit: filters and server-side pagination (newest first). */
 export const auditQuerySchema = z.object({
-  actorId: z.coerce.number().int().positive().optional(),
+  actorId: numberFromText(z.coerce.number().int().positive().optional()),
   action: z.string().trim().max(60).optional(),
   entityType: z.string().trim().max(40).optional(),
-  entityId: z.coerce.number().int().positive().optional(),
+  entityId: numberFromText(z.coerce.number().int().positive().optional()),
   from: z.iso.date().optional(),
   to: z.iso.date().optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(25),
-  offset: z.coerce.number().int().min(0).default(0),
+  limit: numberFromText(z.coerce.number().int().min(1).max(200).default(25)),
+  offset: numberFromText(z.coerce.number().int().min(0).default(0)),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 

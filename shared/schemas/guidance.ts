@@ -1,16 +1,17 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS } from '../domain/codes';
 import { latSchema, lonSchema } from './atlas';
+import { numberFromText } from './text-number';
 
 /* Wire shapes of the guidance charts and the short-season filter (GET /api/guidance/...). */
 
 const intervalSchema = z.object({ low: z.number(), high: z.number() }).nullable();
 
 export const ripeDatesQuerySchema = z.object({
-  varietyId: z.coerce.number({ message: 'varietyId must be a number' }).int({ message: 'varietyId must be a whole number' }).positive({ message: 'varietyId must be positive' }),
+  varietyId: numberFromText(z.coerce.number({ message: 'varietyId must be a number' }).int({ message: 'varietyId must be a whole number' }).positive({ message: 'varietyId must be positive' })),
   lat: latSchema,
   lon: lonSchema,
-  radiusKm: z.coerce.number({ message: 'radiusKm must be a number' }).min(5, { message: 'radiusKm must be at least 5' }).max(500, { message: 'radiusKm must be at most 500' }).default(100),
+  radiusKm: numberFromText(z.coerce.number({ message: 'radiusKm must be a number' }).min(5, { message: 'radiusKm must be at least 5' }).max(500, { message: 'radiusKm must be at most 500' }).default(100)),
   crop: z.enum(CROPS).default('main'),
 });
 export type RipeDatesQuery = z.infer<typeof ripeDatesQuerySchema>;
@@ -30,8 +31,8 @@ export type RipeDatesResponse = z.infer<typeof ripeDatesResponseSchema>;
 export const seasonSuccessQuerySchema = z.object({
   form: z.enum(GROWING_FORMS).optional(),
   crop: z.enum(CROPS).default('main'),
-  varietyId: z.coerce.number({ message: 'varietyId must be a number' }).int().positive().optional(),
-  binDays: z.coerce.number({ message: 'binDays must be a number' }).int().min(5, { message: 'binDays must be at least 5' }).max(60, { message: 'binDays must be at most 60' }).default(20),
+  varietyId: numberFromText(z.coerce.number({ message: 'varietyId must be a number' }).int().positive().optional()),
+  binDays: numberFromText(z.coerce.number({ message: 'binDays must be a number' }).int().min(5, { message: 'binDays must be at least 5' }).max(60, { message: 'binDays must be at most 60' }).default(20)),
 });
 export type SeasonSuccessQuery = z.infer<typeof seasonSuccessQuerySchema>;
 
@@ -51,9 +52,9 @@ export const seasonSuccessResponseSchema = z.object({
 export type SeasonSuccessResponse = z.infer<typeof seasonSuccessResponseSchema>;
 
 export const shortSeasonQuerySchema = z.object({
-  seasonDays: z.coerce.number({ message: 'seasonDays must be a number' }).min(30, { message: 'seasonDays must be at least 30' }).max(366, { message: 'seasonDays must be at most 366' }),
+  seasonDays: numberFromText(z.coerce.number({ message: 'seasonDays must be a number' }).min(30, { message: 'seasonDays must be at least 30' }).max(366, { message: 'seasonDays must be at most 366' })),
   form: z.enum(GROWING_FORMS).optional(),
-  toleranceDays: z.coerce.number({ message: 'toleranceDays must be a number' }).min(0).max(60, { message: 'toleranceDays must be at most 60' }).default(10),
+  toleranceDays: numberFromText(z.coerce.number({ message: 'toleranceDays must be a number' }).min(0).max(60, { message: 'toleranceDays must be at most 60' }).default(10)),
 });
 export type ShortSeasonQuery = z.infer<typeof shortSeasonQuerySchema>;
 

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CROPS, FLAG_STATUSES, GROWING_FORMS, OUTCOMES, REPORT_STATUSES } from '../domain/codes';
 import { SUSPICION_RULES } from '../domain/moderation-rules';
+import { numberFromText } from './text-number';
 
 /** Which part of the queue to show: open flags, rule findings, both, or hidden reports (to restore). */
 export const MODERATION_KINDS = ['all', 'flagged', 'suspicious', 'hidden'] as const;
@@ -9,8 +10,8 @@ export type ModerationKind = (typeof MODERATION_KINDS)[number];
 export const moderationQueueQuerySchema = z.object({
   kind: z.enum(MODERATION_KINDS).default('all'),
   rule: z.enum(SUSPICION_RULES).optional(),
-  limit: z.coerce.number().int().min(1).max(100).default(20),
-  offset: z.coerce.number().int().min(0).default(0),
+  limit: numberFromText(z.coerce.number().int().min(1).max(100).default(20)),
+  offset: numberFromText(z.coerce.number().int().min(0).default(0)),
 });
 export type ModerationQueueQuery = z.infer<typeof moderationQueueQuerySchema>;
 

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, OUTCOMES } from '../domain/codes';
 import { latSchema, lonSchema } from './atlas';
+import { numberFromText } from './text-number';
 
 /*
  * The atlas map's report pins: GET /api/atlas/pins (clusters and grid cells for a viewport) and
@@ -11,16 +12,18 @@ import { latSchema, lonSchema } from './atlas';
 const yearSchema = (name: string) =>
   z.coerce.number({ message: `${name} must be a year` }).int({ message: `${name} must be a whole year` }).min(1900, { message: `${name} must be 1900 or later` }).max(2100, { message: `${name} must be 2100 or earlier` });
 
+// An empty filter (`seasonFrom=`) is no filter, not 0; an empty zoom is missing.
+
 /** The map's filters; every one is optional, and each narrows the reports shown. */
 export const pinFiltersSchema = z
   .object({
-    varietyId: z.coerce.number({ message: 'varietyId must be a number' }).int().positive({ message: 'varietyId must be a positive id' }).optional(),
+    varietyId: numberFromText(z.coerce.number({ message: 'varietyId must be a number' }).int().positive({ message: 'varietyId must be a positive id' }).optional()),
     figType: z.enum(FIG_TYPES, { message: `figType must be one of ${FIG_TYPES.join(', ')}` }).optional(),
     crop: z.enum(CROPS, { message: `crop must be one of ${CROPS.join(', ')}` }).optional(),
     outcome: z.enum(OUTCOMES, { message: `outcome must be one of ${OUTCOMES.join(', ')}` }).optional(),
     form: z.enum(GROWING_FORMS, { message: `form must be one of ${GROWING_FORMS.join(', ')}` }).optional(),
-    seasonFrom: yearSchema('seasonFrom').optional(),
-    seasonTo: yearSchema('seasonTo').optional(),
+    seasonFrom: numberFromText(yearSchema('seasonFrom').optional()),
+    seasonTo: numberFromText(yearSchema('seasonTo').optional()),
   })
   .refine((f) => f.seasonFrom === undefined || f.seasonTo === undefined || f.seasonFrom <= f.seasonTo, {
     message: 'seasonFrom must not be after seasonTo',
@@ -55,7 +58,7 @@ export const PIN_MAX_ZOOM = 22;
 export const pinsQuerySchema = z.intersection(
   z.object({
     bbox: bboxSchema,
-    zoom: z.coerce.number({ message: 'zoom must be a number' }).min(0, { message: 'zoom must be 0 or more' }).max(PIN_MAX_ZOOM, { message: `zoom must be at most ${PIN_MAX_ZOOM}` }),
+    zoom: numberFromText(z.coerce.number({ message: 'zoom must be a number' }).min(0, { message: 'zoom must be 0 or more' }).max(PIN_MAX_ZOOM, { message: `zoom must be at most ${PIN_MAX_ZOOM}` })),
   }),
   pinFiltersSchema,
 );

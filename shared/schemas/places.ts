@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { numberFromText } from './text-number';
 
 /** GET /api/places?q=: towns whose name starts with q, largest first (GeoNames, CC-BY 4.0). */
 export const placeSearchQuerySchema = z.object({
@@ -7,7 +8,7 @@ export const placeSearchQuerySchema = z.object({
     .trim()
     .min(2, { message: 'q must have at least 2 letters' })
     .max(80, { message: 'q must have at most 80 characters' }),
-  limit: z.coerce.number({ message: 'limit must be a number' }).int().min(1, { message: 'limit must be at least 1' }).max(20, { message: 'limit must be at most 20' }).default(8),
+  limit: numberFromText(z.coerce.number({ message: 'limit must be a number' }).int().min(1, { message: 'limit must be at least 1' }).max(20, { message: 'limit must be at most 20' }).default(8)),
 });
 export type PlaceSearchQuery = z.infer<typeof placeSearchQuerySchema>;
 

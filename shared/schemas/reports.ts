@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, OUTCOMES, PLANT_ORIGINS, REPORT_STATUSES, VARIETY_STATUSES } from '../domain/codes';
 import { reportRuleIssues } from '../domain/report-rules';
+import { numberFromText } from './text-number';
 
 /*
  * Harvest reports on the wire. One schema per shape: the Express routes parse with these, the
@@ -231,7 +232,8 @@ export type ReportListItem = z.infer<typeof reportListItemSchema>;
 export const REPORT_SORTS = ['season', 'createdAt', 'updatedAt', 'variety', 'crop', 'outcome', 'form', 'status'] as const;
 export type ReportSort = (typeof REPORT_SORTS)[number];
 
-const optionalInt = (name: string) => z.coerce.number({ message: `${name} must be a number` }).int({ message: `${name} must be a whole number` }).optional();
+/** An optional whole number from the query string; an empty one (`varietyId=`) is no filter, not 0. */
+const optionalInt = (name: string) => numberFromText(z.coerce.number({ message: `${name} must be a number` }).int({ message: `${name} must be a whole number` }).optional());
 
 /** The public filters, shared by the list and both exports. */
 export const reportFilterSchema = z.object({
@@ -257,8 +259,8 @@ export const reportListQuerySchema = reportFilterSchema.extend({
   q: z.string().trim().max(100).optional(),
   sort: z.enum(REPORT_SORTS).default('createdAt'),
   dir: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  page: numberFromText(z.coerce.number().int().min(1).default(1)),
+  pageSize: numberFromText(z.coerce.number().int().min(1).max(500).default(50)),
 });
 export type ReportListQuery = z.input<typeof reportListQuerySchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { blankToUndefined, numberFromText } from './text-number';
 
 /** A climate station in lists and on the map's frost-free season layer. */
 export const stationListItemSchema = z.object({
@@ -23,24 +24,21 @@ export const stationListSchema = z.object({ stations: z.array(stationListItemSch
 export const STATION_UNITS = ['C', 'F'] as const;
 export type StationUnit = (typeof STATION_UNITS)[number];
 
-const emptyToUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
-
 /**
  * POST /api/stations/upload: the form fields sent beside the CSV file (multipart, so every value
  * arrives as text). A station with the same code is replaced; without a code, a new one is made.
  */
 export const stationUploadFieldsSchema = z.object({
   name: z.string({ message: 'Give the station a name' }).trim().min(1, { message: 'Give the station a name' }).max(120, { message: 'The name can be at most 120 characters' }),
-  code: z.preprocess(emptyToUndefined, z.string().trim().max(40, { message: 'The code can be at most 40 characters' }).optional()),
+  code: z.preprocess(blankToUndefined, z.string().trim().max(40, { message: 'The code can be at most 40 characters' }).optional()),
   // An empty field is missing, not 0 (z.coerce.number alone turns '' into 0, a station off West Africa).
-  lat: z.preprocess(emptyToUndefined, z.coerce.number({ message: 'Enter the latitude as a number, e.g. 42.74' }).min(-90, { message: 'Latitude must be between -90 and 90' }).max(90, { message: 'Latitude must be between -90 and 90' })),
-  lon: z.preprocess(emptyToUndefined, z.coerce.number({ message: 'Enter the longitude as a number, e.g. -73.81' }).min(-180, { message: 'Longitude must be between -180 and 180' }).max(180, { message: 'Longitude must be between -180 and 180' })),
-  elevationM: z.preprocess(
-    emptyToUndefined,
+  lat: numberFromText(z.coerce.number({ message: 'Enter the latitude as a number, e.g. 42.74' }).min(-90, { message: 'Latitude must be between -90 and 90' }).max(90, { message: 'Latitude must be between -90 and 90' })),
+  lon: numberFromText(z.coerce.number({ message: 'Enter the longitude as a number, e.g. -73.81' }).min(-180, { message: 'Longitude must be between -180 and 180' }).max(180, { message: 'Longitude must be between -180 and 180' })),
+  elevationM: numberFromText(
     z.coerce.number({ message: 'Enter the elevation in metres as a number, or leave it empty' }).min(-450, { message: 'Elevation must be at least -450 m' }).max(9000, { message: 'Elevation must be at most 9000 m' }).optional(),
   ),
   /** Left empty, the file's own layout decides (GHCN-Daily: deg C; year/month/day exports: deg F). */
-  unit: z.preprocess(emptyToUndefined, z.enum(STATION_UNITS, { message: 'The unit must be C, F or left empty' }).optional()),
+  unit: z.preprocess(blankToUndefined, z.enum(STATION_UNITS, { message: 'The unit must be C, F or left empty' }).optional()),
 });
 export type StationUploadFields = z.infer<typeof stationUploadFieldsSchema>;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { FIG_TYPES, RIPENING_CLASSES, VARIETY_STATUSES } from '../domain/codes';
+import { numberFromText } from './text-number';
 
 /** A variety as the API sends it. */
 export const varietySchema = z.object({
@@ -73,8 +74,8 @@ export const catalogueQuerySchema = z.object({
   figType: z.enum(FIG_TYPES).optional(),
   sort: z.enum(CATALOGUE_SORTS).default('name'),
   dir: z.enum(['asc', 'desc']).default('asc'),
-  limit: z.coerce.number().int().min(1).max(200).default(25),
-  offset: z.coerce.number().int().min(0).default(0),
+  limit: numberFromText(z.coerce.number().int().min(1).max(200).default(25)),
+  offset: numberFromText(z.coerce.number().int().min(0).default(0)),
 });
 export type CatalogueQuery = z.infer<typeof catalogueQuerySchema>;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { WASP_AREA_STATUSES } from '../domain/codes';
+import { numberFromText } from './text-number';
 
 /** A wasp area's properties as carried on its GeoJSON feature. */
 export const waspAreaPropertiesSchema = z.object({
@@ -75,8 +76,8 @@ export type WaspAreaRecord = z.infer<typeof waspAreaRecordSchema>;
 export const waspAreaRecordListQuerySchema = z.object({
   status: z.enum(WASP_AREA_STATUSES).optional(),
   q: z.string().trim().max(100).optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(25),
-  offset: z.coerce.number().int().min(0).default(0),
+  limit: numberFromText(z.coerce.number().int().min(1).max(200).default(25)),
+  offset: numberFromText(z.coerce.number().int().min(0).default(0)),
 });
 export const waspAreaRecordListSchema = z.object({ items: z.array(waspAreaRecordSchema), total: z.number().int() });
 export const waspAreaRecordResponseSchema = z.object({ area: waspAreaRecordSchema });
