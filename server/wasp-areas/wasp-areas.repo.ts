@@ -3,6 +3,7 @@ import { area, booleanPointInPolygon, point } from '@turf/turf';
 import type { WaspAreaStatus } from '../../shared/domain/codes';
 import type { WaspAreaCollection, WaspAreaGeometry, WaspAreaRecord } from '../../shared/schemas/wasp-areas';
 import type { Db } from '../db/client';
+import { perDb } from '../db/prepared';
 import { users, waspAreas } from '../db/schema';
 import { recordAudit } from '../audit/audit.repo';
 import { HttpError, notFound } from '../lib/http-error';
@@ -29,12 +30,19 @@ export function listWaspAreas(db: Db, { includeRetired = false } = {}): WaspArea
 }
 
 /** Active wasp areas that contain the point: a bounding-box query, then an exact polygon test. */
-export function findWaspAreasAt(db: Db, lat: number, lon: number): WaspAreaRow[] {
-  const candidates = db
+// Prepared once per database: every GET /atlas/near runs it.
+const activeAreasAround = perDb((db) => {
+  const lat = sql.placeholder('lat');
+  const lon = sql.placeholder('lon');
+  return db
     .select()
     .from(waspAreas)
     .where(and(eq(waspAreas.status, 'active'), lte(waspAreas.minLat, lat), gte(waspAreas.maxLat, lat), lte(waspAreas.minLon, lon), gte(waspAreas.maxLon, lon)))
-    .all();
+    .prepare();
+});
+
+export function findWaspAreasAt(db: Db, lat: number, lon: number): WaspAreaRow[] {
+  const candidates = activeAreasAround(db).all({ lat, lon });
   const here = point([lon, lat]);
   return candidates.filter((row) => booleanPointInPolygon(here, row.geometry as WaspAreaGeometry));
 }
