@@ -21,6 +21,17 @@ const TOUCH_SQL = 'UPDATE sessions SET expires_at = ? WHERE sid = ? AND expires_
  */
 export class SqliteSessionStore extends session.Store {
   private writes = 0;
+  /**
+   * The stored expiry of sessions this instance read or wrote lately. Expiries only move forward,
+   * so when the one seen is already within the slack, a touch would change nothing: skip the
+   * UPDATE (which still takes SQLite's write lock when it matches no row).
+   */
+  private readonly knownExpiry = new Map<string, number>();
+
+  private remember(sid: string, expiresAt: number): void {
+    if (this.knownExpiry.size >= 10_000) this.knownExpiry.clear();
+    this.knownExpiry.set(sid, expiresAt);
+  }
 
   constructor(private readonly db: Db) {
     super();
@@ -30,7 +41,9 @@ export class SqliteSessionStore extends session.Store {
     try {
       const row = statement(this.db, GET_SQL).get(sid) as { data: string; expiresAt: number } | undefined;
       if (!row || row.expiresAt <= Date.now()) return callback(null, null);
-      callback(null, JSON.parse(row.data));
+      const data = JSON.parse(row.data) as session.SessionData;
+      this.remember(sid, row.expiresAt);
+      callback(null, data);
     } catch (err) {
       callback(err);
     }
@@ -41,6 +54,7 @@ export class SqliteSessionStore extends session.Store {
       const expiresAt = data.cookie?.expires ? new Date(data.cookie.expires).getTime() : Date.now() + 86_400_000;
       const userId = typeof data.passport?.user === 'number' ? data.passport.user : null;
       statement(this.db, SET_SQL).run(sid, JSON.stringify(data), userId, expiresAt);
+      this.remember(sid, expiresAt);
       if (++this.writes % 100 === 0) statement(this.db, SWEEP_SQL).run(Date.now());
       callback?.();
     } catch (err) {
@@ -50,6 +64,7 @@ export class SqliteSessionStore extends session.Store {
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
     try {
+      this.knownExpiry.delete(sid);
       statement(this.db, DESTROY_SQL).run(sid);
       callback?.();
     } catch (err) {
@@ -62,7 +77,10 @@ export class SqliteSessionStore extends session.Store {
     try {
       // Rolling sessions touch on every answer; only write when the expiry moves by more than the
       // slack, so signed-in reads do not write (and do not invalidate caches keyed by data version).
-      statement(this.db, TOUCH_SQL).run(expiresAt, sid, expiresAt - TOUCH_SLACK_MS);
+      const known = this.knownExpiry.get(sid);
+      if (known === undefined || known < expiresAt - TOUCH_SLACK_MS) {
+        if (statement(this.db, TOUCH_SQL).run(expiresAt, sid, expiresAt - TOUCH_SLACK_MS).changes) this.remember(sid, expiresAt);
+      }
     } catch {
       // A full or read-only disk must not hang the answer (express-session ends the response in
       // this callback); the session simply keeps its old expiry.
