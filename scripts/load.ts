@@ -31,7 +31,7 @@ const SECONDS = Number(process.env.LOAD_SECONDS ?? 20);
 const WRITERS = Number(process.env.LOAD_WRITERS ?? 50);
 const READERS_PER_ROUTE = Number(process.env.LOAD_READERS ?? 10);
 /** Connections opened at a time per route before the measured traffic (0: all at once, measured from the start). */
-const WAVE = Number(process.env.LOAD_WAVE ?? 10);
+const WAVE = Number(process.env.LOAD_WAVE ?? 5);
 const RAMP_LIMIT_SECONDS = 90;
 /** Only the routes whose name contains one of these words (comma-separated), e.g. LOAD_ROUTES=pins,near. */
 const ONLY = process.env.LOAD_ROUTES?.split(',').map((w) => w.trim()).filter(Boolean);
