@@ -12,7 +12,10 @@ export default function EditorsRoute() {
   const { pathname } = useLocation();
   const tabsRef = useRef<HTMLElement>(null);
   // On a phone the tabs scroll sideways: keep the open one in view.
-  useEffect(() => tabsRef.current?.querySelector('[aria-current="page"]')?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' }), [pathname]);
+  // (A statement body: Chromium's scrollIntoView now returns a promise, which React would call as a cleanup.)
+  useEffect(() => {
+    tabsRef.current?.querySelector('[aria-current="page"]')?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
+  }, [pathname]);
   return (
     <RequireRole role="editor">
       <div className="flex h-full flex-col">

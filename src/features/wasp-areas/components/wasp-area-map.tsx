@@ -1,6 +1,6 @@
 import { bbox } from '@turf/turf';
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import MapGl, { Layer, NavigationControl, Source, type LayerProps, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { closeRing } from '@shared/domain/wasp-geometry';
 import type { WaspAreaCollection, WaspAreaGeometry } from '@shared/schemas/wasp-areas';
@@ -71,15 +71,16 @@ export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing
   }, [draftVertices, preview]);
 
   // Open on the recorded areas (a few small outlines are hard to find on a whole-continent view).
+  // Only once the map has loaded: moving the camera of a map still being built can throw.
+  const [loaded, setLoaded] = useState(false);
   const fittedToAreas = useRef(false);
-  const fitToAreas = useCallback(() => {
+  useEffect(() => {
     const map = mapRef.current;
-    if (fittedToAreas.current || !map || !areas?.features.length) return;
+    if (!loaded || fittedToAreas.current || !map || !areas?.features.length) return;
     fittedToAreas.current = true;
     const [w, s, e, n] = bbox(areas);
     map.fitBounds([[w, s], [e, n]], { padding: 60, maxZoom: 7, duration: 0 });
-  }, [areas]);
-  useEffect(fitToAreas, [fitToAreas]);
+  }, [loaded, areas]);
 
   useEffect(() => {
     const map = mapRef.current;
@@ -114,7 +115,7 @@ export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing
         cursor={drawing ? 'crosshair' : 'grab'}
         onClick={onClick}
         onIdle={onIdle}
-        onLoad={fitToAreas}
+        onLoad={() => setLoaded(true)}
         doubleClickZoom={!drawing}
         attributionControl={false}
       >
