@@ -44,9 +44,21 @@ const log = (line: string) => console.log(line);
 
 /** User + system CPU seconds the server process has used (Linux /proc; NaN elsewhere). */
 function serverCpuSeconds(): number {
+  // The server process and, with SYCONIUM_INSTANCES > 1, its instance processes (children).
+  const stat = (pid: string) => fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   try {
-    const fields = fs.readFileSync(`/proc/${server.pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
-    return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+    let ticks = 0;
+    for (const pid of fs.readdirSync('/proc').filter((name) => /^\d+$/.test(name))) {
+      let fields: string[];
+      try {
+        fields = stat(pid);
+      } catch {
+        continue; // gone meanwhile
+      }
+      // fields[1] is the parent pid; utime and stime are in clock ticks (USER_HZ = 100).
+      if (pid === String(server.pid) || fields[1] === String(server.pid)) ticks += Number(fields[11]) + Number(fields[12]);
+    }
+    return ticks / 100;
   } catch {
     return Number.NaN;
   }

@@ -5,6 +5,8 @@ export interface Config {
   env: 'development' | 'production' | 'test';
   port: number;
   host: string;
+  /** Server processes sharing the port (node:cluster); 1 runs the app in this process. */
+  instances: number;
   dbFile: string;
   uploadsDir: string;
   tilesDir: string;
@@ -29,6 +31,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
   return {
     env: mode,
     port: Number(env.PORT ?? 3030),
+    instances: Math.max(1, Math.floor(Number(env.SYCONIUM_INSTANCES ?? 1)) || 1),
     host: env.HOST ?? '127.0.0.1',
     dbFile: env.SYCONIUM_DB ?? 'data/syconium.db',
     uploadsDir: env.SYCONIUM_UPLOADS ?? 'data/uploads',
