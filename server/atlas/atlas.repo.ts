@@ -30,7 +30,7 @@ const NEAR_TREES_SQL = `
 // A variety's overall figures in two passes over covering indexes (drizzle/0005_tree-evidence-overall.sql):
 // the mean of its trees' ripened fractions, and each in-ground tree's main-crop days lists.
 const OVERALL_SHARE_SQL = `
-  SELECT variety_id, avg(fraction)
+  SELECT variety_id, avg(fraction), count(*)
     FROM (SELECT variety_id, tree_id, CAST(sum(ripened) AS real) / sum(reports) AS fraction FROM tree_evidence GROUP BY variety_id, tree_id)
    GROUP BY variety_id`;
 const OVERALL_NEED_SQL = `
@@ -88,8 +88,11 @@ export function treesNear(db: Db, point: LatLon, radiusKm: number): NearTree[] {
   return result;
 }
 
-/** Each variety's figures over all its trees everywhere (the same as varietyOverall on all its rows). */
-export function overallFigures(db: Db): Map<number, VarietyOverall> {
+/**
+ * Each variety's figures over all its trees everywhere (the same as varietyOverall on all its rows),
+ * and how many trees they rest on in all.
+ */
+export function overallFigures(db: Db): { overall: Map<number, VarietyOverall>; trees: number } {
   const needByVariety = new Map<number, number[][]>();
   for (const [varietyId, days] of statement(db, OVERALL_NEED_SQL, true).all() as [number, string][]) {
     let list = needByVariety.get(varietyId);
@@ -97,10 +100,12 @@ export function overallFigures(db: Db): Map<number, VarietyOverall> {
     list.push(numbers(days));
   }
   const overall = new Map<number, VarietyOverall>();
-  for (const [varietyId, share] of statement(db, OVERALL_SHARE_SQL, true).all() as [number, number][]) {
+  let trees = 0;
+  for (const [varietyId, share, count] of statement(db, OVERALL_SHARE_SQL, true).all() as [number, number, number][]) {
     overall.set(varietyId, overallFromParts(share, needByVariety.get(varietyId) ?? []));
+    trees += count;
   }
-  return overall;
+  return { overall, trees };
 }
 
 /** Accepted varieties of the catalogue, by id (a small table: read on each request). */

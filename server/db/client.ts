@@ -29,6 +29,12 @@ export function createDb(file: string) {
   sqlite.pragma('cache_size = -65536');
   sqlite.pragma('mmap_size = 268435456');
   const db = drizzle({ client: sqlite, schema, casing: 'snake_case' });
+  // Transactions begin IMMEDIATE: they take the write lock at BEGIN, where the busy timeout waits
+  // for another process's writer. A deferred transaction that reads and then writes cannot wait:
+  // SQLite answers "database is locked" at once when another process (SYCONIUM_INSTANCES > 1, a
+  // backup, a script) committed in between. Pass { behavior: 'deferred' } for a read-only one.
+  const transaction = db.transaction.bind(db);
+  db.transaction = ((fn, config) => transaction(fn, { behavior: 'immediate', ...config })) as typeof db.transaction;
   return Object.assign(db, { sqlite });
 }
 

@@ -41,7 +41,7 @@ export async function runEditorAlerts(deps: MailDeps, watermark: AlertWatermark 
       .where(and(gt(varieties.id, from.varietyId), eq(varieties.status, 'proposed')))
       .orderBy(asc(varieties.id))
       .all(),
-  }));
+  }), { behavior: 'deferred' }); // read only: one snapshot, no write lock
   const next: AlertWatermark = { flagId: flagRows.at(-1)?.id ?? from.flagId, varietyId: Math.max(from.varietyId, lastVarietyId) };
 
   const flags: AlertFlag[] = flagRows

@@ -201,7 +201,7 @@ describe('tree_evidence (kept by triggers) and the overall figures read from it'
             mainFrostToRipeDays: e.frost_to_ripe_days === null ? [] : String(e.frost_to_ripe_days).split(',').map(Number),
           }),
         );
-        const fromSql = overallFigures(db);
+        const fromSql = overallFigures(db).overall;
         for (const varietyId of [1, 2]) {
           const own = rows.filter((r) => r.varietyId === varietyId);
           const expected = varietyOverall(own);
