@@ -1,5 +1,6 @@
 import cluster from 'node:cluster';
 import { createApp } from './app';
+import { startCheckpointer } from './db/checkpointer';
 import { createDb, migrateDb } from './db/client';
 import { startMail } from './email';
 import { appJobs } from './jobs/app-jobs';
@@ -61,6 +62,7 @@ async function serve(): Promise<void> {
   const loopStats = process.env.SYCONIUM_LOOP_STATS === '1' ? startLoopStats() : undefined;
   if (loopStats) process.on('SIGUSR2', () => loopStats.reset());
   const db = createDb(config.dbFile);
+  const checkpointer = startCheckpointer(db);
   const mail = await startMail(config, db);
   const scheduler = createScheduler(db, appJobs({ db, mailer: mail.mailer, appUrl: config.appUrl }));
   scheduler.start();
@@ -84,6 +86,7 @@ async function serve(): Promise<void> {
     setTimeout(() => process.exit(1), 10_000).unref();
     server.close(async () => {
       await mail.close();
+      await checkpointer.stop();
       db.sqlite.close();
       process.exit(0);
     });
