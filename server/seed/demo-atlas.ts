@@ -1,5 +1,5 @@
 import { booleanPointInPolygon, point } from '@turf/turf';
-import type { Crop, GrowingForm, Outcome, PlantOrigin, ReportStatus } from '../../shared/domain/codes';
+import type { Crop, GrowingForm, Outcome, ReportStatus } from '../../shared/domain/codes';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import {
   DEMO_ATLAS_EMAIL_DOMAIN,
@@ -16,6 +16,7 @@ import {
   WINTER_PROTECTION,
 } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_SEASONS, DEMO_TOWNS, DEMO_VARIETIES, DEMO_WASP_AREAS, type DemoVariety } from './demo-scenario';
+import type { DemoReport } from './demo-reports';
 import { pick, seededRandom } from './random';
 
 /*
@@ -44,30 +45,12 @@ export interface AtlasTree {
   label: string;
 }
 
-export interface AtlasReport {
-  growerIndex: number;
+/** A report of the demo atlas: the story's report shape, on a numbered tree, with practices and a status. */
+export interface AtlasReport extends Omit<DemoReport, 'treeKey'> {
   treeIndex: number;
-  varietyName: string;
-  lat: number;
-  lon: number;
-  gridLat: number;
-  gridLon: number;
-  form: GrowingForm;
-  origin: PlantOrigin;
-  yearPlanted: number;
-  season: number;
-  crop: Crop;
-  outcome: Outcome;
-  firstRipeDate: string | null;
-  lastHarvestDate: string | null;
-  springFrostDate: string | null;
-  fallFrostDate: string | null;
-  pinched: boolean;
-  pinchedDate: string | null;
   winterProtection: string;
   feeding: string;
   watering: string;
-  notes: string;
   status: Extract<ReportStatus, 'published' | 'draft'>;
   /** When the grower posted it: after the crop's season (never after `now`). */
   createdAt: string;
