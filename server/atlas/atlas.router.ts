@@ -1,8 +1,9 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
+import type { LatLon } from '../../shared/domain/geo';
 import { estimateSeason } from '../../shared/domain/season-estimate';
-import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse } from '../../shared/schemas/atlas';
+import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse, type SeasonEstimate } from '../../shared/schemas/atlas';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
 import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
@@ -17,6 +18,11 @@ function waspAt(db: Db, lat: number, lon: number): NearResponse['wasp'] {
   return { established: areas.length > 0, areas };
 }
 
+/** The frost-free season at the point: stations in range, and the frost seasons of the growers among `trees`. */
+function seasonAround(db: Db, point: LatLon, radiusKm: number, trees: NearTree[]): SeasonEstimate {
+  return estimateSeason({ point, stations: stationSeasonsNear(db, point, radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm });
+}
+
 /**
  * The regional engine's reads: GET /atlas/near and GET /varieties/:id/fit. Mounted on /api before
  * the varieties router, so /varieties/:id/fit never reaches it. Public: answers carry only counts
@@ -29,7 +35,7 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     const query = nearQuerySchema.parse(req.query);
     const point = { lat: query.lat, lon: query.lon };
     const trees = treesNear(db, point, query.radiusKm);
-    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm: query.radiusKm });
+    const season = seasonAround(db, point, query.radiusKm, trees);
     const catalogue = cachedAcceptedVarieties(db);
     const overall = overallByVariety(db);
     const byVariety = new Map<number, NearTree[]>();
@@ -56,7 +62,7 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     if (!variety) throw notFound('Variety');
     const point = { lat: query.lat, lon: query.lon };
     const trees = treesNear(db, point, query.radiusKm);
-    const season = estimateSeason({ point, stations: stationSeasonsNear(db, point, query.radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm: query.radiusKm });
+    const season = seasonAround(db, point, query.radiusKm, trees);
     const body = buildFitResponse({ variety, overall: overallByVariety(db).get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
     res.json(fitResponseSchema.parse(body));
   });
