@@ -1,10 +1,11 @@
 // The worker thread behind `createPinBuilder` (pin-builder.ts): counts pin cells on its own
 // connection to the database file and clusters them, off the server's event loop.
 import Database from 'better-sqlite3';
-import { parentPort, workerData } from 'node:worker_threads';
+import { workerData } from 'node:worker_threads';
 import { atlasDataVersion } from '../db/data-version';
+import { answerRequests } from '../lib/ts-worker';
 import { buildPinLayers, toGridCell } from './pin-index';
-import type { BuildReply, BuildRequest } from './pin-builder';
+import type { BuildRequest, PinBuild } from './pin-builder';
 
 const sqlite = new Database((workerData as { file: string }).file, { fileMustExist: true });
 sqlite.pragma('busy_timeout = 5000');
@@ -17,20 +18,16 @@ const read = sqlite.transaction((statement: Database.Statement, params: unknown[
   rows: statement.all(...params) as [number, number, number, number][],
 }));
 
-parentPort!.on('message', ({ id, sql, params }: BuildRequest) => {
-  let reply: BuildReply;
-  try {
-    const started = performance.now();
-    let statement = statements.get(sql);
-    if (!statement) statements.set(sql, (statement = sqlite.prepare(sql).raw()));
-    const { version, rows } = read(statement, params);
-    const cells = rows.map(([gridLat, gridLon, reports, firstId]) => toGridCell(gridLat, gridLon, reports, firstId));
-    const clusterStarted = performance.now();
-    const layers = buildPinLayers(cells);
-    reply = { id, version, layers, queryMs: clusterStarted - started, clusterMs: performance.now() - clusterStarted };
-    parentPort!.postMessage(reply, layers.zooms.map((zoom) => zoom.buffer as ArrayBuffer));
-  } catch (error) {
-    reply = { id, error: error instanceof Error ? error.message : String(error) };
-    parentPort!.postMessage(reply);
-  }
+answerRequests<BuildRequest, PinBuild>(({ sql, params }) => {
+  const started = performance.now();
+  let statement = statements.get(sql);
+  if (!statement) statements.set(sql, (statement = sqlite.prepare(sql).raw()));
+  const { version, rows } = read(statement, params);
+  const cells = rows.map(([gridLat, gridLon, reports, firstId]) => toGridCell(gridLat, gridLon, reports, firstId));
+  const clusterStarted = performance.now();
+  const layers = buildPinLayers(cells);
+  return {
+    reply: { version, layers, queryMs: clusterStarted - started, clusterMs: performance.now() - clusterStarted },
+    transfer: layers.zooms.map((zoom) => zoom.buffer as ArrayBuffer),
+  };
 });
