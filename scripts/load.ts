@@ -13,9 +13,7 @@
 // LOAD_PROFILE=dir profiles the server's CPU, and names what ran during each long stall.
 // Bounded: LOAD_SECONDS (default 20) of traffic; a route missing from the server is skipped with a note.
 import autocannon from 'autocannon';
-import { spawn } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -23,6 +21,7 @@ import { hashPassword } from '../server/auth/password';
 import { createDb, migrateDb } from '../server/db/client';
 import { readConfig } from '../server/lib/config';
 import { seedDatabase } from '../server/seed';
+import { startServerProcess } from './server-process';
 import { insertSyntheticData, syntheticCentres, syntheticEmail } from './synthetic-data';
 
 const REPORTS = Number(process.env.LOAD_REPORTS ?? 200_000);
@@ -56,7 +55,7 @@ function serverCpuSeconds(): number {
         continue; // gone meanwhile
       }
       // fields[1] is the parent pid; utime and stime are in clock ticks (USER_HZ = 100).
-      if (pid === String(server.pid) || fields[1] === String(server.pid)) ticks += Number(fields[11]) + Number(fields[12]);
+      if (pid === String(serverPid) || fields[1] === String(serverPid)) ticks += Number(fields[11]) + Number(fields[12]);
     }
     return ticks / 100;
   } catch {
@@ -127,17 +126,6 @@ function busiestDuring(profile: CpuProfile, fromUs: number, toUs: number): strin
   return top.length ? `${(busy / 1000).toFixed(0)} ms sampled: ${top.map(([k, us]) => `${k} ${(us / 1000).toFixed(0)} ms`).join('; ')}` : 'no samples in the window';
 }
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-    server.on('error', reject);
-  });
-}
-
 // ------------------------------------------------------------------ 1. the database
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-load-'));
@@ -160,16 +148,11 @@ check.sqlite.close();
 
 // ------------------------------------------------------------------ 2. the production server
 
-const port = await freePort();
-const base = `http://127.0.0.1:${port}`;
 // LOAD_PROFILE=/some/dir writes a V8 CPU profile of the server there (open it in Chrome's DevTools).
 const profileArgs = process.env.LOAD_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.LOAD_PROFILE}`] : [];
-const server = spawn(process.execPath, [...profileArgs, '--import', 'tsx', 'server/index.ts'], {
-  env: {
-    ...process.env,
-    NODE_ENV: 'production',
-    HOST: '127.0.0.1',
-    PORT: String(port),
+t0 = performance.now();
+const server = await startServerProcess(
+  {
     SYCONIUM_DB: dbFile,
     SYCONIUM_UPLOADS: path.join(dir, 'uploads'),
     SYCONIUM_DEV_MAIL: 'false',
@@ -177,34 +160,20 @@ const server = spawn(process.execPath, [...profileArgs, '--import', 'tsx', 'serv
     SESSION_SECRET: 'load-test-secret',
     SYCONIUM_LOOP_STATS: '1', // server/lib/loop-stats.ts: printed at shutdown
   },
-  stdio: ['ignore', 'pipe', 'pipe'],
+  // At shutdown the server prints its loop figures and writes its profile: give it time.
+  { nodeArgs: profileArgs, startTimeoutMs: 90_000, stopGraceMs: 60_000 },
+).catch((error: unknown) => {
+  fs.rmSync(dir, { recursive: true, force: true });
+  throw error;
 });
-let serverLog = '';
-server.stdout.on('data', (chunk) => (serverLog += chunk));
-server.stderr.on('data', (chunk) => (serverLog += chunk));
-const stopServer = async () => {
-  if (server.exitCode !== null) return;
-  server.kill('SIGTERM');
-  await new Promise((r) => server.once('exit', r));
-};
+const base = server.url;
+const serverPid = server.child.pid!;
 process.on('SIGINT', () => {
-  server.kill('SIGKILL');
+  void server.kill();
   process.exit(130);
 });
 
 try {
-  t0 = performance.now();
-  const deadline = Date.now() + 90_000;
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`The server exited early:\n${serverLog}`);
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) break;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) throw new Error(`The server did not start:\n${serverLog}`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
   log(`Production server up on ${base} in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
   // ---------------------------------------------------------------- 3. sessions and routes
@@ -377,7 +346,7 @@ try {
   }
   log(`\nDriving ${active.map((r) => `${r.connections} × ${r.name}`).join(', ')} for ${SECONDS} s at the same time...`);
   measuring = true;
-  server.kill('SIGUSR2'); // a new event-loop-delay window for the measured traffic alone
+  server.child.kill('SIGUSR2'); // a new event-loop-delay window for the measured traffic alone
   const cpuBefore = serverCpuSeconds();
   const clientCpuBefore = process.cpuUsage();
   const wallBefore = performance.now();
@@ -399,10 +368,10 @@ try {
   const clientCpu = process.cpuUsage(clientCpuBefore);
   const clientCpuUsed = (clientCpu.user + clientCpu.system) / 1e6;
   // Stop the server now: it prints its event-loop figures (and writes its CPU profile) on the way out.
-  await stopServer();
-  const loop = parseLoopStats(serverLog);
+  await server.stop();
+  const loop = parseLoopStats(server.output());
 
-  const lockedInLog = (serverLog.match(/database is locked|SQLITE_BUSY/g) ?? []).length;
+  const lockedInLog = (server.output().match(/database is locked|SQLITE_BUSY/g) ?? []).length;
   const percentile = (sorted: number[], p: number) => (sorted.length ? Math.round(sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!) : 0);
   const rows = active.map((route) => {
     const t = windowTally.get(route.name)!;
@@ -445,7 +414,7 @@ try {
   log(`Load client CPU (autocannon, this process): ${clientCpuUsed.toFixed(1)} s (${((100 * clientCpuUsed) / wall).toFixed(0)} % of one core)`);
   if (loop) {
     log(`Server event loop over the traffic: delay p50 ${loop.p50} ms, p90 ${loop.p90} ms, p99 ${loop.p99} ms, max ${loop.max} ms; ${loop.stallCount} stalls of 100 ms or more`);
-    const profile = process.env.LOAD_PROFILE ? readServerProfile(process.env.LOAD_PROFILE, server.pid!) : undefined;
+    const profile = process.env.LOAD_PROFILE ? readServerProfile(process.env.LOAD_PROFILE, serverPid) : undefined;
     for (const stall of loop.stalls.slice(0, 8)) {
       log(`  stall ${stall.ms} ms ending ${stall.endS.toFixed(2)} s into the traffic${profile ? `: ${busiestDuring(profile, stall.endUs - stall.ms * 1000, stall.endUs)}` : ''}`);
     }
@@ -465,6 +434,6 @@ try {
   log(failures.length ? `\nTargets missed:\n  ${failures.join('\n  ')}` : `\nTargets met: zero errors, no "database is locked", read p99 under ${READ_P99_TARGET_MS} ms with ${WRITERS} concurrent writers.`);
   process.exitCode = failures.length ? 1 : 0;
 } finally {
-  await stopServer();
+  await server.stop();
   fs.rmSync(dir, { recursive: true, force: true });
 }

@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { startServerProcess } from '../helpers/server-process';
+import { startServerProcess } from '../../scripts/server-process';
 
 /** Chromium from Debian's package, never a downloaded browser. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';

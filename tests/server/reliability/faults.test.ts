@@ -5,7 +5,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { integrityCheck } from '../../../server/backup/backup';
 import { DEMO_PASSWORD } from '../../../server/seed/demo-scenario';
-import { startServerProcess, type ServerProcess } from '../../helpers/server-process';
+import { startServerProcess, type ServerProcess } from '../../../scripts/server-process';
 import { multipartBody, sendRequest } from './server-process';
 
 /*

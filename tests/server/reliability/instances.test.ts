@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../../server/seed/demo-scenario';
-import { startServerProcess, type ServerProcess } from '../../helpers/server-process';
+import { startServerProcess, type ServerProcess } from '../../../scripts/server-process';
 
 /*
  * SYCONIUM_INSTANCES=2: two server processes share the port (node:cluster). A session made through

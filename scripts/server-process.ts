@@ -1,7 +1,9 @@
+// The production server as a child process on a free port: used by the browser and fault tests
+// (tests/e2e/harness.ts, tests/server/reliability/) and by `npm run load`.
 import { spawn, type ChildProcess } from 'node:child_process';
 import net from 'node:net';
 
-async function freePort(): Promise<number> {
+export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const server = net.createServer();
     server.listen(0, '127.0.0.1', () => {
@@ -18,7 +20,7 @@ export interface ServerProcess {
   output: () => string;
   /** SIGKILL: no shutdown code runs, as in a power cut or an OOM kill. */
   kill: () => Promise<void>;
-  /** SIGTERM, then SIGKILL after 5 s if it is still running. */
+  /** SIGTERM, then SIGKILL after `stopGraceMs` if it is still running. */
   stop: () => Promise<void>;
 }
 
@@ -30,15 +32,24 @@ function signalGroup(child: ChildProcess, signal: NodeJS.Signals): void {
   }
 }
 
+export interface ServerProcessOptions {
+  /** Extra node flags before the script, e.g. `--cpu-prof`. */
+  nodeArgs?: string[];
+  /** How long to wait for /api/health (default 180 s). */
+  startTimeoutMs?: number;
+  /** How long stop() waits after SIGTERM before SIGKILL (default 5 s). */
+  stopGraceMs?: number;
+}
+
 /**
  * The production server (NODE_ENV=production, server/index.ts) on a free port, as one node process
  * (tsx as a loader, not the tsx CLI, which forks a second one) in its own process group, so a signal
  * reaches the process that holds the database and stop() ends everything it started.
  * A cold start seeds the demo (two real station files): the wait allows for a busy machine.
  */
-export async function startServerProcess(env: Record<string, string>): Promise<ServerProcess> {
+export async function startServerProcess(env: Record<string, string>, { nodeArgs = [], startTimeoutMs = 180_000, stopGraceMs = 5_000 }: ServerProcessOptions = {}): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
     detached: true,
     env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -48,7 +59,7 @@ export async function startServerProcess(env: Record<string, string>): Promise<S
   child.stderr?.on('data', (chunk) => (output += chunk));
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 180_000;
+  const deadline = Date.now() + startTimeoutMs;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {
@@ -74,7 +85,7 @@ export async function startServerProcess(env: Record<string, string>): Promise<S
     stop: async () => {
       if (!running()) return;
       signalGroup(child, 'SIGTERM');
-      const timer = setTimeout(() => signalGroup(child, 'SIGKILL'), 5_000);
+      const timer = setTimeout(() => signalGroup(child, 'SIGKILL'), stopGraceMs);
       await exited;
       clearTimeout(timer);
     },
