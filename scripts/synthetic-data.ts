@@ -1,6 +1,8 @@
 // Synthetic (invented) growers, trees and reports in bulk, for the load script and reliability tests.
-// One transaction with prepared statements: 200,000 reports take a few seconds.
+// One transaction with prepared statements and the report triggers replayed once at the end
+// (scripts/bulk-load.ts): 200,000 reports take a few seconds.
 import type Database from 'better-sqlite3';
+import { bulkLoad } from './bulk-load';
 import { CROPS, GROWING_FORMS, OUTCOMES, PLANT_ORIGINS } from '../shared/domain/codes';
 import { snapToGrid } from '../shared/domain/public-grid';
 
@@ -48,11 +50,23 @@ export interface SyntheticOptions {
 
 export const syntheticEmail = (i: number) => `load-grower-${i}@synthetic.syconium.test`;
 
+export interface SyntheticIds {
+  userIds: number[];
+  firstReportId: number;
+  lastReportId: number;
+}
+
 /**
  * Insert growers (verified e-mail), one to five trees each, and `reports` published reports on
- * them, all in one transaction. Needs at least one variety in the catalogue. Returns the new ids.
+ * them, all in one transaction, through bulkLoad (the derived tables are filled once at the end).
+ * Needs at least one variety in the catalogue. Returns the new ids.
  */
-export function insertSyntheticData(sqlite: Database.Database, options: SyntheticOptions): { userIds: number[]; firstReportId: number; lastReportId: number } {
+export function insertSyntheticData(sqlite: Database.Database, options: SyntheticOptions): SyntheticIds {
+  return bulkLoad(sqlite, () => insertSyntheticRows(sqlite, options));
+}
+
+/** The same rows with every trigger firing per row (slow; the reference bulkLoad is checked against). */
+export function insertSyntheticRows(sqlite: Database.Database, options: SyntheticOptions): SyntheticIds {
   const rand = random(options.seed ?? 2026);
   const centres = syntheticCentres(options.centres ?? Math.max(1, Math.ceil(options.growers / 10)), options.seed ?? 2026);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(rand() * list.length)]!;

@@ -14,6 +14,7 @@ import { seededRandom } from '../../server/seed/random';
 import { boundingBox } from '../../shared/domain/geo';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import { CROPS, GROWING_FORMS, OUTCOMES } from '../../shared/domain/codes';
+import { bulkLoad } from '../bulk-load';
 
 const REPORTS = Number(process.env.NEAR_BENCH_REPORTS ?? 1_000_000);
 const CLUSTERS = 3_000;
@@ -45,11 +46,9 @@ function build(db: Db): { centres: { lat: number; lon: number }[] } {
   const { sqlite } = db;
   const centres = Array.from({ length: CLUSTERS }, randomPlace);
   sqlite.pragma('synchronous = OFF');
-  // Bulk load without the per-row triggers (R*Trees, tree_evidence); they are filled in one pass
-  // afterwards and the triggers put back as the migrations wrote them.
-  const triggers = sqlite.prepare("SELECT name, sql FROM sqlite_master WHERE type = 'trigger' AND tbl_name IN ('reports', 'stations')").all() as { name: string; sql: string }[];
-  for (const t of triggers) sqlite.exec(`DROP TRIGGER ${t.name}`);
-  sqlite.transaction(() => {
+  // Bulk load without the per-row triggers (R*Trees, tree_evidence): scripts/bulk-load.ts fills
+  // what they would have in one pass afterwards and puts them back as the migrations wrote them.
+  bulkLoad(sqlite, () => {
     const insertVariety = sqlite.prepare("INSERT INTO varieties (name, fig_type, bears_breba, ripening_class, typical_days_to_ripen, status, is_fictional) VALUES (?, ?, ?, ?, ?, ?, 1)");
     for (let v = 0; v < VARIETIES; v++) {
       const figType = v % 11 === 0 ? 'smyrna' : v % 7 === 0 ? 'san-pedro' : 'common';
@@ -106,20 +105,10 @@ function build(db: Db): { centres: { lat: number; lon: number }[] } {
         insertSummary.run(id, thresholdF, 90, spring50 - 12, 365 - spring50 + extra + 12, days50 + extra * 2 + 22);
       }
     }
-  })();
-  sqlite.exec('INSERT INTO reports_rtree SELECT id, lat, lat, lon, lon FROM reports; INSERT INTO stations_rtree SELECT id, lat, lat, lon, lon FROM stations;');
-  // tree_evidence is filled by the statement its migration ends with (the rows with their place-ordered ids).
-  sqlite.exec(treeEvidenceFill());
-  for (const t of triggers) sqlite.exec(t.sql);
+  });
   sqlite.exec('ANALYZE');
   sqlite.pragma('synchronous = NORMAL');
   return { centres };
-}
-
-function treeEvidenceFill(): string {
-  const folder = path.resolve(import.meta.dirname, '../../drizzle');
-  const file = fs.readdirSync(folder).find((name) => name.endsWith('_tree-evidence-clustered.sql'))!;
-  return fs.readFileSync(path.join(folder, file), 'utf8').split('--> statement-breakpoint').at(-1)!;
 }
 
 function isoDate(year: number, dayOfYear: number): string {
