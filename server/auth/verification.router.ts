@@ -1,12 +1,12 @@
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { eq } from 'drizzle-orm';
-import { messageResponseSchema, verifyInputSchema } from '../../shared/schemas/email';
+import { messageResponseSchema, verifyInputSchema, verifyResponseSchema } from '../../shared/schemas/email';
 import { users } from '../db/schema';
 import type { MailDeps } from '../email/mailer';
 import { HttpError } from '../lib/http-error';
 import { requireSignedIn } from '../middleware/require-role';
-import { findUserById } from '../users/users.repo';
+import { findUserById, toCurrentUser } from '../users/users.repo';
 import { consumeEmailToken } from './email-tokens.repo';
 import { SqliteRateLimitStore } from './rate-limit-store';
 import { publishDraftsOf } from '../reports/publish';
@@ -56,7 +56,10 @@ export function createVerificationRouter(deps: MailDeps): Router {
         return publishDraftsOf(db, user.id, now).length;
       });
     }
-    res.json(messageResponseSchema.parse({ message: verifiedMessage(published) }));
+    // Whoever is signed in here, read again after the change: req.user was read before it. The page
+    // writes this into its cache instead of trusting a GET /me that may have been answered earlier.
+    const viewer = req.user ? findUserById(db, req.user.id) : undefined;
+    res.json(verifyResponseSchema.parse({ message: verifiedMessage(published), user: viewer ? toCurrentUser(viewer) : null }));
   });
 
   router.post('/verify/resend', requireSignedIn, resendLimit, async (req, res) => {

@@ -55,5 +55,11 @@ export const devMailMessageSchema = devMailSummarySchema.extend({ text: z.string
 export type DevMailSummary = z.infer<typeof devMailSummarySchema>;
 export type DevMailMessage = z.infer<typeof devMailMessageSchema>;
 
+/**
+ * POST /api/auth/verify answers with the account signed in on this browser as it is now (after the
+ * confirmation if it is theirs; null for a visitor), for the client to show at once.
+ */
+export const verifyResponseSchema = z.object({ message: z.string(), user: currentUserSchema.nullable() });
+
 /** POST /api/auth/reset answers with the account, now signed in on this browser only. */
 export const resetResponseSchema = z.object({ user: currentUserSchema, message: z.string() });

@@ -25,11 +25,35 @@ describe('e-mail verification, through the local SMTP server', async () => {
     // The link works without being signed in (it may be opened in another browser).
     const verify = await ctx.agent().post('/api/auth/verify').send({ token });
     expect(verify.status).toBe(200);
+    // Nobody is signed in on the browser that opened it.
+    expect(verify.body.user).toBeNull();
     expect((await a.get('/api/auth/me')).body.user.emailVerified).toBe(true);
 
     const again = await ctx.agent().post('/api/auth/verify').send({ token });
     expect(again.status).toBe(410);
     expect(again.body.error.code).toBe('link_used');
+  });
+
+  it('answers with the account signed in on this browser as it is after the confirmation', async () => {
+    // The page writes this answer into its cache: a GET /me answered just before the confirmation must
+    // not decide what the page shows (tests/client/current-user-race.test.tsx, tests/e2e/email.test.ts).
+    const a = ctx.agent();
+    await a.post('/api/auth/sign-up').send({ email: 'same@example.com', displayName: 'Same', password: 'a long enough password' });
+    const other = ctx.agent();
+    await other.post('/api/auth/sign-up').send({ email: 'other@example.com', displayName: 'Other', password: 'a long enough password' });
+
+    const own = await a.post('/api/auth/verify').send({ token: linkToken(ctx.inbox('same@example.com')[0]!.text, '/verify') });
+    expect(own.status).toBe(200);
+    expect(own.body.user).toEqual((await a.get('/api/auth/me')).body.user);
+    expect(own.body.user).toMatchObject({ email: 'same@example.com', emailVerified: true });
+
+    // A third grower's link opened where Other is signed in: the third is confirmed, and Other's own
+    // account comes back, unchanged.
+    await ctx.agent().post('/api/auth/sign-up').send({ email: 'third@example.com', displayName: 'Third', password: 'a long enough password' });
+    const foreign = await other.post('/api/auth/verify').send({ token: linkToken(ctx.inbox('third@example.com')[0]!.text, '/verify') });
+    expect(foreign.status).toBe(200);
+    expect(foreign.body.user).toMatchObject({ email: 'other@example.com', emailVerified: false });
+    expect(ctx.db.select().from(users).where(eq(users.email, 'third@example.com')).get()!.emailVerifiedAt).not.toBeNull();
   });
 
   it('rejects an expired link and an unknown one', async () => {

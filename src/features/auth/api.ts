@@ -1,6 +1,6 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { hashKey, queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { meResponseSchema, type SignInInput, type SignUpInput } from '@shared/schemas/auth';
+import { meResponseSchema, type CurrentUser, type SignInInput, type SignUpInput } from '@shared/schemas/auth';
 import type { Role } from '@shared/domain/codes';
 import { apiFetch } from '../../lib/api-client';
 
@@ -8,8 +8,30 @@ const userResponseSchema = meResponseSchema.required();
 
 export const authQueries = {
   all: ['auth'] as const,
-  me: () => queryOptions({ queryKey: [...authQueries.all, 'me'], queryFn: () => apiFetch('/api/auth/me', meResponseSchema), staleTime: 60_000 }),
+  me: () =>
+    queryOptions({
+      queryKey: [...authQueries.all, 'me'],
+      queryFn: ({ signal }) => apiFetch('/api/auth/me', meResponseSchema, { signal }),
+      staleTime: 60_000,
+    }),
 };
+
+/**
+ * After a request that changed who is signed in or what their account says: show the account its
+ * answer carries, then refresh everything else the viewer sees.
+ *
+ * A GET /api/auth/me still on its way was answered before the change (a freshly loaded page asks for
+ * it at once, alongside the change). Invalidating alone does not help: while the query has no data
+ * yet, TanStack Query joins the refetch to that fetch in flight instead of starting a new one, and
+ * the older answer then lands as fresh data. So that fetch is cancelled (its answer ignored) first.
+ */
+export async function showCurrentUser(queryClient: QueryClient, user: CurrentUser | null): Promise<void> {
+  const me = authQueries.me();
+  await queryClient.cancelQueries({ queryKey: me.queryKey, exact: true });
+  queryClient.setQueryData(me.queryKey, { user });
+  const meHash = hashKey(me.queryKey);
+  await queryClient.invalidateQueries({ predicate: (query) => query.queryHash !== meHash });
+}
 
 /** The signed-in user, or null for a visitor. */
 export function useCurrentUser() {
@@ -27,7 +49,7 @@ function useAuthMutation<TInput>(path: string) {
   return useMutation({
     mutationFn: (input: TInput) => apiFetch(path, userResponseSchema, { method: 'POST', json: input }),
     // Everything the viewer can see may change with who they are.
-    onSuccess: () => queryClient.invalidateQueries(),
+    onSuccess: ({ user }) => showCurrentUser(queryClient, user),
   });
 }
 
@@ -38,6 +60,6 @@ export function useSignOut() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: () => apiFetch('/api/auth/sign-out', z.undefined(), { method: 'POST' }),
-    onSuccess: () => queryClient.invalidateQueries(),
+    onSuccess: () => showCurrentUser(queryClient, null),
   });
 }

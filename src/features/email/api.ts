@@ -9,9 +9,10 @@ import {
   type DigestSettingsInput,
   type ForgotInput,
   type ResetInput,
+  verifyResponseSchema,
 } from '@shared/schemas/email';
 import { apiFetch } from '../../lib/api-client';
-import { authQueries } from '../auth/api';
+import { showCurrentUser } from '../auth/api';
 
 export const emailQueries = {
   all: ['email'] as const,
@@ -22,12 +23,16 @@ export const emailQueries = {
     queryOptions({ queryKey: [...emailQueries.all, 'dev-mail', id], queryFn: () => apiFetch(`/api/dev/mail/${id}`, devMailMessageSchema), staleTime: Infinity }),
 };
 
-/** Confirm an address from the e-mailed link; the signed-in user (if it is them) refreshes. */
+/**
+ * Confirm an address from the e-mailed link. The answer carries whoever is signed in on this browser
+ * as they are now (confirmed, if it was their link); the banner goes at once, whatever an older
+ * GET /api/auth/me says.
+ */
 export function useVerifyEmail() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (token: string) => apiFetch('/api/auth/verify', messageResponseSchema, { method: 'POST', json: { token } }),
-    onSuccess: () => queryClient.invalidateQueries(),
+    mutationFn: (token: string) => apiFetch('/api/auth/verify', verifyResponseSchema, { method: 'POST', json: { token } }),
+    onSuccess: ({ user }) => showCurrentUser(queryClient, user),
   });
 }
 
@@ -44,7 +49,7 @@ export function useResetPassword() {
   return useMutation({
     mutationFn: (input: ResetInput) => apiFetch('/api/auth/reset', resetResponseSchema, { method: 'POST', json: input }),
     // Who is signed in has changed: everything the viewer sees may change.
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: authQueries.all }).then(() => queryClient.invalidateQueries()),
+    onSuccess: ({ user }) => showCurrentUser(queryClient, user),
   });
 }
 
