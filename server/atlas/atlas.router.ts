@@ -7,8 +7,10 @@ import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse, 
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
 import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
-import { reportFrostSeasons, stationSeasonsNear, treesNear, type NearTree } from './atlas.repo';
-import { cachedAcceptedVarieties, overallByVariety } from './overall-cache';
+import { stationSeasonsNear } from './atlas.repo';
+import { cachedAcceptedVarieties } from './catalogue-cache';
+import { createTreeSnapshotCache } from './tree-snapshot-cache';
+import { reportFrostSeasons, treesWithin, type NearTree } from './tree-snapshot';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const NO_OVERALL = { share: null, neededDays: null, treesBehindNeed: 0 };
@@ -30,14 +32,16 @@ function seasonAround(db: Db, point: LatLon, radiusKm: number, trees: NearTree[]
  */
 export function createAtlasRouter({ db }: { db: Db }): Router {
   const router = Router();
+  const snapshots = createTreeSnapshotCache(db);
 
-  router.get('/atlas/near', (req, res) => {
+  router.get('/atlas/near', async (req, res) => {
     const query = nearQuerySchema.parse(req.query);
     const point = { lat: query.lat, lon: query.lon };
-    const trees = treesNear(db, point, query.radiusKm);
+    const snapshot = await snapshots.get();
+    const trees = treesWithin(snapshot, point, query.radiusKm);
     const season = seasonAround(db, point, query.radiusKm, trees);
     const catalogue = cachedAcceptedVarieties(db);
-    const overall = overallByVariety(db);
+    const overall = snapshot.overall;
     const byVariety = new Map<number, NearTree[]>();
     for (const t of trees) {
       let list = byVariety.get(t.varietyId);
@@ -55,15 +59,15 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     res.json(body);
   });
 
-  router.get('/varieties/:id/fit', (req, res) => {
+  router.get('/varieties/:id/fit', async (req, res) => {
     const { id } = idParamsSchema.parse(req.params);
     const query = fitQuerySchema.parse(req.query);
     const variety = cachedAcceptedVarieties(db).get(id);
     if (!variety) throw notFound('Variety');
     const point = { lat: query.lat, lon: query.lon };
-    const trees = treesNear(db, point, query.radiusKm);
-    const season = seasonAround(db, point, query.radiusKm, trees);
-    const body = buildFitResponse({ variety, overall: overallByVariety(db).get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
+    const snapshot = await snapshots.get();
+    const season = seasonAround(db, point, query.radiusKm, treesWithin(snapshot, point, query.radiusKm));
+    const body = buildFitResponse({ variety, overall: snapshot.overall.get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
     res.json(fitResponseSchema.parse(body));
   });
 

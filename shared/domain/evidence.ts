@@ -1,5 +1,5 @@
 import type { FigType, GrowingForm, RipeningClass } from './codes';
-import type { FitResponse, NearResponse, SeasonEstimate } from '../schemas/atlas';
+import type { FitResponse, NearResponse, SeasonEstimate, Share, VarietyEvidence } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
 import { RANKING_METHOD, rankVarieties, type RankInput } from './ranking';
 import { type TreeEvidence, type VarietyOverall, adjustedShareMethod, tallyEvidence } from './ripening-stats';
@@ -107,8 +107,37 @@ export function buildNearResponse(input: {
     season: input.season,
     wasp: input.wasp,
     totals: { reports, trees: trees.size, growers: growers.size },
-    varieties: rankVarieties(input.varieties.filter((v) => v.localTrees.length > 0).map((v) => buildVarietyEvidence(v, context))),
+    varieties: rankVarieties(input.varieties.filter((v) => v.localTrees.length > 0).map((v) => buildVarietyEvidence(v, context))).map(roundedForTheWire),
     method: `${adjustedShareMethod(bandwidthKm)} ${RANKING_METHOD}`,
+  };
+}
+
+const round = (x: number, places: number) => Math.round(x * 10 ** places) / 10 ** places;
+const roundOrNull = (x: number | null, places: number) => (x === null ? null : round(x, places));
+
+/** A share as sent: shares and interval ends to 4 decimals (0.01 %), ripened trees to 3. */
+function roundedShare(s: Share): Share {
+  return {
+    trees: s.trees,
+    reports: s.reports,
+    ripened: round(s.ripened, 3),
+    share: roundOrNull(s.share, 4),
+    interval90: s.interval90 && { low: round(s.interval90.low, 4), high: round(s.interval90.high, 4) },
+  };
+}
+
+/**
+ * A ranked variety as sent, after ranking on the full figures: 17 significant digits of a share say
+ * nothing a reader can use and made up a third of a near answer's bytes.
+ */
+export function roundedForTheWire(v: VarietyEvidence): VarietyEvidence {
+  return {
+    ...v,
+    all: roundedShare(v.all),
+    byCrop: { breba: roundedShare(v.byCrop.breba), main: roundedShare(v.byCrop.main) },
+    byForm: { ground: roundedShare(v.byForm.ground), container: roundedShare(v.byForm.container), wall: roundedShare(v.byForm.wall), greenhouse: roundedShare(v.byForm.greenhouse) },
+    adjustedShare: roundOrNull(v.adjustedShare, 4),
+    overallShare: roundOrNull(v.overallShare, 4),
   };
 }
 

@@ -77,7 +77,21 @@ export function pollinationCheck(figType: FigType, crop: Crop, waspEstablished: 
   }
 }
 
-/** Both crops at once, in the shape VarietyEvidence and FitResponse carry. */
+const checksMade = new Map<string, { breba: PollinationCheck; main: PollinationCheck }>();
+
+/**
+ * Both crops at once, in the shape VarietyEvidence and FitResponse carry. There are ten possible
+ * answers; each is made once and shared (frozen), since a near answer asks for dozens.
+ */
 export function pollinationChecks(figType: FigType, waspEstablished: boolean): { breba: PollinationCheck; main: PollinationCheck } {
-  return { breba: pollinationCheck(figType, 'breba', waspEstablished), main: pollinationCheck(figType, 'main', waspEstablished) };
+  const key = `${figType}|${waspEstablished}`;
+  let checks = checksMade.get(key);
+  if (!checks) {
+    checks = Object.freeze({
+      breba: Object.freeze(pollinationCheck(figType, 'breba', waspEstablished)),
+      main: Object.freeze(pollinationCheck(figType, 'main', waspEstablished)),
+    });
+    checksMade.set(key, checks);
+  }
+  return checks;
 }

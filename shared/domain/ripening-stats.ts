@@ -263,18 +263,6 @@ export function overallFromParts(share: number | null, needDaysPerTree: number[]
 
 const FORM_INDEX: Record<GrowingForm, number> = { ground: 0, container: 1, wall: 2, greenhouse: 3 };
 
-type TreeAcc = {
-  n: number;
-  ripe: number;
-  d: number;
-  cropN: [number, number];
-  cropRipe: [number, number];
-  formN: [number, number, number, number];
-  formRipe: [number, number, number, number];
-  firstRipe: number[] | null;
-  frostToRipe: number[] | null;
-};
-
 function shareOf(trees: number, reports: number, ripened: number): Share {
   return { trees, reports, ripened, share: trees > 0 ? ripened / trees : null, interval90: wilsonInterval(ripened, trees, 0.9) };
 }
@@ -308,81 +296,102 @@ export function tallyEvidence(
   medianFirstRipeDoy: number | null;
   medianDaysFrostToRipe: number | null;
 } {
-  const trees = new Map<number, TreeAcc>();
-  const users = new Set<number>();
-  const cropReports = [0, 0];
-  const formReports = [0, 0, 0, 0];
-  let reports = 0;
-  for (const row of rows) {
-    users.add(row.userId);
-    let t = trees.get(row.treeId);
-    if (!t) {
-      t = { n: 0, ripe: 0, d: row.distanceKm, cropN: [0, 0], cropRipe: [0, 0], formN: [0, 0, 0, 0], formRipe: [0, 0, 0, 0], firstRipe: null, frostToRipe: null };
-      trees.set(row.treeId, t);
-    }
-    const f = FORM_INDEX[row.form];
-    const mainN = row.reports - row.brebaReports;
-    const mainRipe = row.ripened - row.brebaRipened;
-    reports += row.reports;
-    t.n += row.reports;
-    t.ripe += row.ripened;
-    if (row.distanceKm < t.d) t.d = row.distanceKm;
-    t.cropN[0] += row.brebaReports;
-    t.cropRipe[0] += row.brebaRipened;
-    t.cropN[1] += mainN;
-    t.cropRipe[1] += mainRipe;
-    t.formN[f] += row.reports;
-    t.formRipe[f] += row.ripened;
-    cropReports[0] += row.brebaReports;
-    cropReports[1] += mainN;
-    formReports[f] += row.reports;
-    if (row.mainFirstRipeDoys.length > 0) (t.firstRipe ??= []).push(...row.mainFirstRipeDoys);
-    if (row.mainFrostToRipeDays.length > 0) (t.frostToRipe ??= []).push(...row.mainFrostToRipeDays);
-  }
-
   const h = options.bandwidthKm ?? ADJUSTED_SHARE_DEFAULTS.bandwidthKm;
   const k = options.priorStrength ?? ADJUSTED_SHARE_DEFAULTS.priorStrength;
-  let ripened = 0;
+  const users = new Set<number>();
+  const cropReports = [0, 0];
   const cropTrees = [0, 0];
   const cropRipened = [0, 0];
+  const formReports = [0, 0, 0, 0];
   const formTrees = [0, 0, 0, 0];
   const formRipened = [0, 0, 0, 0];
-  let ws = 0;
-  let w = 0;
+  // One tree's reports per form, and ripened per form (a tree in several forms has several rows).
+  const treeFormN = [0, 0, 0, 0];
+  const treeFormRipe = [0, 0, 0, 0];
   const firstRipe: number[] = [];
   const frostToRipe: number[] = [];
-  for (const t of trees.values()) {
-    const frac = t.ripe / t.n;
+  let reports = 0;
+  let trees = 0;
+  let ripened = 0;
+  let ws = 0;
+  let w = 0;
+  // A tree's rows side by side (a tree usually has one row), so each tree is summed in local
+  // variables without a map or an object per tree: thousands of rows per request.
+  const ordered = rows.length > 1 ? [...rows].sort((a, b) => a.treeId - b.treeId) : rows;
+  for (let i = 0; i < ordered.length; ) {
+    const treeId = ordered[i].treeId;
+    let end = i + 1;
+    while (end < ordered.length && ordered[end].treeId === treeId) end++;
+    let n = 0;
+    let ripe = 0;
+    let d = Infinity;
+    let brebaN = 0;
+    let brebaRipe = 0;
+    treeFormN.fill(0);
+    treeFormRipe.fill(0);
+    for (let j = i; j < end; j++) {
+      const row = ordered[j];
+      users.add(row.userId);
+      const f = FORM_INDEX[row.form];
+      n += row.reports;
+      ripe += row.ripened;
+      if (row.distanceKm < d) d = row.distanceKm;
+      brebaN += row.brebaReports;
+      brebaRipe += row.brebaRipened;
+      treeFormN[f] += row.reports;
+      treeFormRipe[f] += row.ripened;
+      formReports[f] += row.reports;
+    }
+    const mainN = n - brebaN;
+    const mainRipe = ripe - brebaRipe;
+    reports += n;
+    cropReports[0] += brebaN;
+    cropReports[1] += mainN;
+    trees++;
+    const frac = ripe / n;
     ripened += frac;
-    const weight = Math.exp(-(t.d * t.d) / (2 * h * h));
+    const weight = Math.exp(-(d * d) / (2 * h * h));
     ws += weight * frac;
     w += weight;
-    for (let c = 0; c < 2; c++) {
-      if (t.cropN[c] > 0) {
-        cropTrees[c]++;
-        cropRipened[c] += t.cropRipe[c] / t.cropN[c];
-      }
+    if (brebaN > 0) {
+      cropTrees[0]++;
+      cropRipened[0] += brebaRipe / brebaN;
+    }
+    if (mainN > 0) {
+      cropTrees[1]++;
+      cropRipened[1] += mainRipe / mainN;
     }
     for (let f = 0; f < 4; f++) {
-      if (t.formN[f] > 0) {
+      if (treeFormN[f] > 0) {
         formTrees[f]++;
-        formRipened[f] += t.formRipe[f] / t.formN[f];
+        formRipened[f] += treeFormRipe[f] / treeFormN[f];
       }
     }
-    if (t.firstRipe) firstRipe.push(smallMedian(t.firstRipe));
-    if (t.frostToRipe) frostToRipe.push(smallMedian(t.frostToRipe));
+    const treeFirstRipe = treeList(ordered, i, end, 'mainFirstRipeDoys');
+    if (treeFirstRipe) firstRipe.push(smallMedian(treeFirstRipe));
+    const treeFrostToRipe = treeList(ordered, i, end, 'mainFrostToRipeDays');
+    if (treeFrostToRipe) frostToRipe.push(smallMedian(treeFrostToRipe));
+    i = end;
   }
   const adjusted = overallShare === null ? (w > 0 ? ws / w : null) : (ws + k * overallShare) / (w + k);
   const byForm = (f: number) => shareOf(formTrees[f], formReports[f], formRipened[f]);
   return {
     growers: users.size,
-    all: shareOf(trees.size, reports, ripened),
+    all: shareOf(trees, reports, ripened),
     byCrop: { breba: shareOf(cropTrees[0], cropReports[0], cropRipened[0]), main: shareOf(cropTrees[1], cropReports[1], cropRipened[1]) },
     byForm: { ground: byForm(0), container: byForm(1), wall: byForm(2), greenhouse: byForm(3) },
     adjustedShare: adjusted,
     medianFirstRipeDoy: medianOfSorted(Float64Array.from(firstRipe).sort()),
     medianDaysFrostToRipe: medianOfSorted(Float64Array.from(frostToRipe).sort()),
   };
+}
+
+/** One tree's values of a list over its rows `from`..`to` - 1 (the row's own list when it has one row); null when empty. */
+function treeList(rows: TreeEvidence[], from: number, to: number, key: 'mainFirstRipeDoys' | 'mainFrostToRipeDays'): number[] | null {
+  if (to - from === 1) return rows[from][key].length > 0 ? rows[from][key] : null;
+  const values: number[] = [];
+  for (let j = from; j < to; j++) values.push(...rows[j][key]);
+  return values.length > 0 ? values : null;
 }
 
 /** The adjusted-share method in plain words for a kernel scale `bandwidthKm`. */

@@ -56,7 +56,10 @@ describe('buildNearResponse', () => {
     const [amberEvidence, brassEvidence] = response.varieties;
     // Tree 10: 2 of 3 reports ripened; tree 11: 0 of 1. Two trees, 0.667 ripened.
     expect(amberEvidence.all).toMatchObject({ trees: 2, reports: 4 });
-    expect(amberEvidence.all.share).toBeCloseTo(1 / 3, 12);
+    // 1/3, sent to 4 decimals (ranked on the full figure); the ripened trees to 3.
+    expect(amberEvidence.all.share).toBe(0.3333);
+    expect(amberEvidence.all.ripened).toBe(0.667);
+    expect(amberEvidence.all.interval90!.low).toBe(Math.round(amberEvidence.all.interval90!.low * 1e4) / 1e4);
     expect(amberEvidence.byCrop.breba).toMatchObject({ trees: 1, share: 0 });
     expect(amberEvidence.byForm.container).toMatchObject({ trees: 1, share: 0 });
     expect(amberEvidence.growers).toBe(2);
