@@ -31,6 +31,7 @@ import {
 } from '../../shared/schemas/reports';
 import { recordAudit } from '../audit/audit.repo';
 import type { Db } from '../db/client';
+import { writeBatcher } from '../db/write-batcher';
 import { reportFlags } from '../db/schema';
 import type { Config } from '../lib/config';
 import { HttpError, notFound } from '../lib/http-error';
@@ -150,11 +151,11 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
 
   // ---------------------------------------------------------------- writes by the author
 
-  router.post('/', requireSignedIn, (req, res) => {
+  router.post('/', requireSignedIn, async (req, res) => {
     const input = createReportInputSchema.parse(req.body);
     const user = req.user!;
     const status = user.emailVerified ? 'published' : 'draft';
-    const row = db.transaction(() => {
+    const row = await writeBatcher(db).run(() => {
       const variety = resolveVariety(db, input, user.id);
       const treeId = resolveTree(db, user.id, input.treeId, input.newTreeLabel, variety.name);
       const now = new Date().toISOString();
