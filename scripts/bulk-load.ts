@@ -37,7 +37,7 @@ function treeEvidenceFill(): string {
 
 /**
  * Run `insert` with the triggers of `reports` and `stations` off, then bring the derived tables
- * (reports_rtree, stations_rtree, published_at, data_versions, tree_evidence and its R*Tree) to
+ * (reports_rtree, stations_rtree, published_at, data_versions, tree_evidence) to
  * what the triggers would have made. `insert` may only INSERT new reports and stations (other
  * tables, such as users and trees, freely); it must not update or delete existing ones.
  * tree_evidence is rebuilt whole (its ids, which only order rows by place, are renumbered).
