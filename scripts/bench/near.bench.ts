@@ -143,6 +143,7 @@ async function main() {
     let t0 = performance.now();
     let centres: { lat: number; lon: number }[];
     if (reuse) {
+      migrateDb(db); // a database kept by an older version gets the newer migrations
       centres = (db.sqlite.prepare('SELECT lat, lon FROM reports WHERE id % 300 = 0 LIMIT 3000').all() as { lat: number; lon: number }[]);
       console.log(`Reusing ${keep}`);
     } else {
