@@ -73,20 +73,48 @@ export function photoCount(db: Db, reportId: number): number {
   return db.select({ n: count() }).from(reportPhotos).where(eq(reportPhotos.reportId, reportId)).get()!.n;
 }
 
+type VarietyRef = NonNullable<Report['variety']>;
+
+/** What a report's answer shows besides its own row. */
+interface ReportRefs {
+  variety: VarietyRef | undefined;
+  treeLabel: string | undefined;
+  growerName: string | undefined;
+  photos: ReportPhoto[];
+  hasOpenFlag: boolean;
+  openFlags: number;
+}
+
 /** The report as this viewer may see it (call canView first). */
 export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
+  return shapeReport(row, viewer, {
+    variety: row.varietyId ? q.varietyRef(db).get({ id: row.varietyId }) : undefined,
+    treeLabel: q.treeLabel(db).get({ id: row.treeId })?.label,
+    growerName: q.growerName(db).get({ id: row.userId })?.displayName,
+    photos: photosOf(db, row.id).map(({ fileName: _f, thumbName: _t, ...photo }) => photo),
+    hasOpenFlag: viewer ? !!q.openFlagOf(db).get({ reportId: row.id, userId: viewer.id }) : false,
+    openFlags: isEditor(viewer) ? q.openFlagCount(db).get({ reportId: row.id })!.n : 0,
+  });
+}
+
+/**
+ * A report its author has just written, as toReport would answer it, without reading back what
+ * the write already knows: its variety and tree as resolved, the author's name, and no photos or
+ * flags yet.
+ */
+export function toNewReport(row: ReportRow, author: Express.User, refs: { variety: VarietyRef; treeLabel: string }): Report {
+  return shapeReport(row, author, { ...refs, growerName: author.displayName, photos: [], hasOpenFlag: false, openFlags: 0 });
+}
+
+function shapeReport(row: ReportRow, viewer: Viewer, refs: ReportRefs): Report {
   const exact = seesExact(row, viewer);
   const isOwner = viewer?.id === row.userId;
   const moderator = isEditor(viewer);
-  const variety = row.varietyId ? q.varietyRef(db).get({ id: row.varietyId }) : undefined;
-  const tree = q.treeLabel(db).get({ id: row.treeId });
-  const grower = q.growerName(db).get({ id: row.userId });
-  const hasOpenFlag = viewer ? !!q.openFlagOf(db).get({ reportId: row.id, userId: viewer.id }) : false;
-  const openFlags = moderator ? q.openFlagCount(db).get({ reportId: row.id })!.n : 0;
+  const { variety, hasOpenFlag, openFlags } = refs;
   return {
     id: row.id,
     treeId: row.treeId,
-    treeLabel: exact ? (tree?.label ?? null) : null,
+    treeLabel: exact ? (refs.treeLabel ?? null) : null,
     variety: variety ?? null,
     proposedVarietyName: row.proposedVarietyName,
     lat: exact ? row.lat : null,
@@ -112,8 +140,8 @@ export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
     status: row.status,
     hiddenReason: isOwner || moderator ? row.hiddenReason : null,
     hiddenAt: isOwner || moderator ? row.hiddenAt : null,
-    grower: { displayName: grower?.displayName ?? 'A grower' },
-    photos: photosOf(db, row.id).map(({ fileName: _f, thumbName: _t, ...photo }) => photo),
+    grower: { displayName: refs.growerName ?? 'A grower' },
+    photos: refs.photos,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
     viewer: { isOwner, canModerate: moderator, hasOpenFlag, openFlags },
@@ -300,13 +328,14 @@ export function findVarietyByName(db: Db, name: string): { id: number; status: s
  * The variety a report links to: a listed one (accepted, or a proposal still waiting), or the
  * grower's proposed name, reusing a waiting proposal of the same name or creating one.
  */
-export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyId' | 'proposedVarietyName'>, userId: number): { varietyId: number; proposedVarietyName: string | null; name: string } {
+export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyId' | 'proposedVarietyName'>, userId: number): { varietyId: number; proposedVarietyName: string | null; name: string; ref: VarietyRef } {
+  const ref = (row: VarietyRef): VarietyRef => ({ id: row.id, name: row.name, figType: row.figType, status: row.status });
   if (input.varietyId !== null) {
     const row = q.varietyById(db).get({ id: input.varietyId });
     if (!row || (row.status !== 'accepted' && row.status !== 'proposed')) {
       throw new HttpError(400, 'invalid_input', 'Please check: varietyId', { varietyId: ['Choose a variety from the catalogue'] });
     }
-    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? row.name : null, name: row.name };
+    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? row.name : null, name: row.name, ref: ref(row) };
   }
   const name = input.proposedVarietyName!;
   const existing = findVarietyByName(db, name);
@@ -315,20 +344,21 @@ export function resolveVariety(db: Db, input: Pick<CreateReportValues, 'varietyI
       throw new HttpError(400, 'invalid_input', 'Please check: proposedVarietyName', { proposedVarietyName: ['Editors have declined this name; choose a listed variety or a different name'] });
     }
     const row = q.varietyById(db).get({ id: existing.id })!;
-    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? name : null, name: row.name };
+    return { varietyId: row.id, proposedVarietyName: row.status === 'proposed' ? name : null, name: row.name, ref: ref(row) };
   }
   const created = db.insert(varieties).values({ name, status: 'proposed', proposedByUserId: userId, figType: 'unknown' }).returning().get();
-  return { varietyId: created.id, proposedVarietyName: name, name };
+  return { varietyId: created.id, proposedVarietyName: name, name, ref: ref(created) };
 }
 
 /** The grower's existing tree, or a new one with the given label. */
-export function resolveTree(db: Db, userId: number, treeId: number | null, label: string | null, fallbackLabel: string): number {
+export function resolveTree(db: Db, userId: number, treeId: number | null, label: string | null, fallbackLabel: string): { id: number; label: string } {
   if (treeId !== null) {
     const tree = q.treeById(db).get({ id: treeId });
     if (!tree || tree.userId !== userId) throw new HttpError(400, 'invalid_input', 'Please check: treeId', { treeId: ['Choose one of your own trees, or a new tree'] });
-    return tree.id;
+    return { id: tree.id, label: tree.label };
   }
-  return q.insertTree(db).get({ userId, label: label ?? fallbackLabel })!.id;
+  const newLabel = label ?? fallbackLabel;
+  return { id: q.insertTree(db).get({ userId, label: newLabel })!.id, label: newLabel };
 }
 
 /** A tree of this grower with this label (case-insensitive), for CSV rows. */

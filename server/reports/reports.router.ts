@@ -58,6 +58,7 @@ import {
   reportColumns,
   resolveTree,
   resolveVariety,
+  toNewReport,
   toReport,
   updateReportRow,
   type ReportRow,
@@ -155,15 +156,17 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     const input = createReportInputSchema.parse(req.body);
     const user = req.user!;
     const status = user.emailVerified ? 'published' : 'draft';
-    const row = await writeBatcher(db).run(() => {
+    // Group commit: posts of the same event-loop turn share one transaction, each in its own
+    // savepoint (a refused post rolls back alone); the answer waits for the shared COMMIT.
+    const report = await writeBatcher(db).run(() => {
       const variety = resolveVariety(db, input, user.id);
-      const treeId = resolveTree(db, user.id, input.treeId, input.newTreeLabel, variety.name);
+      const tree = resolveTree(db, user.id, input.treeId, input.newTreeLabel, variety.name);
       const now = new Date().toISOString();
-      const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
+      const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId: tree.id, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
       recordAudit(db, { actorId: user.id, action: 'report.create', entityType: 'report', entityId: created.id, after: created });
-      return created;
+      return toNewReport(created, user, { variety: variety.ref, treeLabel: tree.label });
     });
-    res.status(201).json(reportResponseSchema.parse({ report: toReport(db, row, user), notice: status === 'draft' ? DRAFT_NOTICE : undefined }));
+    res.status(201).json(reportResponseSchema.parse({ report, notice: status === 'draft' ? DRAFT_NOTICE : undefined }));
   });
 
   router.patch('/:id', requireSignedIn, (req, res) => {
@@ -187,7 +190,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     });
     const after = db.transaction(() => {
       const variety = changesVariety ? resolveVariety(db, merged, user.id) : { varietyId: before.varietyId, proposedVarietyName: before.proposedVarietyName, name: '' };
-      const treeId = changesTree ? resolveTree(db, user.id, merged.treeId, merged.newTreeLabel, variety.name || 'My fig tree') : before.treeId;
+      const treeId = changesTree ? resolveTree(db, user.id, merged.treeId, merged.newTreeLabel, variety.name || 'My fig tree').id : before.treeId;
       const updated = updateReportRow(db, id, {
         ...reportColumns(merged),
         varietyId: variety.varietyId,
@@ -387,7 +390,7 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
         const label = treeLabel || variety.name;
         const key = label.toLowerCase(); // a cache key only; the database match uses SQLite's lower()
         let treeId = treeIds.get(key) ?? findTreeByLabel(db, user.id, label);
-        if (treeId === undefined) treeId = resolveTree(db, user.id, null, label, label);
+        if (treeId === undefined) treeId = resolveTree(db, user.id, null, label, label).id;
         treeIds.set(key, treeId);
         const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
         recordAudit(db, { actorId: user.id, action: 'report.import', entityType: 'report', entityId: created.id, after: created });
