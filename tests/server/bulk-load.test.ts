@@ -94,7 +94,6 @@ describe('bulkLoad', { timeout: 120_000 }, () => {
     expect(loaded.reportsRtree).toEqual(byTriggers.reportsRtree);
     expect(loaded.stationsRtree).toEqual(byTriggers.stationsRtree);
     expect(loaded.treeEvidence).toEqual(byTriggers.treeEvidence);
-    expect(loaded.treeEvidenceRtree).toEqual(byTriggers.treeEvidenceRtree);
     expect(loaded.triggers).toEqual(triggersBefore);
     expect(loaded.triggers).toEqual(byTriggers.triggers);
     expect(atlasVersion(bulk.sqlite)).toBeGreaterThan(versionBefore);
