@@ -27,9 +27,10 @@ export type NearTree = TreeEvidence & { frostSeasons: FrostSeason[] };
  */
 export interface TreeColumns {
   count: number;
-  treeId: Float64Array;
-  userId: Float64Array;
-  varietyId: Float64Array;
+  /** Row ids below 2^31, as SQLite gives them to a growing atlas (Int32: small integers in JavaScript too). */
+  treeId: Int32Array;
+  userId: Int32Array;
+  varietyId: Int32Array;
   /** Index into GROWING_FORMS. */
   form: Uint8Array;
   lat: Float64Array;
@@ -98,9 +99,9 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
   const n = rows.length;
   const c: TreeColumns = {
     count: n,
-    treeId: new Float64Array(n),
-    userId: new Float64Array(n),
-    varietyId: new Float64Array(n),
+    treeId: new Int32Array(n),
+    userId: new Int32Array(n),
+    varietyId: new Int32Array(n),
     form: new Uint8Array(n),
     lat: new Float64Array(n),
     lon: new Float64Array(n),

@@ -1,7 +1,7 @@
 import type { FigType, GrowingForm, RipeningClass } from './codes';
 import type { FitResponse, NearResponse, SeasonEstimate, Share, VarietyEvidence } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
-import { RANKING_METHOD, rankVarieties, type RankInput } from './ranking';
+import { RANKING_METHOD, rankVarieties, type RankedVariety, type RankInput } from './ranking';
 import { type TreeEvidence, type VarietyOverall, adjustedShareMethod, tallyEvidence } from './ripening-stats';
 import { seasonFit } from './season-fit';
 
@@ -100,6 +100,9 @@ export function buildNearResponse(input: {
       growers.add(row.userId);
     }
   }
+  const ranked = rankVarieties(input.varieties.filter((v) => v.localTrees.length > 0).map((v) => buildVarietyEvidence(v, context)));
+  const pollinationByFigType: NearResponse['pollinationByFigType'] = {};
+  for (const v of ranked) pollinationByFigType[v.figType] ??= v.pollination;
   return {
     point: input.point,
     radiusKm: input.radiusKm,
@@ -107,7 +110,8 @@ export function buildNearResponse(input: {
     season: input.season,
     wasp: input.wasp,
     totals: { reports, trees: trees.size, growers: growers.size },
-    varieties: rankVarieties(input.varieties.filter((v) => v.localTrees.length > 0).map((v) => buildVarietyEvidence(v, context))).map(roundedForTheWire),
+    varieties: ranked.map(roundedForTheWire),
+    pollinationByFigType,
     method: `${adjustedShareMethod(bandwidthKm)} ${RANKING_METHOD}`,
   };
 }
@@ -128,9 +132,10 @@ function roundedShare(s: Share): Share {
 
 /**
  * A ranked variety as sent, after ranking on the full figures: 17 significant digits of a share say
- * nothing a reader can use and made up a third of a near answer's bytes.
+ * nothing a reader can use and made up a third of a near answer's bytes. Its pollination check is
+ * given once per fig type (pollinationByFigType).
  */
-export function roundedForTheWire(v: VarietyEvidence): VarietyEvidence {
+export function roundedForTheWire({ pollination: _givenPerFigType, ...v }: RankedVariety): VarietyEvidence {
   return {
     ...v,
     all: roundedShare(v.all),

@@ -1,5 +1,5 @@
 import type { Crop, FigType } from './codes';
-import type { PollinationCheck } from '../schemas/atlas';
+import type { PollinationCheck, PollinationChecks } from '../schemas/atlas';
 
 /**
  * Whether a crop of a fig type can be expected to ripen without the grower arranging caprification
@@ -77,13 +77,13 @@ export function pollinationCheck(figType: FigType, crop: Crop, waspEstablished: 
   }
 }
 
-const checksMade = new Map<string, { breba: PollinationCheck; main: PollinationCheck }>();
+const checksMade = new Map<string, PollinationChecks>();
 
 /**
  * Both crops at once, in the shape VarietyEvidence and FitResponse carry. There are ten possible
  * answers; each is made once and shared (frozen), since a near answer asks for dozens.
  */
-export function pollinationChecks(figType: FigType, waspEstablished: boolean): { breba: PollinationCheck; main: PollinationCheck } {
+export function pollinationChecks(figType: FigType, waspEstablished: boolean): PollinationChecks {
   const key = `${figType}|${waspEstablished}`;
   let checks = checksMade.get(key);
   if (!checks) {

@@ -1,4 +1,4 @@
-import type { VarietyEvidence } from '../schemas/atlas';
+import type { PollinationChecks, VarietyEvidence } from '../schemas/atlas';
 
 /**
  * Ranking of varieties near a point.
@@ -12,7 +12,9 @@ import type { VarietyEvidence } from '../schemas/atlas';
  * the result never depends on the machine's locale), then by id: the ranking is the same for any
  * order of the input rows.
  */
-export type RankInput = Omit<VarietyEvidence, 'rank' | 'reason'>;
+export type RankInput = Omit<VarietyEvidence, 'rank' | 'reason'> & { pollination: PollinationChecks };
+/** A ranked variety, still with its pollination check (the near answer gives those per fig type). */
+export type RankedVariety = VarietyEvidence & { pollination: PollinationChecks };
 
 export const POLLINATION_FACTORS = { neither: 0.25, brebaOnly: 0.6, uncertain: 0.85 } as const;
 export const FIT_FACTORS = { unlikely: 0.5, marginal: 0.85 } as const;
@@ -74,7 +76,7 @@ function byCodePoint(a: string, b: string): number {
 }
 
 /** Rank (1 = best) with a one-line reason each; pure and independent of input order. */
-export function rankVarieties(items: RankInput[]): VarietyEvidence[] {
+export function rankVarieties(items: RankInput[]): RankedVariety[] {
   const scored = items.map((item) => ({ item, score: rankScore(item) }));
   scored.sort((a, b) => {
     if (a.score !== b.score) {

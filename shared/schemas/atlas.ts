@@ -67,6 +67,10 @@ export const pollinationCheckSchema = z.object({
 });
 export type PollinationCheck = z.infer<typeof pollinationCheckSchema>;
 
+/** The check for both crops of a fig type at a place. */
+export const pollinationChecksSchema = z.object({ breba: pollinationCheckSchema, main: pollinationCheckSchema });
+export type PollinationChecks = z.infer<typeof pollinationChecksSchema>;
+
 export const seasonFitSchema = z.object({
   verdict: z.enum(SEASON_FIT_VERDICTS),
   form: z.enum(GROWING_FORMS),
@@ -97,7 +101,6 @@ export const varietyEvidenceSchema = z.object({
   overallShare: z.number().nullable(),
   medianFirstRipeDoy: z.number().nullable(),
   medianDaysFrostToRipe: z.number().nullable(),
-  pollination: z.object({ breba: pollinationCheckSchema, main: pollinationCheckSchema }),
   seasonFit: seasonFitSchema,
   /** One line in plain words: why this rank. */
   reason: z.string(),
@@ -115,6 +118,11 @@ export const nearResponseSchema = z.object({
   }),
   totals: z.object({ reports: z.number().int(), trees: z.number().int(), growers: z.number().int() }),
   varieties: z.array(varietyEvidenceSchema),
+  /**
+   * The pollination check for each fig type among `varieties` (it depends only on the fig type and
+   * whether the wasp is established here, so it is given once per type, not per variety).
+   */
+  pollinationByFigType: z.partialRecord(z.enum(FIG_TYPES), pollinationChecksSchema),
   /** How the shares were adjusted and ranked, in plain words. */
   method: z.string(),
 });
@@ -124,6 +132,6 @@ export const fitResponseSchema = z.object({
   variety: z.object({ id: z.number().int(), name: z.string(), figType: z.enum(FIG_TYPES) }),
   season: seasonEstimateSchema,
   seasonFit: seasonFitSchema,
-  pollination: z.object({ breba: pollinationCheckSchema, main: pollinationCheckSchema }),
+  pollination: pollinationChecksSchema,
 });
 export type FitResponse = z.infer<typeof fitResponseSchema>;

@@ -123,7 +123,7 @@ describe('GET /api/atlas/near', () => {
     expect(smyrna.adjustedShare).toBeGreaterThan(0);
     expect(smyrna.adjustedShare).toBeLessThan(0.5);
     // Smyrna figs need the wasp, which is not recorded here (Texas A&M EHT-019): ranked last.
-    expect(smyrna.pollination.main.fruitExpected).toBe('no');
+    expect(res.body.pollinationByFigType.smyrna.main.fruitExpected).toBe('no');
     expect(smyrna.rank).toBe(res.body.varieties.length);
   });
 
@@ -161,7 +161,8 @@ describe('GET /api/atlas/near', () => {
     expect(res.body.wasp.established).toBe(true);
     expect(res.body.wasp.areas).toEqual([expect.objectContaining({ name: 'Test valley', source: 'test survey', observedOn: '2025-07-01' })]);
     const smyrna = res.body.varieties.find((v: { varietyId: number }) => v.varietyId === ids.smyrna);
-    expect(smyrna.pollination.main.fruitExpected).toBe('yes');
+    expect(smyrna.figType).toBe('smyrna');
+    expect(res.body.pollinationByFigType.smyrna.main.fruitExpected).toBe('yes');
     // Just outside the polygon, no wasp.
     expect((await near(at({ lat: P.lat + 0.6, lon: P.lon }))).body.wasp.established).toBe(false);
   });

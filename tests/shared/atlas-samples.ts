@@ -56,7 +56,6 @@ export const sampleNear = nearResponseSchema.parse({
       overallShare: 0.7,
       medianFirstRipeDoy: 235,
       medianDaysFrostToRipe: 117,
-      pollination: { breba: pollination('common', false, 'yes', 'breba'), main: pollination('common', false, 'yes', 'main') },
       seasonFit: { verdict: 'likely', form: 'container', localSeasonDays: 166, neededDays: 125, neededFrom: 'reports', headStartDays: 20, marginDays: 61, explanation: 'The season covers its need with room to spare.' },
       reason: 'Ripened on most trees nearby and fits the season.',
     },
@@ -75,16 +74,19 @@ export const sampleNear = nearResponseSchema.parse({
       overallShare: 0.3,
       medianFirstRipeDoy: null,
       medianDaysFrostToRipe: null,
-      pollination: { breba: pollination('smyrna', true, 'no', 'breba'), main: pollination('smyrna', true, 'no', 'main') },
       seasonFit: { verdict: 'unlikely', form: 'container', localSeasonDays: 166, neededDays: 185, neededFrom: 'catalogue', headStartDays: 20, marginDays: 1, explanation: 'Needs a longer season.' },
       reason: 'A Smyrna type: needs the wasp, which is not recorded here.',
     },
   ],
+  pollinationByFigType: {
+    common: { breba: pollination('common', false, 'yes', 'breba'), main: pollination('common', false, 'yes', 'main') },
+    smyrna: { breba: pollination('smyrna', true, 'no', 'breba'), main: pollination('smyrna', true, 'no', 'main') },
+  },
 });
 
 export const sampleFit = fitResponseSchema.parse({
   variety: { id: 11, name: 'Lantern Amber', figType: 'common' },
   season: sampleNear.season,
   seasonFit: { ...sampleNear.varieties[0]!.seasonFit, verdict: 'marginal', neededDays: 160, marginDays: 26 },
-  pollination: sampleNear.varieties[0]!.pollination,
+  pollination: sampleNear.pollinationByFigType.common!,
 });

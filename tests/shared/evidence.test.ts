@@ -66,7 +66,11 @@ describe('buildNearResponse', () => {
     expect(amberEvidence.medianFirstRipeDoy).toBe(237.5);
     expect(amberEvidence.medianDaysFrostToRipe).toBe(118.5);
     expect(amberEvidence.seasonFit).toMatchObject({ neededFrom: 'catalogue', neededDays: 110, localSeasonDays: 161, verdict: 'likely' });
-    expect(brassEvidence.pollination.main.fruitExpected).toBe('no');
+    expect(brassEvidence.figType).toBe('smyrna');
+    // Given once per fig type: a Smyrna needs the wasp for its crop (Texas A&M EHT-019), absent here.
+    expect(response.pollinationByFigType.smyrna!.main.fruitExpected).toBe('no');
+    expect(response.pollinationByFigType.common!.main.fruitExpected).toBe('yes');
+    expect(Object.keys(response.pollinationByFigType).sort()).toEqual(['common', 'smyrna']);
     expect(brassEvidence.all.share).toBe(1);
     expect(response.method).toMatch(/Gaussian/);
   });

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { LABELS } from '@shared/domain/codes';
-import type { NearResponse, VarietyEvidence } from '@shared/schemas/atlas';
+import type { NearResponse, PollinationChecks, VarietyEvidence } from '@shared/schemas/atlas';
 import { IntervalBar, percent } from './interval-bar';
 import { RipeDatesChart } from './ripe-dates-chart';
 
@@ -11,9 +11,14 @@ const VERDICT_STYLE: Record<VarietyEvidence['seasonFit']['verdict'], string> = {
   unknown: 'bg-paper text-ink/70 ring-1 ring-fig-100',
 };
 
+/** This variety's pollination check here (the answer gives one per fig type). */
+function pollinationOf(v: VarietyEvidence, near: NearResponse): PollinationChecks {
+  return near.pollinationByFigType[v.figType]!;
+}
+
 /** Whether this variety's crops need the wasp where it is absent (shown, but marked). */
-export function waspBlocked(v: VarietyEvidence): boolean {
-  return v.pollination.main.fruitExpected === 'no' && (v.byCrop.breba.trees === 0 || v.pollination.breba.fruitExpected === 'no');
+export function waspBlocked(v: VarietyEvidence, pollination: PollinationChecks): boolean {
+  return pollination.main.fruitExpected === 'no' && (v.byCrop.breba.trees === 0 || pollination.breba.fruitExpected === 'no');
 }
 
 const round = (v: number | null) => (v === null ? '—' : String(Math.round(v)));
@@ -35,7 +40,8 @@ export function VarietyRanking({ near, onlyIds }: { near: NearResponse; onlyIds?
 
 function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
   const [showDates, setShowDates] = useState(false);
-  const blocked = waspBlocked(v);
+  const pollination = pollinationOf(v, near);
+  const blocked = waspBlocked(v, pollination);
   const fit = v.seasonFit;
   const ci = v.all.interval90;
   return (
@@ -51,7 +57,7 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
       <p className="mt-1 text-sm text-ink/90">{v.reason}</p>
       {blocked && (
         <p className="mt-2 rounded-md bg-fig-50 px-3 py-2 text-sm text-fig-700" data-testid="wasp-warning">
-          <strong className="font-medium">Needs the fig wasp, which is not recorded here.</strong> {v.pollination.main.explanation}
+          <strong className="font-medium">Needs the fig wasp, which is not recorded here.</strong> {pollination.main.explanation}
         </p>
       )}
       <dl className="mt-3 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
@@ -89,9 +95,9 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
         <div>
           <dt className="text-ink/70">Pollination check</dt>
           <dd>
-            Main crop: {expected(v.pollination.main.fruitExpected)}
-            {v.byCrop.breba.trees > 0 && <> · Breba: {expected(v.pollination.breba.fruitExpected)}</>}
-            {!blocked && <span className="block text-xs text-ink/70">{v.pollination.main.explanation}</span>}
+            Main crop: {expected(pollination.main.fruitExpected)}
+            {v.byCrop.breba.trees > 0 && <> · Breba: {expected(pollination.breba.fruitExpected)}</>}
+            {!blocked && <span className="block text-xs text-ink/70">{pollination.main.explanation}</span>}
           </dd>
         </div>
         {v.medianFirstRipeDoy !== null && (
