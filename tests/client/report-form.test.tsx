@@ -1,5 +1,5 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { render, screen } from '@testing-library/react';
+import { render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { MemoryRouter } from 'react-router';
 import { describe, expect, it, vi } from 'vitest';
@@ -27,7 +27,8 @@ describe('ReportForm submitted empty', () => {
     await user.click(screen.getByRole('button', { name: 'Post report' }));
 
     const variety = screen.getByRole('combobox', { name: 'Variety' });
-    expect(variety).toHaveFocus();
+    // Focus moves once the form has rendered its errors (after the submit's validation settles).
+    await waitFor(() => expect(variety).toHaveFocus());
     expect(variety).toHaveAttribute('aria-invalid', 'true');
     expect(variety).toHaveAccessibleDescription(/Pick the name on the label.*Choose a variety/);
     // Fields further down are marked too, and the radio group's error is tied to it.
