@@ -1,3 +1,4 @@
+import { setImmediate as nextTurn } from 'node:timers/promises';
 import { LABELS } from '../../shared/domain/codes';
 import type { MailDeps } from './mailer';
 import { dueSubscriptions, findHomePlace, markDigestSent, nearbyRipenedReports, type NearbyRipening } from './digest.repo';
@@ -25,6 +26,8 @@ function toItem(report: NearbyRipening, home: { name: string; lat: number; lon: 
  * never had one) gets the 'ripened' reports published within its radius of the home place since
  * then (a first digest looks back one week), by when they became public, not when they were written. A week with nothing new sends nothing but
  * still moves the window on. Growers without a home place are skipped until they save one.
+ * The job runs in the server's own thread: it lets waiting requests go between subscriptions, so
+ * a large atlas's hundreds of radius queries never hold the server for more than one of them.
  */
 export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise<{ sent: number; checked: number }> {
   const nowIso = now.toISOString();
@@ -32,6 +35,7 @@ export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise
   let sent = 0;
   const due = dueSubscriptions(deps.db, weekAgo);
   for (const { sub, email, displayName } of due) {
+    await nextTurn();
     const home = findHomePlace(deps.db, sub.userId);
     if (!home) continue;
     const since = sub.lastSentAt ?? weekAgo;

@@ -133,4 +133,25 @@ describe('nearby digest and unsubscribe, through the local SMTP server', async (
     expect(ctx.inbox('hanna@example.com')).toHaveLength(2);
     expect(ctx.inbox('neighbour@example.com')).toHaveLength(3);
   });
+
+  it('lets waiting requests run between subscriptions (it runs in the server thread)', async () => {
+    // Many due subscriptions with nothing new: no mail is sent, so nothing else would yield.
+    for (let i = 0; i < 20; i++) {
+      const { lastInsertRowid } = ctx.db.sqlite.prepare("INSERT INTO users (email, display_name, password_hash, email_verified_at) VALUES (?, 'Quiet', 'x', '2026-01-01')").run(`quiet-${i}@example.com`);
+      const userId = Number(lastInsertRowid);
+      ctx.db.insert(savedPlaces).values({ userId, name: 'Far away', lat: -40, lon: 170, isHome: true }).run();
+      ctx.db.insert(digestSubscriptions).values({ userId, active: true, radiusKm: 10, unsubscribeToken: `quiet-token-${i}` }).run();
+    }
+    let turns = 0;
+    let done = false;
+    const tick = () => {
+      turns++;
+      if (!done) setImmediate(tick);
+    };
+    setImmediate(tick);
+    const result = await runNearbyDigest(ctx.mail, new Date(start.getTime() + 5 * DIGEST_PERIOD_MS));
+    done = true;
+    expect(result.checked).toBeGreaterThanOrEqual(20);
+    expect(turns).toBeGreaterThanOrEqual(result.checked);
+  });
 });
