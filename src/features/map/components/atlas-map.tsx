@@ -188,10 +188,18 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         <NavigationControl position="top-right" showCompass={false} />
         <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
 
+        {/* Layer order, whichever layer is switched on first: wasp areas under the report pins,
+            climate stations over them (the stations are what that layer is switched on to see). */}
+        <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
+          <Layer {...PIN_CLUSTER_LAYER} />
+          <Layer {...PIN_CLUSTER_COUNT_LAYER} />
+          <Layer {...PIN_CELL_LAYER} />
+          <Layer {...PIN_CELL_COUNT_LAYER} />
+        </Source>
         {showWasp && wasp.data && (
           <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
-            <Layer {...WASP_FILL_LAYER} />
-            <Layer {...WASP_OUTLINE_LAYER} />
+            <Layer {...WASP_FILL_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
+            <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
           </Source>
         )}
         {showFrost && (
@@ -199,12 +207,6 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
             <Layer {...FROST_STATION_LAYER} />
           </Source>
         )}
-        <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
-          <Layer {...PIN_CLUSTER_LAYER} />
-          <Layer {...PIN_CLUSTER_COUNT_LAYER} />
-          <Layer {...PIN_CELL_LAYER} />
-          <Layer {...PIN_CELL_COUNT_LAYER} />
-        </Source>
 
         {popup && (
           <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
