@@ -42,6 +42,8 @@ export function createTreeSnapshotCache(db: Db, options: TreeSnapshotCacheOption
 
   const readHere = (): TreeSnapshot => {
     current = { snapshot: treeSnapshotFrom(readTreeSnapshot(db.sqlite).data), readAt: now() };
+    // An atlas that has grown large while the server runs moves its next reads off the event loop.
+    if (canUseWorker && options.worker !== false && current.snapshot.columns.count >= LARGE_ATLAS_TREES) offThread = true;
     return current.snapshot;
   };
 

@@ -52,6 +52,23 @@ describe('tree snapshot cache', () => {
     expect(cache.offThread()).toBe(false);
   });
 
+  it('moves its reads to the worker thread once a small atlas has grown large', async () => {
+    const grown = createTestDb().db;
+    grown.sqlite.prepare("INSERT INTO varieties (id, name, fig_type, status) VALUES (1, 'Test Amber (fictional)', 'common', 'accepted')").run();
+    const cache = cacheFor(grown);
+    expect((await cache.get()).columns.count).toBe(0);
+    expect(cache.offThread()).toBe(false);
+    const insert = grown.sqlite.prepare("INSERT INTO tree_evidence (tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened) VALUES (?, 1, 1, 40, -100, 'ground', 1, 1, 0, 0)");
+    grown.sqlite.transaction(() => {
+      for (let i = 0; i < LARGE_ATLAS_TREES; i++) insert.run(i + 1);
+    })();
+    grown.sqlite.prepare("UPDATE varieties SET name = name || '.'").run();
+    // This read still happens in the request (the atlas was small); it finds the atlas large, so later reads go to the worker.
+    expect((await cache.get()).columns.count).toBe(LARGE_ATLAS_TREES);
+    expect(cache.offThread()).toBe(true);
+    grown.sqlite.close();
+  });
+
   it('reads a large atlas in a worker thread, and re-reads it at most every maxStaleMs after a change', async () => {
     addTrees(LARGE_ATLAS_TREES, 1, 100);
     touchCatalogue();
