@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { currentUserSchema, userListSchema } from '@shared/schemas/auth';
 import type { Role } from '@shared/domain/codes';
 import { apiFetch } from '../../lib/api-client';
+import { authQueries, showCurrentUser } from '../auth/api';
 
 export const userQueries = {
   all: ['users'] as const,
@@ -14,6 +15,11 @@ export function useChangeRole() {
   return useMutation({
     mutationFn: ({ id, role }: { id: number; role: Role }) =>
       apiFetch(`/api/users/${id}/role`, z.object({ user: currentUserSchema }), { method: 'PATCH', json: { role } }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.all }),
+    onSuccess: async ({ user }) => {
+      // An admin who changed their own role sees the app as that role at once (menus, editor pages).
+      const me = queryClient.getQueryData(authQueries.me().queryKey)?.user;
+      if (me?.id === user.id) await showCurrentUser(queryClient, user);
+      else await queryClient.invalidateQueries({ queryKey: userQueries.all });
+    },
   });
 }
