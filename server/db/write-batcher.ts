@@ -3,7 +3,7 @@ import { perDb } from './prepared';
 
 /*
  * Group commit. Each write transaction ends in a COMMIT that appends every page it touched to the
- * WAL; a report touches many (its indexes, two R*Trees, tree_evidence, data_versions), and under a
+ * WAL; a report touches many (its indexes, its R*Tree, tree_evidence, data_versions), and under a
  * stream of posts the commits cost as much as the inserts. Writes that arrive in the same
  * event-loop turn are run in ONE transaction instead, each inside its own savepoint:
  *
