@@ -2,7 +2,7 @@ import type Database from 'better-sqlite3';
 import KDBush from 'kdbush';
 import { GROWING_FORMS, type GrowingForm } from '../../shared/domain/codes';
 import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
-import { overallFromParts, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
+import { overallByVariety, type OverallRow, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
 import { atlasDataVersion } from '../db/data-version';
 
 /*
@@ -161,7 +161,7 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
   c.frostSeasonYears = Int16Array.from(seasonYears);
   c.frostSeasonDays = Int16Array.from(seasonDays);
   c.index = index.data as ArrayBuffer;
-  const data: TreeSnapshotData = { version, columns: c, overall: [...overallFromColumns(c)] };
+  const data: TreeSnapshotData = { version, columns: c, overall: [...overallByVariety(overallRows(c))] };
   const transfer = Object.values(c).filter((v): v is ArrayBuffer | ArrayBufferView => typeof v === 'object').map((v) => (ArrayBuffer.isView(v) ? (v.buffer as ArrayBuffer) : v));
   return { data, transfer };
 }
@@ -171,37 +171,18 @@ export function treeSnapshotFrom(data: TreeSnapshotData): TreeSnapshot {
   return { version: data.version, columns: data.columns, index: KDBush.from(data.columns.index), overall: new Map(data.overall) };
 }
 
-/**
- * Each variety's overall figures over all its rows: the same as `varietyOverall` of its rows
- * (tests/server/tree-snapshot.test.ts checks it): the mean over its trees of each tree's ripened
- * fraction, and the median over its in-ground trees of each tree's median main-crop days from spring
- * frost to first ripe fig.
- */
-function overallFromColumns(c: TreeColumns): Map<number, VarietyOverall> {
-  const GROUND = FORM_CODE.get('ground');
-  const byVariety = new Map<number, Map<number, { n: number; ripe: number; need: number[] | null }>>();
+/** The columns as the rows the overall figures read, one at a time. */
+function* overallRows(c: TreeColumns): Generator<OverallRow> {
   for (let i = 0; i < c.count; i++) {
-    let trees = byVariety.get(c.varietyId[i]!);
-    if (!trees) byVariety.set(c.varietyId[i]!, (trees = new Map()));
-    let t = trees.get(c.treeId[i]!);
-    if (!t) trees.set(c.treeId[i]!, (t = { n: 0, ripe: 0, need: null }));
-    t.n += c.reports[i]!;
-    t.ripe += c.ripened[i]!;
-    const from = c.frostToRipeStart[i]!;
-    const to = c.frostToRipeStart[i + 1]!;
-    if (c.form[i] === GROUND && to > from) (t.need ??= []).push(...c.frostToRipeDays.subarray(from, to));
+    yield {
+      treeId: c.treeId[i]!,
+      varietyId: c.varietyId[i]!,
+      form: GROWING_FORMS[c.form[i]!] as GrowingForm,
+      reports: c.reports[i]!,
+      ripened: c.ripened[i]!,
+      mainFrostToRipeDays: slice(c.frostToRipeDays, c.frostToRipeStart, i),
+    };
   }
-  const overall = new Map<number, VarietyOverall>();
-  for (const [varietyId, trees] of byVariety) {
-    let ripened = 0;
-    const need: number[][] = [];
-    for (const t of trees.values()) {
-      ripened += t.ripe / t.n;
-      if (t.need) need.push(t.need);
-    }
-    overall.set(varietyId, overallFromParts(ripened / trees.size, need));
-  }
-  return overall;
 }
 
 const NO_NUMBERS: number[] = [];

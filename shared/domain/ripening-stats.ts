@@ -232,21 +232,41 @@ export function groupTreeEvidence(reports: EvidenceReport[]): TreeEvidence[] {
  * main-crop, in-ground reports.
  */
 export function varietyOverall(rows: TreeEvidence[]): VarietyOverall {
-  const trees = new Map<number, { n: number; ripe: number; need: number[] | null }>();
+  return overallFigures(rows, () => 0).get(0) ?? overallFromParts(null, []);
+}
+
+/** The fields of a tree row that the overall figures read. */
+export type OverallRow = Pick<TreeEvidence, 'treeId' | 'varietyId' | 'form' | 'reports' | 'ripened' | 'mainFrostToRipeDays'>;
+
+/** Every variety's overall figures (as varietyOverall of its rows) from the rows of many varieties, in one pass. */
+export function overallByVariety(rows: Iterable<OverallRow>): Map<number, VarietyOverall> {
+  return overallFigures(rows, (row) => row.varietyId);
+}
+
+/** varietyOverall for each group of rows (`groupOf`), keyed by the group. */
+function overallFigures(rows: Iterable<OverallRow>, groupOf: (row: OverallRow) => number): Map<number, VarietyOverall> {
+  const groups = new Map<number, Map<number, { n: number; ripe: number; need: number[] | null }>>();
   for (const row of rows) {
+    const group = groupOf(row);
+    let trees = groups.get(group);
+    if (!trees) groups.set(group, (trees = new Map()));
     let t = trees.get(row.treeId);
     if (!t) trees.set(row.treeId, (t = { n: 0, ripe: 0, need: null }));
     t.n += row.reports;
     t.ripe += row.ripened;
     if (row.form === 'ground' && row.mainFrostToRipeDays.length > 0) (t.need ??= []).push(...row.mainFrostToRipeDays);
   }
-  let ripened = 0;
-  const need: number[][] = [];
-  for (const t of trees.values()) {
-    ripened += t.ripe / t.n;
-    if (t.need) need.push(t.need);
+  const overall = new Map<number, VarietyOverall>();
+  for (const [group, trees] of groups) {
+    let ripened = 0;
+    const need: number[][] = [];
+    for (const t of trees.values()) {
+      ripened += t.ripe / t.n;
+      if (t.need) need.push(t.need);
+    }
+    overall.set(group, overallFromParts(ripened / trees.size, need));
   }
-  return overallFromParts(trees.size > 0 ? ripened / trees.size : null, need);
+  return overall;
 }
 
 /** A variety's figures over all its trees (see varietyOverall). */
