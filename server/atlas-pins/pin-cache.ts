@@ -1,6 +1,7 @@
 import type { PinFilters } from '../../shared/schemas/pins';
 import type { Db } from '../db/client';
 import { atlasDataVersion } from '../db/data-version';
+import { createRebuildingCache, type RebuildingCacheSettings } from '../lib/rebuilding-cache';
 import { createPinBuilder, type PinBuilder } from './pin-builder';
 import { buildPinLayers, pinIndexFromLayers, type PinIndex } from './pin-index';
 import { listPinCells, maxReportId, pinCellsQuery } from './pins.repo';
@@ -35,117 +36,67 @@ export interface BuildStats {
   cells: number;
 }
 
-interface Entry {
+/** A pin index and the data version it was built at (as the answer's `dataVersion`). */
+interface PinEntry {
   version: string;
   index: PinIndex;
-  /** When the data it holds was read (Date.now()). */
-  readAt: number;
-}
-
-export interface PinCacheOptions {
-  /**
-   * Count cells in a worker thread: `true` always (a database file only), `false` never,
-   * `'auto'` (the default) for an atlas of `LARGE_ATLAS_REPORTS` or more, or once a build of many
-   * cells in the request thread took `SLOW_MS` or more. The demo and the tests stay in the request
-   * thread, always fresh.
-   */
-  worker?: boolean | 'auto';
-  maxStaleMs?: number;
-  now?: () => number;
 }
 
 /**
- * Pin indexes kept in memory per filter set, valid for one atlas data version (an O(1) read per
- * request). A small atlas rebuilds a changed index at once, in the request. A large atlas counts and
- * clusters its cells in a worker thread (`pin-builder.ts`): the first request for a filter set waits
- * for that without blocking other requests, and a changed index keeps answering while its
- * replacement is built (stale-while-rebuilding: at most one rebuild per filter set at a time, at
- * most one per `maxStaleMs`, so pins lag writes by at most `maxStaleMs` plus one rebuild).
+ * `worker: 'auto'` (the default) counts cells in the worker thread for an atlas of
+ * `LARGE_ATLAS_REPORTS` or more, or once a build of many cells in the request thread took `SLOW_MS`
+ * or more. The demo and the tests stay in the request thread, always fresh.
+ */
+export type PinCacheOptions = RebuildingCacheSettings;
+
+/**
+ * Pin indexes kept in memory per filter set, valid for one atlas data version. A small atlas
+ * rebuilds a changed index at once, in the request; a large one counts and clusters its cells in a
+ * worker thread (`pin-builder.ts`) with stale-while-rebuilding, at most one rebuild per filter set
+ * per `maxStaleMs` (the policy is server/lib/rebuilding-cache.ts).
  */
 export function createPinCache(db: Db, options: PinCacheOptions = {}) {
-  const maxStaleMs = options.maxStaleMs ?? MAX_STALE_MS;
-  const now = options.now ?? Date.now;
-  const canUseWorker = !db.sqlite.memory && options.worker !== false;
-  // Decided at the first request (the tables may not exist yet when the cache is made).
-  let offThread: boolean | undefined = canUseWorker ? (options.worker === true ? true : undefined) : false;
-  let builder: PinBuilder | undefined;
-  const indexes = new Map<string, Entry>();
-  const building = new Map<string, Promise<Entry>>();
   let lastBuild: BuildStats | undefined;
 
-  const store = (key: string, entry: Entry): Entry => {
-    // Re-inserting keeps the map in least-recently-used order.
-    indexes.delete(key);
-    indexes.set(key, entry);
-    while (indexes.size > MAX_CACHED_FILTER_SETS) indexes.delete(indexes.keys().next().value!);
-    return entry;
-  };
-
-  const buildHere = (key: string, filters: PinFilters): Entry => {
-    const readAt = now();
-    const started = performance.now();
-    // No write can come between these two reads: better-sqlite3 runs each statement to completion.
-    const version = atlasDataVersion(db);
-    const cells = listPinCells(db, filters);
-    const clusterStarted = performance.now();
-    const index = pinIndexFromLayers(buildPinLayers(cells));
-    lastBuild = { where: 'thread', queryMs: clusterStarted - started, clusterMs: performance.now() - clusterStarted, cells: cells.length };
-    // Only an atlas with many cells is slow by size; a few cells built slowly mean a busy machine.
-    if (canUseWorker && cells.length >= SLOW_MIN_CELLS && performance.now() - started >= SLOW_MS) offThread = true;
-    return store(key, { version: String(version), index, readAt });
-  };
-
-  const buildOffThread = (key: string, filters: PinFilters): Promise<Entry> => {
-    const inFlight = building.get(key);
-    if (inFlight) return inFlight;
-    const readAt = now();
-    builder ??= createPinBuilder(db.sqlite.name);
-    const promise = builder
-      .build(pinCellsQuery(db, filters).toSQL())
-      .then(({ version, layers, queryMs, clusterMs }) => {
-        lastBuild = { where: 'worker', queryMs, clusterMs, cells: layers.cellCount };
-        return store(key, { version: String(version), index: pinIndexFromLayers(layers), readAt });
-      })
-      .catch((error: unknown) => {
-        // A failed worker is replaced at the next build; this one is done in the request thread.
-        console.error('The pin builder thread failed; building the pin index in the request thread:', error);
-        void builder?.close();
-        builder = undefined;
-        return buildHere(key, filters);
-      })
-      .finally(() => building.delete(key));
-    building.set(key, promise);
-    return promise;
-  };
+  const cache = createRebuildingCache<PinFilters, PinEntry, PinBuilder>({
+    name: 'pin index',
+    version: () => atlasDataVersion(db),
+    keyOf: filterKey,
+    maxKeys: MAX_CACHED_FILTER_SETS,
+    worker: db.sqlite.memory ? false : (options.worker ?? 'auto'),
+    startsLarge: () => maxReportId(db) >= LARGE_ATLAS_REPORTS,
+    computeHere: (filters) => {
+      const started = performance.now();
+      // No write can come between these two reads: better-sqlite3 runs each statement to completion.
+      const version = atlasDataVersion(db);
+      const cells = listPinCells(db, filters);
+      const clusterStarted = performance.now();
+      const value = { version: String(version), index: pinIndexFromLayers(buildPinLayers(cells)) };
+      lastBuild = { where: 'thread', queryMs: clusterStarted - started, clusterMs: performance.now() - clusterStarted, cells: cells.length };
+      // Only an atlas with many cells is slow by size; a few cells built slowly mean a busy machine.
+      return { version, value, large: cells.length >= SLOW_MIN_CELLS && performance.now() - started >= SLOW_MS };
+    },
+    startWorker: () => createPinBuilder(db.sqlite.name),
+    computeInWorker: async (filters, builder) => {
+      const { version, layers, queryMs, clusterMs } = await builder.build(pinCellsQuery(db, filters).toSQL());
+      lastBuild = { where: 'worker', queryMs, clusterMs, cells: layers.cellCount };
+      return { version, value: { version: String(version), index: pinIndexFromLayers(layers) } };
+    },
+    maxStaleMs: options.maxStaleMs ?? MAX_STALE_MS,
+    now: options.now ?? Date.now,
+  });
 
   return {
     /** The pin index for these filters and the data version it was built at. */
-    async get(filters: PinFilters): Promise<{ version: string; index: PinIndex }> {
-      const version = String(atlasDataVersion(db));
-      const key = filterKey(filters);
-      const hit = indexes.get(key);
-      if (hit && hit.version === version) return store(key, hit);
-      offThread ??= maxReportId(db) >= LARGE_ATLAS_REPORTS;
-      if (!offThread) return buildHere(key, filters);
-      if (!hit) return buildOffThread(key, filters);
-      if (now() - hit.readAt >= maxStaleMs) {
-        buildOffThread(key, filters).catch((error: unknown) => console.error('Rebuilding a pin index failed:', error));
-      }
-      return store(key, hit);
-    },
+    get: async (filters: PinFilters): Promise<PinEntry> => (await cache.get(filters)).value,
     /** Resolves once no rebuild is running (for tests and benchmarks). */
-    async settled(): Promise<void> {
-      while (building.size > 0) await Promise.allSettled([...building.values()]);
-    },
+    settled: cache.settled,
     /** How the last index was built (for the benchmark). */
     lastBuild: () => lastBuild,
     /** Whether cells are now counted in the worker thread. */
-    offThread: () => offThread === true,
+    offThread: cache.offThread,
     /** Stop the worker thread, if one was started. */
-    async close(): Promise<void> {
-      await builder?.close();
-      builder = undefined;
-    },
+    close: cache.close,
   };
 }
 
