@@ -142,12 +142,12 @@ async function main() {
   try {
     let t0 = performance.now();
     let centres: { lat: number; lon: number }[];
+    // A new database is built on the schema; one kept by an older version gets the newer migrations.
+    migrateDb(db);
     if (reuse) {
-      migrateDb(db); // a database kept by an older version gets the newer migrations
       centres = (db.sqlite.prepare('SELECT lat, lon FROM reports WHERE id % 300 = 0 LIMIT 3000').all() as { lat: number; lon: number }[]);
       console.log(`Reusing ${keep}`);
     } else {
-      migrateDb(db);
       ({ centres } = build(db));
       console.log(`Built ${REPORTS.toLocaleString()} reports (${GROWERS.toLocaleString()} growers around ${CLUSTERS.toLocaleString()} places) and ${STATIONS.toLocaleString()} stations in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
     }
