@@ -11,6 +11,7 @@ import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { createApp } from '../../server/app';
 import { createPinCache } from '../../server/atlas-pins/pin-cache';
+import { bulkLoad } from '../bulk-load';
 import { createDb, migrateDb, type Db } from '../../server/db/client';
 import { readConfig } from '../../server/lib/config';
 import { seededRandom } from '../../server/seed/random';
@@ -37,7 +38,8 @@ function fill(db: Db): void {
     const r = random() < REGIONS[0]!.weight ? REGIONS[0]! : REGIONS[1]!;
     return { lat: r.minLat + random() * (r.maxLat - r.minLat), lon: r.minLon + random() * (r.maxLon - r.minLon) };
   });
-  sqlite.transaction(() => {
+  // With the report triggers off and what they do replayed once at the end (scripts/bulk-load.ts).
+  bulkLoad(sqlite, () => {
     const userId = Number(sqlite.prepare("INSERT INTO users (email, display_name, password_hash) VALUES ('bench@example.com', 'Bench', 'x')").run().lastInsertRowid);
     const insertVariety = sqlite.prepare("INSERT INTO varieties (name, fig_type, is_fictional) VALUES (?, ?, 1)");
     const varietyIds = Array.from({ length: VARIETIES }, (_, v) => Number(insertVariety.run(`Bench variety ${v}`, v % 9 === 0 ? 'smyrna' : 'common').lastInsertRowid));
@@ -67,7 +69,7 @@ function fill(db: Db): void {
         random() < 0.97 ? 'published' : 'hidden',
       );
     }
-  })();
+  });
   sqlite.pragma('synchronous = NORMAL');
 }
 
