@@ -16,7 +16,7 @@ import {
   WINTER_PROTECTION,
 } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_SEASONS, DEMO_TOWNS, DEMO_VARIETIES, DEMO_WASP_AREAS, type DemoVariety } from './demo-scenario';
-import type { DemoReport } from './demo-reports';
+import { round5, type DemoReport } from './demo-reports';
 import { pick, seededRandom } from './random';
 
 /*
@@ -90,7 +90,6 @@ function isoDate(year: number, dayOfYear: number): string {
   return new Date(Date.UTC(year, 0, day)).toISOString().slice(0, 10);
 }
 
-const round5 = (value: number) => Math.round(value * 1e5) / 1e5;
 const clamp = (x: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, x));
 
 /** An e-mail local part from a name: ASCII letters only ("Sørlie" becomes "sorlie"). */

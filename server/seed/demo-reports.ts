@@ -122,4 +122,5 @@ function storyOutcome(input: {
   return available >= need + 10 ? 'ripened' : available >= need - 10 && random() < 0.5 ? 'ripened' : 'unripe';
 }
 
-const round5 = (value: number) => Math.round(value * 1e5) / 1e5;
+/** A coordinate to 5 decimals (about a metre), as the demo stores places. */
+export const round5 = (value: number) => Math.round(value * 1e5) / 1e5;
