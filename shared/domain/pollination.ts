@@ -63,7 +63,7 @@ export function pollinationCheck(figType: FigType, crop: Crop, waspEstablished: 
         ...base,
         needsWasp: null,
         fruitExpected: 'no',
-        explanation: 'A caprifig is the wasp’s host tree: its fruit is dry and not for eating. It is grown to pollinate Smyrna and San Pedro figs.',
+        explanation: 'A caprifig is the host tree of the wasp: its fruit is dry and not for eating. It is grown to pollinate Smyrna and San Pedro figs.',
       };
     case 'unknown':
       return {
@@ -71,8 +71,8 @@ export function pollinationCheck(figType: FigType, crop: Crop, waspEstablished: 
         needsWasp: null,
         fruitExpected: 'uncertain',
         explanation: waspEstablished
-          ? `This variety’s fig type is not known, so whether it needs pollination is uncertain. ${waspHere}`
-          : `This variety’s fig type is not known, so whether it needs the fig wasp is uncertain. ${noWasp}`,
+          ? `The fig type of this variety is not known, so whether it needs pollination is uncertain. ${waspHere}`
+          : `The fig type of this variety is not known, so whether it needs the fig wasp is uncertain. ${noWasp}`,
       };
   }
 }

@@ -103,7 +103,7 @@ export const ADJUSTED_SHARE_DEFAULTS = { bandwidthKm: 50, priorStrength: 3 } as 
 export const ADJUSTED_SHARE_METHOD =
   'Each tree counts once, as the fraction of its reported seasons that ripened. Nearby trees weigh more: ' +
   'a Gaussian distance kernel (weight exp(-d²/2h²), h = 50 km). The weighted share is then pulled toward the ' +
-  'variety’s rate everywhere, as if 3 more trees at that rate had been reported here (a beta-binomial, ' +
+  'rate of the variety everywhere, as if 3 more trees at that rate had been reported here (a beta-binomial, ' +
   'empirical-Bayes estimate), so a variety with few local trees is not ranked on luck.';
 
 /**
@@ -337,7 +337,7 @@ export function tallyEvidence(
   let w = 0;
   // A tree's rows side by side (a tree usually has one row), so each tree is summed in local
   // variables without a map or an object per tree: thousands of rows per request.
-  const ordered = rows.length > 1 ? [...rows].sort((a, b) => a.treeId - b.treeId) : rows;
+  const ordered = rowsByTree(rows);
   for (let i = 0; i < ordered.length; ) {
     const treeId = ordered[i].treeId;
     let end = i + 1;
@@ -404,6 +404,19 @@ export function tallyEvidence(
     medianFirstRipeDoy: medianOfSorted(Float64Array.from(firstRipe).sort()),
     medianDaysFrostToRipe: medianOfSorted(Float64Array.from(frostToRipe).sort()),
   };
+}
+
+/**
+ * The rows with each tree's rows side by side: as given when no tree has two rows (the usual case:
+ * a tree has a second row only if its place, form or variety changed), else sorted by tree.
+ */
+function rowsByTree(rows: TreeEvidence[]): TreeEvidence[] {
+  const trees = new Set<number>();
+  for (const row of rows) {
+    if (trees.has(row.treeId)) return [...rows].sort((a, b) => a.treeId - b.treeId);
+    trees.add(row.treeId);
+  }
+  return rows;
 }
 
 /** One tree's values of a list over its rows `from`..`to` - 1 (the row's own list when it has one row); null when empty. */

@@ -94,7 +94,7 @@ export function estimateSeason(input: SeasonEstimateInput): SeasonEstimate {
 function describe(e: SeasonEstimate, radiusKm: number): string {
   const at = `at ${e.thresholdF} °F`;
   if (e.stationCount === 0 && e.reportFrostCount === 0) {
-    return `No weather station and no grower’s frost dates within ${radiusKm} km, so no season length is given here.`;
+    return `No weather station and no frost dates from growers within ${radiusKm} km, so no season length is given here.`;
   }
   if (e.days50 === null) {
     return `${e.stationCount} station(s) within ${radiusKm} km, but none has enough complete years for a season length ${at}.`;

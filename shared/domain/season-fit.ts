@@ -69,15 +69,15 @@ export function seasonFit(input: SeasonFitInput): SeasonFit {
   if (input.neededDaysFromReports !== null && input.reportsBehindNeed >= MIN_TREES_FOR_REPORTED_NEED) {
     neededDays = Math.round(input.neededDaysFromReports);
     neededFrom = 'reports';
-    neededWords = `Growers’ reports from ${input.reportsBehindNeed} trees elsewhere show about ${neededDays} days from the last spring frost to the first ripe fig`;
+    neededWords = `Reports from ${input.reportsBehindNeed} trees elsewhere show about ${neededDays} days from the last spring frost to the first ripe fig`;
   } else if (input.typicalDaysToRipen !== null) {
     neededDays = Math.round(input.typicalDaysToRipen);
     neededFrom = 'catalogue';
-    neededWords = `Too few reports give this variety’s ripening time, so the catalogue’s ${neededDays} days from the last spring frost to the first ripe fig is used`;
+    neededWords = `Too few reports give the ripening time of this variety, so the catalogue figure of ${neededDays} days from the last spring frost to the first ripe fig is used`;
   } else if (input.ripeningClass !== null) {
     neededDays = RIPENING_CLASS_NEED_DAYS[input.ripeningClass];
     neededFrom = 'catalogue';
-    neededWords = `Too few reports give this variety’s ripening time; as a ${input.ripeningClass}-ripening variety it is assumed to need about ${neededDays} days from the last spring frost to the first ripe fig`;
+    neededWords = `Too few reports give the ripening time of this variety; as a ${input.ripeningClass}-ripening variety it is assumed to need about ${neededDays} days from the last spring frost to the first ripe fig`;
   }
 
   const local = input.localSeasonDays === null ? null : Math.round(input.localSeasonDays);

@@ -84,3 +84,42 @@ describe('buildFitResponse', () => {
     expect(fit.pollination.main.fruitExpected).toBe('yes');
   });
 });
+
+describe('the answers’ own words', () => {
+  // Every text the engine writes into an answer stays within Latin-1 (one byte per character in a
+  // JavaScript string): one character beyond it, such as a typographic apostrophe, makes the whole
+  // JSON body a two-byte string, which took the bench's client ~0.8 ms more to decode at 200 km
+  // (scripts/bench/near.bench.ts). Names (varieties, stations, areas) are growers' and editors' text
+  // and may hold any character.
+  const beyondLatin1 = /[^\u0000-\u00ff]/;
+
+  it('uses no character beyond Latin-1 in any season fit, pollination check, reason or method', () => {
+    const texts: string[] = [];
+    const forms = ['ground', 'container'] as const;
+    for (const figType of ['common', 'san-pedro', 'smyrna', 'caprifig', 'unknown'] as const) {
+      for (const waspEstablished of [false, true]) {
+        const variety: VarietyInfo = { ...common, figType };
+        for (const [stations, reports] of [[season.stationCount, 0], [0, 0]] as const) {
+          const here = stations ? season : estimateSeason({ point: { lat: 0, lon: 0 }, stations: [], reportFrostSeasons: reports ? [{ distanceKm: 5, seasonDays: 200 }] : [], radiusKm: 50 });
+          for (const overall of [{ share: 0.5, neededDays: 140, treesBehindNeed: 9 }, { share: null, neededDays: null, treesBehindNeed: 0 }]) {
+            for (const catalogue of [{ typicalDaysToRipen: 120 }, { typicalDaysToRipen: null }, { typicalDaysToRipen: null, ripeningClass: null }]) {
+              for (const form of forms) {
+                const fit = buildFitResponse({ variety: { ...variety, ...catalogue }, overall, season: here, waspEstablished, form });
+                texts.push(fit.seasonFit.explanation, fit.pollination.breba.explanation, fit.pollination.main.explanation, here.method);
+              }
+            }
+          }
+        }
+        const near = buildNearResponse({
+          point: { lat: 42.7, lon: -73.8 },
+          radiusKm: 100,
+          season,
+          wasp: { established: waspEstablished, areas: [] },
+          varieties: [{ variety, localTrees: groupTreeEvidence([r({ treeId: 1 }), r({ treeId: 2, outcome: 'unripe' })]), overall: { share: 0.5, neededDays: 200, treesBehindNeed: 9 } }],
+        });
+        texts.push(near.method, ...near.varieties.map((v) => v.reason));
+      }
+    }
+    expect(texts.filter((t) => beyondLatin1.test(t))).toEqual([]);
+  });
+});
