@@ -41,15 +41,21 @@ export type SeasonEstimateInput = {
 const idw = (d: number) => 1 / Math.max(d, MIN_DISTANCE_KM) ** IDW_POWER;
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
-function weightedMean(pairs: { value: number | null; weight: number }[]): number | null {
-  let s = 0;
-  let w = 0;
-  for (const p of pairs) {
-    if (p.value === null || !Number.isFinite(p.value)) continue;
-    s += p.value * p.weight;
-    w += p.weight;
+/** A weighted mean that skips missing values; null when nothing had a value. */
+class WeightedMean {
+  private sum = 0;
+  private weight = 0;
+  add(value: number | null, weight: number): void {
+    if (value === null || !Number.isFinite(value)) return;
+    this.sum += value * weight;
+    this.weight += weight;
   }
-  return w > 0 ? Math.round(s / w) : null;
+  get totalWeight(): number {
+    return this.weight;
+  }
+  result(): number | null {
+    return this.weight > 0 ? Math.round(this.sum / this.weight) : null;
+  }
 }
 
 /** The season estimate in the wire shape (see the module comment for the method). */
@@ -58,33 +64,45 @@ export function estimateSeason(input: SeasonEstimateInput): SeasonEstimate {
   const near = input.stations
     .map((s) => ({ s, d: distanceKm(input.point, s) }))
     .filter((x) => x.d <= input.radiusKm)
-    .sort((a, b) => a.d - b.d || a.s.id - b.s.id)
-    .map((x) => ({ ...x, w: idw(x.d) }));
-  const reports = input.reportFrostSeasons
-    .filter((r) => r.distanceKm <= input.radiusKm && Number.isFinite(r.seasonDays))
-    .map((r) => ({ ...r, w: REPORT_WEIGHT_FACTOR * idw(r.distanceKm) }));
-
-  const stationPairs = (pick: (s: StationSeason) => number | null) => near.map((x) => ({ value: pick(x.s), weight: x.w }));
-  const days50Pairs = [...stationPairs((s) => s.days50), ...reports.map((r) => ({ value: r.seasonDays, weight: r.w }))];
-  const days50Weight = days50Pairs.reduce((sum, p) => sum + (p.value === null ? 0 : p.weight), 0);
+    .sort((a, b) => a.d - b.d || a.s.id - b.s.id);
+  // Sums in loops, not arrays of pairs: hundreds of grower seasons at a wide radius.
+  const days10 = new WeightedMean();
+  const days50 = new WeightedMean();
+  const days90 = new WeightedMean();
+  const lastSpring = new WeightedMean();
+  const firstFall = new WeightedMean();
+  for (const { s, d } of near) {
+    const w = idw(d);
+    days10.add(s.days10, w);
+    days50.add(s.days50, w);
+    days90.add(s.days90, w);
+    lastSpring.add(s.lastSpringDoy50, w);
+    firstFall.add(s.firstFallDoy50, w);
+  }
+  let reportFrostCount = 0;
+  for (const r of input.reportFrostSeasons) {
+    if (r.distanceKm > input.radiusKm || !Number.isFinite(r.seasonDays)) continue;
+    reportFrostCount++;
+    days50.add(r.seasonDays, REPORT_WEIGHT_FACTOR * idw(r.distanceKm));
+  }
 
   const estimate: SeasonEstimate = {
     thresholdF,
-    days10: weightedMean(stationPairs((s) => s.days10)),
-    days50: weightedMean(days50Pairs),
-    days90: weightedMean(stationPairs((s) => s.days90)),
-    lastSpringDoy50: weightedMean(stationPairs((s) => s.lastSpringDoy50)),
-    firstFallDoy50: weightedMean(stationPairs((s) => s.firstFallDoy50)),
+    days10: days10.result(),
+    days50: days50.result(),
+    days90: days90.result(),
+    lastSpringDoy50: lastSpring.result(),
+    firstFallDoy50: firstFall.result(),
     stationCount: near.length,
-    reportFrostCount: reports.length,
+    reportFrostCount,
     nearestStationKm: near.length ? round1(near[0].d) : null,
     method: '',
-    stations: near.map((x) => ({
-      id: x.s.id,
-      name: x.s.name,
-      distanceKm: round1(x.d),
-      days50: x.s.days50,
-      weight: x.s.days50 === null || days50Weight === 0 ? 0 : Math.round((x.w / days50Weight) * 1000) / 1000,
+    stations: near.map(({ s, d }) => ({
+      id: s.id,
+      name: s.name,
+      distanceKm: round1(d),
+      days50: s.days50,
+      weight: s.days50 === null || days50.totalWeight === 0 ? 0 : Math.round((idw(d) / days50.totalWeight) * 1000) / 1000,
     })),
   };
   estimate.method = describe(estimate, input.radiusKm);
