@@ -25,6 +25,8 @@ const REPLAYED_TRIGGERS = new Set([
   'reports_tree_evidence_insert', 'reports_tree_evidence_update', 'reports_tree_evidence_update_old_tree', 'reports_tree_evidence_delete',
   // drizzle/0005: the atlas data version (moved once below)
   'reports_atlas_version_insert', 'reports_atlas_version_update', 'reports_atlas_version_delete',
+  // drizzle/0010: the stations data version (moved once below; the triggers on station_summaries stay)
+  'stations_stations_version_insert', 'stations_stations_version_update', 'stations_stations_version_delete',
 ]);
 
 /** The statement drizzle/0008 ends with: fill tree_evidence from its source view in one pass. */
@@ -63,6 +65,8 @@ export function bulkLoad<T>(sqlite: Database.Database, insert: () => T): T {
     sqlite.prepare("UPDATE reports SET published_at = created_at WHERE id > ? AND status <> 'draft' AND published_at IS NULL").run(lastReport);
     // reports_atlas_version_*: the version only has to move (caches compare it for equality).
     sqlite.exec("UPDATE data_versions SET version = version + 1 WHERE name = 'atlas'");
+    // stations_stations_version_*: likewise.
+    sqlite.exec("UPDATE data_versions SET version = version + 1 WHERE name = 'stations'");
     // reports_tree_evidence_*: every tree's rows from the source view at once (the R*Tree of
     // tree_evidence follows through its own triggers, which stay).
     sqlite.exec('DELETE FROM tree_evidence');

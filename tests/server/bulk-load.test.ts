@@ -69,6 +69,7 @@ function contents(sqlite: Database.Database) {
 }
 
 const atlasVersion = (sqlite: Database.Database) => sqlite.prepare("SELECT version FROM data_versions WHERE name = 'atlas'").pluck().get() as number;
+const stationsVersion = (sqlite: Database.Database) => sqlite.prepare("SELECT version FROM data_versions WHERE name = 'stations'").pluck().get() as number;
 
 describe('bulkLoad', { timeout: 120_000 }, () => {
   let byTriggers: ReturnType<typeof contents>;
@@ -83,6 +84,7 @@ describe('bulkLoad', { timeout: 120_000 }, () => {
 
   it('gives the same reports, R*Trees, tree_evidence and triggers as loading row by row', () => {
     const versionBefore = atlasVersion(bulk.sqlite);
+    const stationsVersionBefore = stationsVersion(bulk.sqlite);
     const triggersBefore = contents(bulk.sqlite).triggers;
     bulkLoad(bulk.sqlite, () => loadRows(bulk.sqlite));
     const loaded = contents(bulk.sqlite);
@@ -97,6 +99,7 @@ describe('bulkLoad', { timeout: 120_000 }, () => {
     expect(loaded.triggers).toEqual(triggersBefore);
     expect(loaded.triggers).toEqual(byTriggers.triggers);
     expect(atlasVersion(bulk.sqlite)).toBeGreaterThan(versionBefore);
+    expect(stationsVersion(bulk.sqlite)).toBeGreaterThan(stationsVersionBefore);
     expect(bulk.sqlite.pragma('integrity_check', { simple: true })).toBe('ok');
   });
 

@@ -2,8 +2,8 @@ import { eq } from 'drizzle-orm';
 import fs from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createDb } from '../../server/db/client';
-import { atlasDataVersion } from '../../server/db/data-version';
-import { reports, trees, users, varieties } from '../../server/db/schema';
+import { atlasDataVersion, stationsDataVersion } from '../../server/db/data-version';
+import { reports, stations, stationSummaries, trees, users, varieties } from '../../server/db/schema';
 import { createTestDb } from '../helpers/test-app';
 
 const { db, file, dir } = createTestDb();
@@ -75,5 +75,51 @@ describe('atlasDataVersion', () => {
       })(),
     ).toThrow('roll back');
     expect(atlasDataVersion(db)).toBe(before);
+  });
+});
+
+describe('stationsDataVersion', () => {
+  /** Runs a change and returns how far it moved the stations data version. */
+  const stationsMoves = (change: () => unknown): number => {
+    const before = stationsDataVersion(db);
+    change();
+    return stationsDataVersion(db) - before;
+  };
+  // Invented station and figures.
+  const newStation = () => db.insert(stations).values({ code: null, name: 'DV station', lat: 44.1, lon: -71.2 }).returning().get().id;
+  const summary = (stationId: number, probability: number) => ({ stationId, thresholdF: 32, probability, lastSpringDoy: 130, firstFallDoy: 270, seasonDays: 140, years: 30 });
+
+  it('moves on every insert, update and delete of a station', () => {
+    expect(typeof stationsDataVersion(db)).toBe('number');
+    let id = 0;
+    expect(stationsMoves(() => (id = newStation()))).toBeGreaterThan(0);
+    expect(stationsMoves(() => db.update(stations).set({ name: 'DV station renamed' }).where(eq(stations.id, id)).run())).toBeGreaterThan(0);
+    expect(stationsMoves(() => db.update(stations).set({ lat: 44.2 }).where(eq(stations.id, id)).run())).toBeGreaterThan(0);
+    expect(stationsMoves(() => db.delete(stations).where(eq(stations.id, id)).run())).toBeGreaterThan(0);
+  });
+
+  it('moves on every insert, update and delete of a station summary', () => {
+    const id = newStation();
+    expect(stationsMoves(() => db.insert(stationSummaries).values(summary(id, 50)).run())).toBeGreaterThan(0);
+    expect(stationsMoves(() => db.update(stationSummaries).set({ seasonDays: 141 }).where(eq(stationSummaries.stationId, id)).run())).toBeGreaterThan(0);
+    expect(stationsMoves(() => db.delete(stationSummaries).where(eq(stationSummaries.stationId, id)).run())).toBeGreaterThan(0);
+    // Also when the summary's own trigger is the only one that fires (the station row untouched).
+    db.insert(stationSummaries).values(summary(id, 90)).run();
+    expect(stationsMoves(() => db.sqlite.prepare('UPDATE station_summaries SET years = 29 WHERE station_id = ?').run(id))).toBe(1);
+  });
+
+  it('is apart from the atlas version: each moves only with its own tables', () => {
+    const atlasBefore = atlasDataVersion(db);
+    expect(stationsMoves(() => newStation())).toBeGreaterThan(0);
+    expect(atlasDataVersion(db)).toBe(atlasBefore);
+    expect(stationsMoves(() => newReport())).toBe(0);
+    expect(stationsMoves(() => db.insert(varieties).values({ name: 'Stations Version Test', figType: 'common', isFictional: true }).run())).toBe(0);
+  });
+
+  it('sees a station written by another connection', () => {
+    const before = stationsDataVersion(db);
+    other.sqlite.prepare("INSERT INTO stations (name, lat, lon) VALUES ('Other connection station', 10, 20)").run();
+    expect(stationsDataVersion(db)).not.toBe(before);
+    expect(stationsDataVersion(other)).toBe(stationsDataVersion(db));
   });
 });
