@@ -293,9 +293,28 @@ function medianOfSorted(xs: Float64Array): number | null {
   return xs.length % 2 === 1 ? xs[mid] : (xs[mid - 1] + xs[mid]) / 2;
 }
 
+/** Room for one tree's values while smallMedian sorts them (one tree has a few seasons). */
+const treeScratch = new Float64Array(32);
+
+/**
+ * The median of one tree's values, as `median` gives it, without allocating: an insertion sort
+ * into a reused buffer (thousands of trees per request, each with a handful of seasons).
+ */
 function smallMedian(list: number[]): number {
-  if (list.length === 1) return list[0];
-  return median(list) as number;
+  const n = list.length;
+  if (n === 1) return list[0];
+  if (n > treeScratch.length || !list.every(Number.isFinite)) return median(list) as number;
+  for (let i = 0; i < n; i++) {
+    const x = list[i];
+    let j = i - 1;
+    while (j >= 0 && treeScratch[j] > x) {
+      treeScratch[j + 1] = treeScratch[j];
+      j--;
+    }
+    treeScratch[j + 1] = x;
+  }
+  const mid = n >> 1;
+  return n % 2 === 1 ? treeScratch[mid] : (treeScratch[mid - 1] + treeScratch[mid]) / 2;
 }
 
 /**
