@@ -30,6 +30,7 @@ import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
 import { csrfGuard } from './middleware/csrf';
+import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 
@@ -71,17 +72,19 @@ export function createApp(deps: AppDeps): Express {
 
   const passport = createPassport(db);
   app.use(
-    session({
-      name: 'syconium.sid',
-      secret: config.sessionSecret,
-      store: new SqliteSessionStore(db),
-      resave: false,
-      saveUninitialized: false,
-      rolling: true,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: config.env === 'production' && process.env.SYCONIUM_HTTPS === 'true', maxAge: 30 * 86_400_000 },
-    }),
+    loginSession(
+      session({
+        name: SESSION_COOKIE,
+        secret: config.sessionSecret,
+        store: new SqliteSessionStore(db),
+        resave: false,
+        saveUninitialized: false,
+        rolling: true,
+        cookie: { httpOnly: true, sameSite: 'lax', secure: config.env === 'production' && process.env.SYCONIUM_HTTPS === 'true', maxAge: 30 * 86_400_000 },
+      }),
+      passport.session(),
+    ),
   );
-  app.use(passport.session());
 
   const api = express.Router();
   api.use(csrfGuard);

@@ -4,6 +4,7 @@ import { rateLimit } from 'express-rate-limit';
 import { meResponseSchema, signInInputSchema, signUpInputSchema } from '../../shared/schemas/auth';
 import type { Db } from '../db/client';
 import { HttpError } from '../lib/http-error';
+import { SESSION_COOKIE } from '../middleware/login-session';
 import { findUserByEmail, insertUser, toCurrentUser } from '../users/users.repo';
 import { BAD_CREDENTIALS } from './passport';
 import { hashPassword } from './password';
@@ -77,7 +78,7 @@ export function createAuthRouter({ db, passport, signInLimit, onSignedUp }: Auth
     req.logout((err) => {
       if (err) return next(err);
       req.session.destroy(() => {
-        res.clearCookie('syconium.sid');
+        res.clearCookie(SESSION_COOKIE);
         res.status(204).end();
       });
     });
