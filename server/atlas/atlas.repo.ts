@@ -1,15 +1,15 @@
-import { boundingBox, type LatLon } from '../../shared/domain/geo';
+import type { LatLon } from '../../shared/domain/geo';
 import type { VarietyInfo } from '../../shared/domain/evidence';
 import type { StationSeason } from '../../shared/domain/season-estimate';
-import { stationsInBoxes } from '../stations/stations.repo';
+import { currentStationSnapshot, stationSeasonsInBoxes } from '../stations/station-snapshot';
 import type { Db } from '../db/client';
 import { statement } from '../db/prepared';
 
 /*
- * Row gathering for the regional engine from SQLite: the catalogue, and stations through their
- * R*Tree (the exact distance is applied by estimateSeason). Tree rows come from the in-memory
- * snapshot (tree-snapshot.ts). The numbers themselves are computed by the pure functions in
- * shared/domain.
+ * Row gathering for the regional engine: the catalogue from SQLite, stations from the in-memory
+ * station snapshot (server/stations/station-snapshot.ts; the exact distance is applied by
+ * estimateSeason). Tree rows come from the in-memory tree snapshot (tree-snapshot.ts). The numbers
+ * themselves are computed by the pure functions in shared/domain.
  */
 
 /** Accepted varieties of the catalogue, by id (a small table: read on each request). */
@@ -21,22 +21,10 @@ export function acceptedVarieties(db: Db): Map<number, VarietyInfo> {
   return new Map(rows.map((v) => [v.id, { ...v, isFictional: v.isFictional === 1 }]));
 }
 
-/** Stations within the radius' boxes with their 32 deg F season at 10/50/90 % (estimateSeason filters by distance). */
+/**
+ * Stations within the radius' boxes with their 32 deg F season at 10/50/90 % (estimateSeason filters
+ * by distance), from the in-memory station snapshot, re-read whenever a station changes.
+ */
 export function stationSeasonsNear(db: Db, point: LatLon, radiusKm: number): StationSeason[] {
-  const byId = new Map<number, StationSeason>();
-  for (const row of stationsInBoxes(db, boundingBox(point, radiusKm), 32)) {
-    let station = byId.get(row.id);
-    if (!station) {
-      station = { id: row.id, name: row.name, lat: row.lat, lon: row.lon, days10: null, days50: null, days90: null, lastSpringDoy50: null, firstFallDoy50: null };
-      byId.set(row.id, station);
-    }
-    if (row.probability === 10) station.days10 = row.seasonDays;
-    if (row.probability === 90) station.days90 = row.seasonDays;
-    if (row.probability === 50) {
-      station.days50 = row.seasonDays;
-      station.lastSpringDoy50 = row.lastSpringDoy;
-      station.firstFallDoy50 = row.firstFallDoy;
-    }
-  }
-  return [...byId.values()];
+  return stationSeasonsInBoxes(currentStationSnapshot(db), point, radiusKm);
 }

@@ -21,7 +21,10 @@ function dataVersion(db: { sqlite: Database.Database }, name: DataSet): number {
     statement = db.sqlite.prepare('SELECT version FROM data_versions WHERE name = ?').pluck();
     statements.set(db.sqlite, statement);
   }
-  return statement.get(name) as number;
+  const version = statement.get(name) as number | undefined;
+  // Without the row every read would look like the same version and a cache would never refresh.
+  if (version === undefined) throw new Error(`data_versions has no '${name}' row: the database is not migrated`);
+  return version;
 }
 
 /**

@@ -4,11 +4,13 @@ import { dayOfYear, seasonDaysFromFrostDates, type SeasonReport } from '../../sh
 import type { Crop, FigType, GrowingForm } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
 import { varieties } from '../db/schema';
+import { currentStationSnapshot, stationSeasonsInBoxes } from '../stations/station-snapshot';
 
 /*
- * Row gathering for the guidance charts. Spatial look-ups go through the R*Tree tables
- * (reports_rtree, stations_rtree; drizzle/0001_spatial-index.sql), then an exact great-circle
- * distance. The computation itself lives in shared/domain/guidance.ts.
+ * Row gathering for the guidance charts. Reports are found through their R*Tree (reports_rtree;
+ * drizzle/0001_spatial-index.sql), stations through the in-memory station snapshot
+ * (server/stations/station-snapshot.ts), then an exact great-circle distance. The computation
+ * itself lives in shared/domain/guidance.ts.
  */
 
 /** Half the diagonal of a public grid cell (0.05 deg), rounded up: the box is padded by it. */
@@ -52,24 +54,21 @@ export function ripeDatesNear(db: Db, q: { varietyId: number; lat: number; lon: 
 /** How far to look for a station when a report has no frost dates of its own. */
 export const STATION_SEARCH_KM = 150;
 
-/** The nearest station's frost-free days at 32 deg F, 50 % level, within STATION_SEARCH_KM. */
+/**
+ * The nearest station's frost-free days at 32 deg F, 50 % level, within STATION_SEARCH_KM (the
+ * lower id on a tie), from the station snapshot as it is when called.
+ */
 function nearestStationSeason(db: Db): (lat: number, lon: number) => number | null {
-  const stmt = db.sqlite.prepare(
-    `SELECT s.lat AS lat, s.lon AS lon, ss.season_days AS seasonDays
-       FROM stations_rtree t JOIN stations s ON s.id = t.id
-       JOIN station_summaries ss ON ss.station_id = s.id AND ss.threshold_f = 32 AND ss.probability = 50
-      WHERE ${boxWhere('t')} AND ss.season_days IS NOT NULL`,
-  );
+  const snapshot = currentStationSnapshot(db);
   const cache = new Map<string, number | null>();
   return (lat, lon) => {
     const key = `${lat},${lon}`;
     if (cache.has(key)) return cache.get(key)!;
-    let best: { km: number; days: number } | null = null;
-    for (const box of boundingBox({ lat, lon }, STATION_SEARCH_KM)) {
-      for (const s of stmt.all(...boxParams(box)) as { lat: number; lon: number; seasonDays: number }[]) {
-        const km = distanceKm({ lat, lon }, s);
-        if (km <= STATION_SEARCH_KM && (!best || km < best.km)) best = { km, days: s.seasonDays };
-      }
+    let best: { km: number; id: number; days: number } | null = null;
+    for (const s of stationSeasonsInBoxes(snapshot, { lat, lon }, STATION_SEARCH_KM)) {
+      if (s.days50 === null) continue;
+      const km = distanceKm({ lat, lon }, s);
+      if (km <= STATION_SEARCH_KM && (!best || km < best.km || (km === best.km && s.id < best.id))) best = { km, id: s.id, days: s.days50 };
     }
     cache.set(key, best?.days ?? null);
     return best?.days ?? null;
