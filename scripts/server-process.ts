@@ -1,5 +1,5 @@
 // The production server as a child process on a free port: used by the browser and fault tests
-// (tests/e2e/harness.ts, tests/server/reliability/) and by `npm run load`.
+// (through tests/helpers/temp-server.ts) and by `npm run load`.
 import { spawn, type ChildProcess } from 'node:child_process';
 import net from 'node:net';
 

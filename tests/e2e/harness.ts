@@ -1,8 +1,5 @@
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { startServerProcess } from '../../scripts/server-process';
+import { startTempServer } from '../helpers/temp-server';
 
 /** Chromium from Debian's package, never a downloaded browser. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -23,15 +20,14 @@ export function launchBrowser(): Promise<Browser> {
 
 export interface RunningServer {
   url: string;
-  dir: string;
+  /** Stop the server and delete its files. */
   stop: () => Promise<void>;
 }
 
 /** Start the real production server (built client, demo seed) on a free port with its own database. */
 export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-e2e-'));
-  const server = await startServerProcess({ SYCONIUM_DB: path.join(dir, 'e2e.db'), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), ...env });
-  return { url: server.url, dir, stop: server.stop };
+  const temp = await startTempServer('e2e', env);
+  return { url: temp.process.url, stop: temp.remove };
 }
 
 /** Record every request a page makes, to prove none leaves the machine. */

@@ -1,11 +1,10 @@
 import Database from 'better-sqlite3';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { integrityCheck } from '../../../server/backup/backup';
 import { DEMO_PASSWORD } from '../../../server/seed/demo-scenario';
-import { startServerProcess, type ServerProcess } from '../../../scripts/server-process';
+import { startTempServer, type TempServer } from '../../helpers/temp-server';
 import { multipartBody, sendRequest } from './server-process';
 
 /*
@@ -18,20 +17,19 @@ import { multipartBody, sendRequest } from './server-process';
  * server is killed. (If the write finished first, the kill lands after the commit.)
  */
 
-const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-faults-'));
-const env = { SYCONIUM_DB: path.join(dir, 'faults.db'), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'fault-test-secret' };
-let server: ServerProcess | undefined;
+let temp: TempServer | undefined;
+const server = () => temp!.process;
+const dbFile = () => temp!.env.SYCONIUM_DB!;
 
 beforeAll(async () => {
-  server = await startServerProcess(env);
+  temp = await startTempServer('faults', { SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'fault-test-secret' });
 }, 180_000);
 afterAll(async () => {
-  await server?.stop();
-  fs.rmSync(dir, { recursive: true, force: true });
+  await temp?.remove();
 });
 
 async function signIn(email: string): Promise<string> {
-  const res = await fetch(`${server!.url}/api/auth/sign-in`, {
+  const res = await fetch(`${server().url}/api/auth/sign-in`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', 'x-syconium-request': '1' },
     body: JSON.stringify({ email, password: DEMO_PASSWORD }),
@@ -44,7 +42,7 @@ type KillMoment = 'during the write transaction' | 'after the commit' | 'before 
 
 /** Spin until the server holds the write lock (kill it then) or `done()` says the write is in. */
 function killDuringWrite(done: () => boolean, timeoutMs = 60_000): KillMoment {
-  const probe = new Database(env.SYCONIUM_DB, { timeout: 0 });
+  const probe = new Database(dbFile(), { timeout: 0 });
   const begin = probe.prepare('BEGIN IMMEDIATE');
   const rollback = probe.prepare('ROLLBACK');
   const deadline = Date.now() + timeoutMs;
@@ -58,15 +56,15 @@ function killDuringWrite(done: () => boolean, timeoutMs = 60_000): KillMoment {
         while (performance.now() < until);
       } catch (error) {
         if ((error as { code?: string }).code !== 'SQLITE_BUSY') throw error;
-        server!.child.kill('SIGKILL');
+        server().child.kill('SIGKILL');
         return 'during the write transaction';
       }
       if (i % 100 === 0 && done()) {
-        server!.child.kill('SIGKILL');
+        server().child.kill('SIGKILL');
         return 'after the commit';
       }
       if (Date.now() > deadline) {
-        server!.child.kill('SIGKILL');
+        server().child.kill('SIGKILL');
         return 'before the write began';
       }
     }
@@ -76,7 +74,7 @@ function killDuringWrite(done: () => boolean, timeoutMs = 60_000): KillMoment {
 }
 
 function query<T>(sql: string, ...params: unknown[]): T {
-  const db = new Database(env.SYCONIUM_DB);
+  const db = new Database(dbFile());
   try {
     return db.prepare(sql).pluck().get(...params) as T;
   } finally {
@@ -85,7 +83,7 @@ function query<T>(sql: string, ...params: unknown[]): T {
 }
 
 function checkFile(): void {
-  const db = new Database(env.SYCONIUM_DB);
+  const db = new Database(dbFile());
   try {
     expect(integrityCheck(db)).toBe('ok');
     expect(db.prepare('PRAGMA foreign_key_check').all()).toEqual([]);
@@ -97,9 +95,9 @@ function checkFile(): void {
 }
 
 async function restart(): Promise<void> {
-  await server!.kill();
+  await server().kill();
   checkFile();
-  server = await startServerProcess(env);
+  await temp!.restart();
 }
 
 describe('killed in the middle of a write', () => {
@@ -112,7 +110,7 @@ describe('killed in the middle of a write', () => {
     const stored = (marker: string) => query<number>('SELECT count(*) FROM reports WHERE notes LIKE ?', `${marker} row %`);
     const upload = (marker: string) => {
       const { body, contentType } = multipartBody({}, { field: 'file', name: 'reports.csv', type: 'text/csv', content: csv(marker) });
-      return sendRequest(`${server!.url}/api/reports/import`, { method: 'POST', headers: { cookie, 'content-type': contentType, 'x-syconium-request': '1' }, body });
+      return sendRequest(`${server().url}/api/reports/import`, { method: 'POST', headers: { cookie, 'content-type': contentType, 'x-syconium-request': '1' }, body });
     };
 
     const killed = upload('fault-import-1');
@@ -137,7 +135,7 @@ describe('killed in the middle of a write', () => {
   }, 240_000);
 
   it('a station upload (GHCN-Daily, ~30,000 days) is stored wholly or not at all', async (test) => {
-    const probe = await fetch(`${server!.url}/api/stations`);
+    const probe = await fetch(`${server().url}/api/stations`);
     if (probe.status === 404 && (await probe.text()).includes('No API route')) {
       console.log('Station upload: /api/stations is not mounted in server/app.ts yet; skipped');
       test.skip();
@@ -148,10 +146,10 @@ describe('killed in the middle of a write', () => {
     const csv = fs.readFileSync(path.resolve('tests/fixtures/ghcnd-USW00014735-daily.csv'));
     const upload = (code: string) => {
       const { body, contentType } = multipartBody({ name: `Fault station ${code}`, code, lat: '42.743', lon: '-73.809', elevationM: '89' }, { field: 'file', name: 'albany.csv', type: 'text/csv', content: csv });
-      return sendRequest(`${server!.url}/api/stations/upload`, { method: 'POST', headers: { cookie, 'content-type': contentType, 'x-syconium-request': '1' }, body });
+      return sendRequest(`${server().url}/api/stations/upload`, { method: 'POST', headers: { cookie, 'content-type': contentType, 'x-syconium-request': '1' }, body });
     };
     const station = (code: string) => {
-      const db = new Database(env.SYCONIUM_DB);
+      const db = new Database(dbFile());
       try {
         const row = db.prepare('SELECT id, day_count AS dayCount FROM stations WHERE code = ?').get(code) as { id: number; dayCount: number } | undefined;
         if (!row) return undefined;

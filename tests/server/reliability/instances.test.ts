@@ -1,10 +1,8 @@
 import fs from 'node:fs';
 import http from 'node:http';
-import os from 'node:os';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../../server/seed/demo-scenario';
-import { startServerProcess, type ServerProcess } from '../../../scripts/server-process';
+import { startTempServer, type TempServer } from '../../helpers/temp-server';
 
 /*
  * SYCONIUM_INSTANCES=2: two server processes share the port (node:cluster). A session made through
@@ -12,21 +10,19 @@ import { startServerProcess, type ServerProcess } from '../../../scripts/server-
  * and SIGTERM stops them all cleanly.
  */
 
-const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-instances-'));
-const env = { SYCONIUM_INSTANCES: '2', SYCONIUM_DB: path.join(dir, 'instances.db'), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'instances-test-secret' };
-let server: ServerProcess | undefined;
+let temp: TempServer | undefined;
+const server = () => temp!.process;
 
 beforeAll(async () => {
-  server = await startServerProcess(env);
+  temp = await startTempServer('instances', { SYCONIUM_INSTANCES: '2', SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'instances-test-secret' });
 }, 180_000);
 afterAll(async () => {
-  await server?.stop();
-  fs.rmSync(dir, { recursive: true, force: true });
+  await temp?.remove();
 });
 
 /** The instance processes: children of the supervising process (Linux /proc). */
 function instancePids(): number[] {
-  const parent = String(server!.child.pid);
+  const parent = String(server().child.pid);
   return fs
     .readdirSync('/proc')
     .filter((name) => /^\d+$/.test(name))
@@ -57,11 +53,11 @@ describe('several instances on one port', { timeout: 120_000 }, () => {
   it('share sessions through the database, replace an instance that dies, and stop together', async () => {
     // Health answers once the first instance listens; the second may still be starting.
     await expect.poll(() => instancePids().length, { timeout: 90_000, interval: 500 }).toBe(2);
-    const listening = () => (server!.output().match(/Syconium is running at .*one of 2/g) ?? []).length;
+    const listening = () => (server().output().match(/Syconium is running at .*one of 2/g) ?? []).length;
     await expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(2);
     // Neither instance died on the way up.
-    expect(server!.output()).not.toMatch(/starting another/);
-    const signIn = await fetch(`${server!.url}/api/auth/sign-in`, {
+    expect(server().output()).not.toMatch(/starting another/);
+    const signIn = await fetch(`${server().url}/api/auth/sign-in`, {
       method: 'POST',
       headers: { 'content-type': 'application/json', 'x-syconium-request': '1' },
       body: JSON.stringify({ email: 'grower@demo.syconium.test', password: DEMO_PASSWORD }),
@@ -70,20 +66,20 @@ describe('several instances on one port', { timeout: 120_000 }, () => {
     const cookie = signIn.headers.getSetCookie()[0]!.split(';')[0]!;
     // Eight new connections go to both instances in turn: each knows the session.
     for (let i = 0; i < 8; i++) {
-      const me = await getOnNewConnection(`${server!.url}/api/auth/me`, cookie);
+      const me = await getOnNewConnection(`${server().url}/api/auth/me`, cookie);
       expect(me.status).toBe(200);
       expect(JSON.parse(me.body).user.email).toBe('grower@demo.syconium.test');
     }
 
     const [victim] = instancePids();
     process.kill(victim!, 'SIGKILL');
-    await expect.poll(() => server!.output(), { timeout: 60_000 }).toMatch(/stopped \(SIGKILL\); starting another/);
+    await expect.poll(() => server().output(), { timeout: 60_000 }).toMatch(/stopped \(SIGKILL\); starting another/);
     await expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(3);
     expect(instancePids().filter((pid) => pid !== victim)).toHaveLength(2);
-    for (let i = 0; i < 4; i++) expect((await getOnNewConnection(`${server!.url}/api/health`, '')).status).toBe(200);
+    for (let i = 0; i < 4; i++) expect((await getOnNewConnection(`${server().url}/api/health`, '')).status).toBe(200);
 
-    await server!.stop();
-    expect(server!.child.exitCode).toBe(0);
-    expect(server!.output().match(/SIGTERM: shutting down/g)).toHaveLength(2);
+    await server().stop();
+    expect(server().child.exitCode).toBe(0);
+    expect(server().output().match(/SIGTERM: shutting down/g)).toHaveLength(2);
   });
 });
