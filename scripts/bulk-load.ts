@@ -16,9 +16,9 @@ import path from 'node:path';
  * migration) makes bulkLoad refuse to run rather than silently skip what that trigger does.
  */
 const REPLAYED_TRIGGERS = new Set([
-  // drizzle/0001: the R*Tree row of each report and station (filled below for the new rows)
+  // drizzle/0001: the R*Tree row of each report (filled below for the new rows; the stations'
+  // R*Tree and its triggers were dropped by drizzle/0011)
   'reports_rtree_insert', 'reports_rtree_update', 'reports_rtree_delete',
-  'stations_rtree_insert', 'stations_rtree_update', 'stations_rtree_delete',
   // drizzle/0003: publication time of a row inserted as non-draft without one
   'reports_published_at_insert',
   // drizzle/0008 (replacing 0004): the tree's rows in tree_evidence (refilled below)
@@ -39,9 +39,9 @@ function treeEvidenceFill(): string {
 
 /**
  * Run `insert` with the triggers of `reports` and `stations` off, then bring the derived tables
- * (reports_rtree, stations_rtree, published_at, data_versions, tree_evidence) to
- * what the triggers would have made. `insert` may only INSERT new reports and stations (other
- * tables, such as users and trees, freely); it must not update or delete existing ones.
+ * (reports_rtree, published_at, data_versions, tree_evidence) to what the triggers would have
+ * made. `insert` may only INSERT new reports and stations (other tables, such as users and trees,
+ * freely); it must not update or delete existing ones.
  * tree_evidence is rebuilt whole (its ids, which only order rows by place, are renumbered).
  */
 export function bulkLoad<T>(sqlite: Database.Database, insert: () => T): T {
@@ -55,20 +55,18 @@ export function bulkLoad<T>(sqlite: Database.Database, insert: () => T): T {
 
   return sqlite.transaction(() => {
     const lastReport = maxId('reports');
-    const lastStation = maxId('stations');
     for (const t of triggers) sqlite.exec(`DROP TRIGGER ${t.name}`);
     const result = insert();
-    // reports_rtree_insert / stations_rtree_insert
+    // reports_rtree_insert
     sqlite.prepare('INSERT INTO reports_rtree SELECT id, lat, lat, lon, lon FROM reports WHERE id > ?').run(lastReport);
-    sqlite.prepare('INSERT INTO stations_rtree SELECT id, lat, lat, lon, lon FROM stations WHERE id > ?').run(lastStation);
     // reports_published_at_insert
     sqlite.prepare("UPDATE reports SET published_at = created_at WHERE id > ? AND status <> 'draft' AND published_at IS NULL").run(lastReport);
     // reports_atlas_version_*: the version only has to move (caches compare it for equality).
     sqlite.exec("UPDATE data_versions SET version = version + 1 WHERE name = 'atlas'");
     // stations_stations_version_*: likewise.
     sqlite.exec("UPDATE data_versions SET version = version + 1 WHERE name = 'stations'");
-    // reports_tree_evidence_*: every tree's rows from the source view at once (the R*Tree of
-    // tree_evidence follows through its own triggers, which stay).
+    // reports_tree_evidence_*: every tree's rows from the source view at once (tree_evidence has
+    // had no triggers of its own since its R*Tree was dropped, drizzle/0009).
     sqlite.exec('DELETE FROM tree_evidence');
     sqlite.exec(fill);
     for (const t of triggers) sqlite.exec(t.sql);

@@ -56,12 +56,8 @@ export function currentStationSnapshot(db: Db): StationSnapshot {
 
 /**
  * Stations whose place lies in the boxes of the radius around the point (boundingBox: split at the
- * antimeridian, whole longitude circles at the poles), the stations the R*Tree query found;
- * estimateSeason applies the exact distance. In no particular order.
- *
- * The one difference from that query: the R*Tree stores places as 32-bit floats, rounded outwards,
- * so it may also return a station within ~1e-5 deg outside a box edge. The boxes are padded beyond
- * the radius, so such a station is never within the radius and no estimate differs.
+ * antimeridian, whole longitude circles at the poles), each once; estimateSeason applies the exact
+ * distance. In no particular order.
  */
 export function stationSeasonsInBoxes(snapshot: StationSnapshot, point: LatLon, radiusKm: number): StationSeason[] {
   const { stations, index } = snapshot;

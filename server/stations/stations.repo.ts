@@ -1,6 +1,4 @@
-import type { Statement } from 'better-sqlite3';
 import { and, asc, eq } from 'drizzle-orm';
-import type { BoundingBox } from '../../shared/domain/geo';
 import type { StationSeason } from '../../shared/domain/season-estimate';
 import type { StationDetail, StationListItem } from '../../shared/schemas/stations';
 import type { Db } from '../db/client';
@@ -155,52 +153,14 @@ export function deleteStation(db: Db, id: number, actorId: number | null): boole
   });
 }
 
-export interface StationNearRow {
-  id: number;
-  name: string;
-  lat: number;
-  lon: number;
-  thresholdF: number;
-  probability: number;
-  lastSpringDoy: number | null;
-  firstFallDoy: number | null;
-  seasonDays: number | null;
-  years: number;
-}
-
-const statements = new WeakMap<Db, Statement>();
-
-/**
- * Stations inside the boxes (R*Tree), one row per summary probability at the given threshold.
- * Requests read the in-memory station snapshot instead (station-snapshot.ts); its test checks the
- * snapshot's answers against this.
- */
-export function stationsInBoxes(db: Db, boxes: BoundingBox[], thresholdF = 32): StationNearRow[] {
-  let statement = statements.get(db);
-  if (!statement) {
-    statement = db.sqlite.prepare(
-      `SELECT s.id, s.name, s.lat, s.lon, m.threshold_f AS thresholdF, m.probability, m.last_spring_doy AS lastSpringDoy,
-              m.first_fall_doy AS firstFallDoy, m.season_days AS seasonDays, m.years
-         FROM stations_rtree r
-         JOIN stations s ON s.id = r.id
-         JOIN station_summaries m ON m.station_id = s.id AND m.threshold_f = ?
-        WHERE r.min_lat <= ? AND r.max_lat >= ? AND r.min_lon <= ? AND r.max_lon >= ?`,
-    );
-    statements.set(db, statement);
-  }
-  const rows: StationNearRow[] = [];
-  for (const box of boxes) rows.push(...(statement.all(thresholdF, box.maxLat, box.minLat, box.maxLon, box.minLon) as StationNearRow[]));
-  return rows;
-}
-
 type StationSeasonTuple = [number, string, number, number, number | null, number | null, number | null, number | null, number | null];
 
 /**
  * Every station that has summaries at the threshold, with its season length at 10, 50 and 90 % and
- * its 50 % dates (null where it has no row for that probability): the rows stationsInBoxes gives,
- * folded into one per station, for all stations at once. The in-memory station snapshot
- * (station-snapshot.ts) is read from it; one row per station keeps that read short (~15 ms for
- * 5,000 stations, a third of the time one row per summary took).
+ * its 50 % dates (null where it has no row for that probability), one row per station. The
+ * in-memory station snapshot (station-snapshot.ts) is read from it, and every station look-up goes
+ * through that snapshot; one row per station keeps that read short (~15 ms for 5,000 stations, a
+ * third of the time one row per summary took).
  */
 export function allStationSeasons(db: Db, thresholdF = 32): StationSeason[] {
   const rows = db.sqlite
