@@ -138,7 +138,7 @@ export function PlacePicker({
       </form>
 
       <div className="flex flex-wrap gap-4">
-        <div className="flex flex-col gap-1">
+        <div className="flex min-w-[12rem] flex-1 flex-col gap-1">
           <label htmlFor={`${id}-form`} className="text-sm font-medium">
             How you grow it
           </label>
@@ -151,7 +151,7 @@ export function PlacePicker({
           </select>
           <p className="text-xs text-ink/70">Containers and warm walls get a head start on the season.</p>
         </div>
-        <div className="flex flex-col gap-1">
+        <div className="flex min-w-[12rem] flex-1 flex-col gap-1">
           <label htmlFor={`${id}-radius`} className="text-sm font-medium">
             Look within
           </label>

@@ -23,17 +23,23 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
           <>
             <dl className="mt-3 grid grid-cols-3 gap-2 text-center">
               <div className="rounded-md bg-fig-50 p-2">
-                <dt className="text-xs text-ink/70">Short year (10 %)</dt>
+                <dt className="text-xs text-ink/70">
+                  Short year <span className="whitespace-nowrap">(10 %)</span>
+                </dt>
                 <dd className="text-lg font-semibold">{days(season.days10)}</dd>
               </div>
               <div className="rounded-md bg-fig-100 p-2">
-                <dt className="text-xs text-ink/70">Typical year (50 %)</dt>
+                <dt className="text-xs text-ink/70">
+                  Typical year <span className="whitespace-nowrap">(50 %)</span>
+                </dt>
                 <dd className="text-lg font-semibold" data-testid="season-days50">
                   {days(season.days50)}
                 </dd>
               </div>
               <div className="rounded-md bg-fig-50 p-2">
-                <dt className="text-xs text-ink/70">Long year (90 %)</dt>
+                <dt className="text-xs text-ink/70">
+                  Long year <span className="whitespace-nowrap">(90 %)</span>
+                </dt>
                 <dd className="text-lg font-semibold">{days(season.days90)}</dd>
               </div>
             </dl>
