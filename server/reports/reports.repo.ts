@@ -121,22 +121,7 @@ function shapeReport(row: ReportRow, viewer: Viewer, refs: ReportRefs): Report {
     lon: exact ? row.lon : null,
     gridLat: row.gridLat,
     gridLon: row.gridLon,
-    form: row.form,
-    origin: row.origin,
-    yearPlanted: row.yearPlanted,
-    season: row.season,
-    crop: row.crop,
-    outcome: row.outcome,
-    firstRipeDate: row.firstRipeDate,
-    lastHarvestDate: row.lastHarvestDate,
-    springFrostDate: row.springFrostDate,
-    fallFrostDate: row.fallFrostDate,
-    pinched: row.pinched,
-    pinchedDate: row.pinchedDate,
-    winterProtection: row.winterProtection,
-    feeding: row.feeding,
-    watering: row.watering,
-    notes: row.notes,
+    ...seasonDetails(row),
     status: row.status,
     hiddenReason: isOwner || moderator ? row.hiddenReason : null,
     hiddenAt: isOwner || moderator ? row.hiddenAt : null,
@@ -366,6 +351,20 @@ export function findTreeByLabel(db: Db, userId: number, label: string): number |
   return db.select({ id: trees.id }).from(trees).where(and(eq(trees.userId, userId), sql`lower(${trees.label}) = lower(${label})`)).get()?.id;
 }
 
+/** What a grower records about one tree's season: the same fields in the input, the row and the answer. */
+const SEASON_DETAIL_KEYS = [
+  'form', 'origin', 'yearPlanted', 'season', 'crop', 'outcome', 'firstRipeDate', 'lastHarvestDate', 'springFrostDate', 'fallFrostDate',
+  'pinched', 'pinchedDate', 'winterProtection', 'feeding', 'watering', 'notes',
+] as const satisfies readonly (keyof CreateReportValues & keyof ReportRow & keyof Report)[];
+type SeasonDetailKey = (typeof SEASON_DETAIL_KEYS)[number];
+
+/** The season details of an input, a stored row or anything else that has them. */
+export function seasonDetails<T extends Pick<ReportRow, SeasonDetailKey> | Pick<CreateReportValues, SeasonDetailKey>>(source: T): Pick<T, SeasonDetailKey> {
+  const details: Partial<Record<SeasonDetailKey, unknown>> = {};
+  for (const key of SEASON_DETAIL_KEYS) details[key] = source[key];
+  return details as Pick<T, SeasonDetailKey>;
+}
+
 /** The stored columns of a validated input (everything but variety and tree resolution). */
 export function reportColumns(input: CreateReportValues) {
   const grid = toPublicPoint(input.lat, input.lon);
@@ -374,22 +373,7 @@ export function reportColumns(input: CreateReportValues) {
     lon: input.lon,
     gridLat: grid.lat,
     gridLon: grid.lon,
-    form: input.form,
-    origin: input.origin,
-    yearPlanted: input.yearPlanted,
-    season: input.season,
-    crop: input.crop,
-    outcome: input.outcome,
-    firstRipeDate: input.firstRipeDate,
-    lastHarvestDate: input.lastHarvestDate,
-    springFrostDate: input.springFrostDate,
-    fallFrostDate: input.fallFrostDate,
-    pinched: input.pinched,
-    pinchedDate: input.pinchedDate,
-    winterProtection: input.winterProtection,
-    feeding: input.feeding,
-    watering: input.watering,
-    notes: input.notes,
+    ...seasonDetails(input),
   };
 }
 
