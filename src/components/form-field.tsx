@@ -3,16 +3,15 @@ import { useEffect, useId, useRef, type InputHTMLAttributes, type ReactNode, typ
 export const inputClass =
   'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none aria-invalid:border-red-600';
 
-/** A labelled control with a hint under it and its error in plain words (for selects, text areas, groups). */
-export function Field({ label, hint, error, children }: { label: string; hint?: ReactNode; error?: string; children: (props: { id: string; 'aria-describedby'?: string; 'aria-invalid'?: true }) => ReactNode }) {
-  const id = useId();
-  const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
+/** The ids a control names in aria-describedby: its hint and its error, those it has. */
+export function describedBy(id: string, hint: ReactNode, error: string | undefined): string | undefined {
+  return [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
+}
+
+/** The hint under a control and its error in plain words, with the ids `describedBy` names. */
+export function HintAndError({ id, hint, error }: { id: string; hint?: ReactNode; error?: string }) {
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-medium text-ink">
-        {label}
-      </label>
-      {children({ id, 'aria-describedby': describedBy, 'aria-invalid': error ? true : undefined })}
+    <>
       {hint && (
         <p id={`${id}-hint`} className="text-xs text-ink/70">
           {hint}
@@ -23,6 +22,20 @@ export function Field({ label, hint, error, children }: { label: string; hint?: 
           {error}
         </p>
       )}
+    </>
+  );
+}
+
+/** A labelled control with a hint under it and its error in plain words (for selects, text areas, groups). */
+export function Field({ label, hint, error, children }: { label: string; hint?: ReactNode; error?: string; children: (props: { id: string; 'aria-describedby'?: string; 'aria-invalid'?: true }) => ReactNode }) {
+  const id = useId();
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="text-sm font-medium text-ink">
+        {label}
+      </label>
+      {children({ id, 'aria-describedby': describedBy(id, hint, error), 'aria-invalid': error ? true : undefined })}
+      <HintAndError id={id} hint={hint} error={error} />
     </div>
   );
 }

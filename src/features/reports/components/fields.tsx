@@ -1,22 +1,14 @@
 import { useId, type ReactNode } from 'react';
+import { describedBy, HintAndError } from '../../../components/form-field';
 
 /** A group of radio buttons with a legend, a hint and an error. */
 export function ChoiceGroup({ legend, hint, error, children }: { legend: string; hint?: ReactNode; error?: string; children: ReactNode }) {
   const id = useId();
   return (
-    <fieldset className="flex flex-col gap-1" aria-describedby={[hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(' ') || undefined} data-invalid={error ? true : undefined}>
+    <fieldset className="flex flex-col gap-1" aria-describedby={describedBy(id, hint, error)} data-invalid={error ? true : undefined}>
       <legend className="mb-1 text-sm font-medium text-ink">{legend}</legend>
       <div className="flex flex-wrap gap-2">{children}</div>
-      {hint && (
-        <p id={`${id}-hint`} className="text-xs text-ink/70">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
-          {error}
-        </p>
-      )}
+      <HintAndError id={id} hint={hint} error={error} />
     </fieldset>
   );
 }

@@ -2,7 +2,9 @@ import { useQuery } from '@tanstack/react-query';
 import { useEffect, useId, useState } from 'react';
 import { LABELS } from '@shared/domain/codes';
 import { reportQueries } from '../api';
-import { inputClass } from '../../../components/form-field';
+import { describedBy, HintAndError, inputClass } from '../../../components/form-field';
+
+const VARIETY_HINT = 'Pick the name on the label or from the person who gave you the plant. Unsure? Choose the closest match and say so in the notes.';
 
 interface VarietyPickerProps {
   varietyId: number | null;
@@ -88,7 +90,7 @@ export function VarietyPicker({ varietyId, varietyName, proposedName, onChoose, 
         aria-expanded={results.length > 0}
         aria-controls={`${id}-results`}
         aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-hint ${id}-error` : `${id}-hint`}
+        aria-describedby={describedBy(id, VARIETY_HINT, error)}
         autoComplete="off"
         placeholder="Type a name or a synonym"
         value={text}
@@ -113,12 +115,7 @@ export function VarietyPicker({ varietyId, varietyName, proposedName, onChoose, 
         </ul>
       )}
       {debounced && search.isSuccess && results.length === 0 && <p className="text-sm text-ink/70">No listed variety matches “{debounced}”.</p>}
-      <p id={`${id}-hint`} className="text-xs text-ink/70">Pick the name on the label or from the person who gave you the plant. Unsure? Choose the closest match and say so in the notes.</p>
-      {error && (
-        <p id={`${id}-error`} role="alert" className="text-sm text-red-700">
-          {error}
-        </p>
-      )}
+      <HintAndError id={id} hint={VARIETY_HINT} error={error} />
       <button
         type="button"
         className="self-start text-sm text-fig-700 underline"
