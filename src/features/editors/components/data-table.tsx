@@ -1,5 +1,6 @@
 import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type ColumnDef, type OnChangeFn, type SortingState } from '@tanstack/react-table';
 import { useState, type ReactNode } from 'react';
+import { SortableTableHead } from '../../../components/sortable-table-head';
 
 export interface PageState {
   limit: number;
@@ -48,27 +49,7 @@ export function DataTable<T>({ caption, columns, rows, total, page, onPageChange
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">{caption}</caption>
-          <thead className="bg-fig-50 text-ink/70">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th key={header.id} scope="col" className="px-3 py-2 font-medium whitespace-nowrap" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                      {header.isPlaceholder ? null : header.column.getCanSort() ? (
-                        <button type="button" className="inline-flex items-center gap-1 hover:text-fig-700" onClick={header.column.getToggleSortingHandler()}>
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true" className="text-xs">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(header.column.columnDef.header, header.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableTableHead table={table} className="bg-fig-50 text-ink/70" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-100 align-top hover:bg-paper">

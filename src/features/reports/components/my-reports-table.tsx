@@ -5,6 +5,7 @@ import { Link } from 'react-router';
 import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, REPORT_STATUSES, type Crop, type GrowingForm, type Outcome, type ReportStatus } from '@shared/domain/codes';
 import type { ReportListItem, ReportListQuery, ReportSort } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
+import { SortableTableHead } from '../../../components/sortable-table-head';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
 
@@ -133,27 +134,7 @@ export function MyReportsTable() {
       <div className="overflow-x-auto rounded-lg border border-fig-100 bg-white">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">My reports, {total} in all</caption>
-          <thead className="bg-fig-50 text-ink/80">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th key={header.id} scope="col" className="whitespace-nowrap px-3 py-2 font-medium" aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {header.column.getCanSort() ? (
-                        <button type="button" className="inline-flex items-center gap-1 hover:text-fig-700" onClick={header.column.getToggleSortingHandler()}>
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true" className="text-xs">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(header.column.columnDef.header, header.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableTableHead table={table} className="bg-fig-50 text-ink/80" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-50 hover:bg-paper">
