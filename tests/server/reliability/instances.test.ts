@@ -49,12 +49,21 @@ function getOnNewConnection(url: string, cookie: string): Promise<{ status: numb
   });
 }
 
+/** Run a wait; when it fails, its error carries the servers' output, to tell why (a slow start, a crash). */
+async function withOutput(what: string, wait: () => Promise<unknown>): Promise<void> {
+  try {
+    await wait();
+  } catch (error) {
+    throw new Error(`${what}: ${(error as Error).message}\n--- server output ---\n${server().output()}\n--- instance pids: ${instancePids().join(', ')}`);
+  }
+}
+
 describe('several instances on one port', { timeout: 120_000 }, () => {
   it('share sessions through the database, replace an instance that dies, and stop together', async () => {
     // Health answers once the first instance listens; the second may still be starting.
-    await expect.poll(() => instancePids().length, { timeout: 90_000, interval: 500 }).toBe(2);
+    await withOutput('two instance processes', () => expect.poll(() => instancePids().length, { timeout: 90_000, interval: 500 }).toBe(2));
     const listening = () => (server().output().match(/Syconium is running at .*one of 2/g) ?? []).length;
-    await expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(2);
+    await withOutput('both instances listening', () => expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(2));
     // Neither instance died on the way up.
     expect(server().output()).not.toMatch(/starting another/);
     const signIn = await fetch(`${server().url}/api/auth/sign-in`, {
@@ -73,8 +82,8 @@ describe('several instances on one port', { timeout: 120_000 }, () => {
 
     const [victim] = instancePids();
     process.kill(victim!, 'SIGKILL');
-    await expect.poll(() => server().output(), { timeout: 60_000 }).toMatch(/stopped \(SIGKILL\); starting another/);
-    await expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(3);
+    await withOutput('the supervisor noticed the kill', () => expect.poll(() => server().output(), { timeout: 60_000 }).toMatch(/stopped \(SIGKILL\); starting another/));
+    await withOutput('the replacement listening', () => expect.poll(listening, { timeout: 90_000, interval: 500 }).toBe(3));
     expect(instancePids().filter((pid) => pid !== victim)).toHaveLength(2);
     for (let i = 0; i < 4; i++) expect((await getOnNewConnection(`${server().url}/api/health`, '')).status).toBe(200);
 
