@@ -1,7 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+import { openSite, recordRequests, signIn } from './harness';
 
 /** An invented area in central Texas, away from the demo's growers (not a real observation). */
 const AREA_NAME = 'Llano test area (e2e)';
@@ -17,21 +16,12 @@ const GEOJSON = {
 };
 
 describe('editors’ workspace in the browser', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const site = openSite();
 
   it('the demo editor uploads a GeoJSON wasp area, then sees it drawn on the editors’ map and on the atlas map’s wasp layer; nothing leaves the machine', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
+    const page = await site.newPage({ viewport: { width: 1280, height: 1000 } });
     const requests = recordRequests(page);
-    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await signIn(page, site.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
     await page.getByRole('link', { name: 'Editors', exact: true }).click();
     // the overview counts what needs attention (demo: 2 proposed names)
     await expect.poll(() => page.getByRole('link', { name: /Proposed names/ }).textContent(), { timeout: 30_000 }).toMatch(/^2/);
@@ -54,11 +44,11 @@ describe('editors’ workspace in the browser', () => {
     await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain(AREA_NAME);
     await expect.poll(() => page.getByRole('button', { name: AREA_NAME, exact: true }).isVisible()).toBe(true);
     // and the public layer every map reads now carries it
-    const publicAreas = await (await fetch(`${server.url}/api/wasp-areas`)).json();
+    const publicAreas = await (await fetch(`${site.url}/api/wasp-areas`)).json();
     expect(publicAreas.features.map((f: { properties: { name: string } }) => f.properties.name)).toContain(AREA_NAME);
 
     // the atlas map's wasp-area layer (switched on through its URL) shows it too: clicking inside opens its popup
-    await page.goto(`${server.url}/?layers=wasp&lat=31.2&lon=-99.25&zoom=8`);
+    await page.goto(`${site.url}/?layers=wasp&lat=31.2&lon=-99.25&zoom=8`);
     const canvas = page.locator('canvas.maplibregl-canvas').first();
     await expect
       .poll(
@@ -70,13 +60,13 @@ describe('editors’ workspace in the browser', () => {
       )
       .toBe(true);
 
-    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
   }, 180_000); // two maps on a shared 2-core machine
 
   it('draws a wasp area corner by corner on the editors’ map', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
-    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
-    await page.goto(`${server.url}/editors/wasp-areas`);
+    const page = await site.newPage({ viewport: { width: 1280, height: 1000 } });
+    await signIn(page, site.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/editors/wasp-areas`);
     const map = page.getByTestId('wasp-area-map');
     await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain('Lower Sacramento Valley (demo)');
     await page.getByRole('button', { name: 'New wasp area' }).click();
@@ -91,7 +81,7 @@ describe('editors’ workspace in the browser', () => {
     await page.getByRole('button', { name: 'Record area' }).click();
     await expect.poll(() => page.getByRole('status').textContent(), { timeout: 30_000 }).toContain('Recorded “Drawn test area (e2e)”');
     await expect.poll(() => map.getAttribute('data-rendered-areas'), { timeout: 60_000 }).toContain('Drawn test area (e2e)');
-    const record = (await (await fetch(`${server.url}/api/wasp-areas`)).json()).features.find((f: { properties: { name: string } }) => f.properties.name === 'Drawn test area (e2e)');
+    const record = (await (await fetch(`${site.url}/api/wasp-areas`)).json()).features.find((f: { properties: { name: string } }) => f.properties.name === 'Drawn test area (e2e)');
     // four corners and the first one again: a closed ring
     expect(record.geometry.coordinates[0]).toHaveLength(5);
     expect(record.geometry.coordinates[0][0]).toEqual(record.geometry.coordinates[0][4]);

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
-import { launchBrowser, recordRequests, startServer, type RunningServer } from './harness';
+import { describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
+import { openSite, recordRequests } from './harness';
 
 /**
  * Open a page and wait until `ready` shows. The shared working tree's client bundle can be rebuilt
@@ -72,25 +72,16 @@ async function mailedLink(page: Page, url: string, subject: string, to: string, 
 }
 
 describe('e-mail in the browser, through the development mail server', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    // The production build with the local mail server asked for (it is off in production by default).
-    [server, browser] = await Promise.all([startServer({ SYCONIUM_DEV_MAIL: 'true' }), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  // The production build with the local mail server asked for (it is off in production by default).
+  const site = openSite({ SYCONIUM_DEV_MAIL: 'true' });
 
   it('verifies a new account from the mailed link, then resets its password; nothing leaves the machine', async () => {
-    const page = await browser.newPage();
+    const page = await site.newPage();
     const requests = recordRequests(page);
     const email = 'wren@example.com';
 
     const lateVisitor = await deliverMeLate(page, '/api/auth/sign-up');
-    await openPage(page, `${server.url}/sign-up`, page.getByLabel('Name shown with your reports'));
+    await openPage(page, `${site.url}/sign-up`, page.getByLabel('Name shown with your reports'));
     await page.getByLabel('Name shown with your reports').fill('Wren');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('a long enough password');
@@ -100,8 +91,8 @@ describe('e-mail in the browser, through the development mail server', () => {
     await banner.waitFor({ timeout: 30_000 });
     expect(await lateVisitor.held).toEqual({ user: null });
 
-    const verifyUrl = await mailedLink(page, server.url, 'Confirm your e-mail for Syconium', email, '/verify');
-    expect(verifyUrl.startsWith(`${server.url}/verify?token=`)).toBe(true);
+    const verifyUrl = await mailedLink(page, site.url, 'Confirm your e-mail for Syconium', email, '/verify');
+    expect(verifyUrl.startsWith(`${site.url}/verify?token=`)).toBe(true);
     const lateMe = await deliverMeLate(page, '/api/auth/verify');
     await openPage(page, verifyUrl, page.getByText('Your e-mail address is confirmed'));
     // The held answer really was the older one: signed in, not yet confirmed.
@@ -111,13 +102,13 @@ describe('e-mail in the browser, through the development mail server', () => {
 
     await page.getByRole('button', { name: 'Sign out' }).click();
     await expect.poll(() => page.getByRole('link', { name: 'Sign in' }).isVisible(), { timeout: 30_000 }).toBe(true);
-    await openPage(page, `${server.url}/sign-in`, page.getByRole('link', { name: 'Forgot your password?' }));
+    await openPage(page, `${site.url}/sign-in`, page.getByRole('link', { name: 'Forgot your password?' }));
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
     await page.getByLabel('E-mail').fill(email);
     await page.getByRole('button', { name: 'Send me a reset link' }).click();
     await page.getByText('If an account uses that address').waitFor({ timeout: 30_000 });
 
-    const resetUrl = await mailedLink(page, server.url, 'Choose a new Syconium password', email, '/reset-password');
+    const resetUrl = await mailedLink(page, site.url, 'Choose a new Syconium password', email, '/reset-password');
     const lateSignedOut = await deliverMeLate(page, '/api/auth/reset');
     await openPage(page, resetUrl, page.getByLabel('New password'));
     await page.getByLabel('New password').fill('a fresh fig password');
@@ -127,6 +118,6 @@ describe('e-mail in the browser, through the development mail server', () => {
     await expect.poll(() => page.getByRole('link', { name: /Wren/ }).isVisible(), { timeout: 30_000 }).toBe(true);
     expect(await lateSignedOut.held).toEqual({ user: null });
 
-    expect(requests.filter((u) => !u.startsWith(server.url) && !/^(data|blob|about):/.test(u))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !/^(data|blob|about):/.test(u))).toEqual([]);
   }, 400_000);
 });

@@ -1,24 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+import { openSite, recordRequests, signIn } from './harness';
 
 describe('guidance in the browser', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const site = openSite();
 
   it('walks “Why no figs?” for a dropped Smyrna crop at the demo home to its causes; nothing leaves the machine', async () => {
-    const page = await browser.newPage();
+    const page = await site.newPage();
     const requests = recordRequests(page);
-    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
     await page.getByRole('link', { name: 'Why no figs?' }).click();
     await page.getByRole('button', { name: /Fruit formed, then dropped/ }).click();
 
@@ -47,13 +37,13 @@ describe('guidance in the browser', () => {
     await expect.poll(() => first.getByRole('heading').textContent()).toBe('The figs needed the fig wasp');
     expect(await first.textContent()).toContain('Grow a common-type variety');
     expect(await page.getByRole('note', { name: 'Caution' }).last().textContent()).toContain('extension service');
-    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
   });
 
   it('opens “What ripens here” on the demo grower’s saved home', async () => {
-    const page = await browser.newPage();
-    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
-    await page.goto(`${server.url}/here`);
+    const page = await site.newPage();
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/here`);
     await page.waitForURL((u) => u.searchParams.get('lat') === '42.66' && u.searchParams.get('form') === 'container', { timeout: 30_000 });
     await expect.poll(() => page.getByLabel('Latitude').inputValue(), { timeout: 15_000 }).toBe('42.66');
     await expect.poll(() => page.getByTestId('variety-row').count(), { timeout: 30_000 }).toBeGreaterThan(0);

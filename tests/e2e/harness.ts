@@ -1,10 +1,11 @@
-import { chromium, type Browser, type Page } from 'playwright-core';
-import { startTempServer } from '../helpers/temp-server';
+import { chromium, type Browser, type BrowserContextOptions, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
+import { startTempServer, type TempServer } from '../helpers/temp-server';
 
 /** Chromium from Debian's package, never a downloaded browser. */
-export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 
-export const CHROMIUM_ARGS = [
+const CHROMIUM_ARGS = [
   '--no-sandbox',
   '--disable-gpu',
   '--disable-background-networking',
@@ -14,20 +15,37 @@ export const CHROMIUM_ARGS = [
   '--disable-quic',
 ];
 
-export function launchBrowser(): Promise<Browser> {
+function launchBrowser(): Promise<Browser> {
   return chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS });
 }
 
-export interface RunningServer {
-  url: string;
-  /** Stop the server and delete its files. */
-  stop: () => Promise<void>;
+/** The real server and a browser for the tests of one describe block. */
+export interface Site {
+  /** The server's address, e.g. http://127.0.0.1:41234. */
+  readonly url: string;
+  newPage: (options?: BrowserContextOptions) => Promise<Page>;
 }
 
-/** Start the real production server (built client, demo seed) on a free port with its own database. */
-export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
-  const temp = await startTempServer('e2e', env);
-  return { url: temp.process.url, stop: temp.remove };
+/**
+ * Before the block's tests, start the real production server (built client, demo seed) on a free
+ * port with its own database, and the browser; after them, close both and delete the server's files.
+ */
+export function openSite(env: Record<string, string> = {}): Site {
+  let server: TempServer | undefined;
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    [server, browser] = await Promise.all([startTempServer('e2e', env), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.remove();
+  });
+  return {
+    get url() {
+      return server!.process.url;
+    },
+    newPage: (options) => browser!.newPage(options),
+  };
 }
 
 /** Record every request a page makes, to prove none leaves the machine. */

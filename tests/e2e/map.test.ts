@@ -1,7 +1,7 @@
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, recordRequests, startServer, type RunningServer } from './harness';
+import { describe, expect, it } from 'vitest';
+import { openSite, recordRequests } from './harness';
 
 /** Wait until the map has added our layers, then for it to be idle with its tiles loaded. */
 async function waitForMap(page: Page): Promise<void> {
@@ -36,21 +36,12 @@ async function firstFeatureAt(page: Page, layer: string): Promise<{ x: number; y
 }
 
 describe('the atlas map in the browser', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const site = openSite();
 
   it('draws the map with the demo pins, zooms into a cluster, opens a pin’s summary; every request stays on this origin', async () => {
-    const page = await browser.newPage({ viewport: { width: 1200, height: 800 } });
+    const page = await site.newPage({ viewport: { width: 1200, height: 800 } });
     const requests = recordRequests(page);
-    await page.goto(`${server.url}/`);
+    await page.goto(`${site.url}/`);
     await waitForMap(page);
 
     // The canvas is not blank: the base map and pins give many different colours.
@@ -72,7 +63,7 @@ describe('the atlas map in the browser', () => {
       .toBeGreaterThan(zoomBefore + 0.9);
 
     // Zoomed in over Albany, a single grid cell opens its summary with a link to the report.
-    await page.goto(`${server.url}/?lat=42.68&lon=-73.80&zoom=11`);
+    await page.goto(`${site.url}/?lat=42.68&lon=-73.80&zoom=11`);
     await waitForMap(page);
     await expect.poll(() => firstFeatureAt(page, 'pins-cells'), { timeout: 30_000 }).not.toBeNull();
     const cell = (await firstFeatureAt(page, 'pins-cells'))!;
@@ -87,14 +78,14 @@ describe('the atlas map in the browser', () => {
     // The URL keeps the view for sharing.
     await expect.poll(() => new URL(page.url()).searchParams.get('zoom')).not.toBeNull();
 
-    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
     expect(requests.some((u) => u.includes('/tiles/base/'))).toBe(true);
     await page.close();
   }, 300_000);
 
   it('keeps a filter in the URL and finds a town by name', async () => {
-    const page = await browser.newPage({ viewport: { width: 1200, height: 800 } });
-    await page.goto(`${server.url}/`);
+    const page = await site.newPage({ viewport: { width: 1200, height: 800 } });
+    await page.goto(`${site.url}/`);
     await waitForMap(page);
     await page.getByLabel('Crop').selectOption('breba');
     await expect.poll(() => new URL(page.url()).searchParams.get('crop')).toBe('breba');

@@ -1,27 +1,17 @@
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+import { openSite, recordRequests, signIn } from './harness';
 
 describe('harvest reports in the browser', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const site = openSite();
 
   it('the demo grower posts a report with a photo through the form, then sees it on its page and in My reports', async () => {
-    const page = await browser.newPage();
+    const page = await site.newPage();
     // A slow, shared machine: give the first page loads room.
     page.setDefaultTimeout(60_000);
     const requests = recordRequests(page);
-    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
 
     await page.getByRole('link', { name: 'Post a report' }).click();
     await page.getByLabel('Label for the new tree').fill('Balcony pot (e2e)');
@@ -52,7 +42,7 @@ describe('harvest reports in the browser', () => {
     await expect.poll(() => page.getByRole('cell', { name: 'Balcony pot (e2e)' }).isVisible(), { timeout: 15_000 }).toBe(true);
 
     // On the atlas map, the pin at its grid cell (0.05 degree grid: 44.075, -103.225) opens a popup linking to it.
-    await page.goto(`${server.url}/?lat=44.075&lon=-103.225&zoom=9`);
+    await page.goto(`${site.url}/?lat=44.075&lon=-103.225&zoom=9`);
     const canvas = page.locator('canvas.maplibregl-canvas').first();
     const link = page.locator(`a[href="/reports/${reportId}"]`);
     await expect
@@ -65,14 +55,14 @@ describe('harvest reports in the browser', () => {
       )
       .toBe(true);
 
-    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
   }, 240_000);
 
   it('names the field that is out of order before anything is sent', async () => {
-    const page = await browser.newPage();
+    const page = await site.newPage();
     page.setDefaultTimeout(60_000);
-    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
-    await page.goto(`${server.url}/reports/new`);
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/reports/new`);
     await page.getByLabel('Season year').fill('2025');
     await page.getByRole('radio', { name: /^Ripened/ }).check();
     await page.getByLabel('Last spring frost').fill('2025-05-01');
@@ -85,10 +75,10 @@ describe('harvest reports in the browser', () => {
   }, 120_000);
 
   it('on a phone, My reports scrolls its wide table sideways, never the whole page', async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    const page = await site.newPage({ viewport: { width: 390, height: 844 } });
     page.setDefaultTimeout(60_000);
-    await signIn(page, server.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
-    await page.goto(`${server.url}/my/reports`);
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/my/reports`);
     await expect.poll(() => page.getByRole('row').count()).toBeGreaterThan(2);
     const widths = await page.evaluate(() => {
       window.scrollTo(500, 0);

@@ -1,9 +1,8 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { launchBrowser, recordRequests, signIn, startServer, type RunningServer } from './harness';
+import { openSite, recordRequests, signIn } from './harness';
 
 /** A decade of the Albany GHCN-Daily record (NOAA NCEI, public domain), under a test code. */
 function albanyDecade(): Buffer {
@@ -12,22 +11,13 @@ function albanyDecade(): Buffer {
 }
 
 describe('editors’ climate stations in the browser', () => {
-  let server: RunningServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const site = openSite();
 
   it('an editor uploads a station, sees its frost dates, and a bad file is refused with its row and column', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 1000 } });
+    const page = await site.newPage({ viewport: { width: 1280, height: 1000 } });
     const requests = recordRequests(page);
-    await signIn(page, server.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
-    await page.goto(`${server.url}/editors/stations`);
+    await signIn(page, site.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/editors/stations`);
     await expect.poll(() => page.getByRole('link', { name: 'Stations', exact: true }).getAttribute('aria-current'), { timeout: 60_000 }).toBe('page');
     // The demo stations are listed (real NOAA ones and synthetic ones).
     await expect.poll(() => page.getByRole('link', { name: 'Albany International Airport, NY' }).isVisible(), { timeout: 30_000 }).toBe(true);
@@ -61,6 +51,6 @@ describe('editors’ climate stations in the browser', () => {
     await expect.poll(() => problems.textContent(), { timeout: 60_000 }).toContain('Row 4, column TMIN');
     await expect.poll(() => years.getByRole('rowheader', { name: '2005' }).isVisible()).toBe(true);
 
-    expect(requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
   });
 });
