@@ -1,7 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
-import { useId, useState, type ReactNode } from 'react';
+import { useState } from 'react';
 import { CROPS, FIG_TYPES, GROWING_FORMS, LABELS, OUTCOMES } from '@shared/domain/codes';
 import type { PinFilters } from '@shared/schemas/pins';
+import { Field } from '../../../components/form-field';
 import { mapQueries } from '../api';
 import type { OverlayName } from '../url-state';
 
@@ -9,23 +10,6 @@ const FIRST_SEASON = 2015;
 const seasons = Array.from({ length: new Date().getFullYear() - FIRST_SEASON + 1 }, (_, i) => new Date().getFullYear() - i);
 
 const selectClass = 'w-full rounded-md border border-fig-200 bg-white px-2.5 py-1.5 text-sm shadow-sm focus:border-fig-500 focus:outline-none';
-
-function Field({ label, hint, children }: { label: string; hint?: string; children: (id: string, hintId?: string) => ReactNode }) {
-  const id = useId();
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-medium text-ink">
-        {label}
-      </label>
-      {children(id, hint ? `${id}-hint` : undefined)}
-      {hint && (
-        <p id={`${id}-hint`} className="text-xs text-ink/70">
-          {hint}
-        </p>
-      )}
-    </div>
-  );
-}
 
 interface FiltersPanelProps {
   filters: PinFilters;
@@ -63,8 +47,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
       <fieldset className="flex flex-col gap-3">
         <legend className="mb-1 text-xs font-semibold tracking-wide text-fig-700 uppercase">Which reports</legend>
         <Field label="Variety" hint="Names marked “fictional” belong to the demo.">
-          {(id, hintId) => (
-            <select id={id} aria-describedby={hintId} className={selectClass} value={filters.varietyId ?? ''} onChange={(e) => set('varietyId', e.target.value ? Number(e.target.value) : undefined)}>
+          {(control) => (
+            <select {...control} className={selectClass} value={filters.varietyId ?? ''} onChange={(e) => set('varietyId', e.target.value ? Number(e.target.value) : undefined)}>
               <option value="">All varieties</option>
               {varieties.data?.varieties.map((v) => (
                 <option key={v.id} value={v.id}>
@@ -76,8 +60,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           )}
         </Field>
         <Field label="Fig type" hint="Smyrna and San Pedro main crops need the fig wasp.">
-          {(id, hintId) => (
-            <select id={id} aria-describedby={hintId} className={selectClass} value={filters.figType ?? ''} onChange={(e) => set('figType', text(e.target.value) as PinFilters['figType'])}>
+          {(control) => (
+            <select {...control} className={selectClass} value={filters.figType ?? ''} onChange={(e) => set('figType', text(e.target.value) as PinFilters['figType'])}>
               <option value="">All types</option>
               {FIG_TYPES.map((t) => (
                 <option key={t} value={t}>
@@ -88,8 +72,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           )}
         </Field>
         <Field label="Crop">
-          {(id) => (
-            <select id={id} className={selectClass} value={filters.crop ?? ''} onChange={(e) => set('crop', text(e.target.value) as PinFilters['crop'])}>
+          {(control) => (
+            <select {...control} className={selectClass} value={filters.crop ?? ''} onChange={(e) => set('crop', text(e.target.value) as PinFilters['crop'])}>
               <option value="">Breba and main crop</option>
               {CROPS.map((c) => (
                 <option key={c} value={c}>
@@ -100,8 +84,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           )}
         </Field>
         <Field label="Outcome">
-          {(id) => (
-            <select id={id} className={selectClass} value={filters.outcome ?? ''} onChange={(e) => set('outcome', text(e.target.value) as PinFilters['outcome'])}>
+          {(control) => (
+            <select {...control} className={selectClass} value={filters.outcome ?? ''} onChange={(e) => set('outcome', text(e.target.value) as PinFilters['outcome'])}>
               <option value="">Every outcome</option>
               {OUTCOMES.map((o) => (
                 <option key={o} value={o}>
@@ -113,8 +97,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
         </Field>
         <div className="grid grid-cols-2 gap-2">
           <Field label="Seasons from">
-            {(id) => (
-              <select id={id} className={selectClass} value={filters.seasonFrom ?? ''} onChange={(e) => set('seasonFrom', e.target.value ? Number(e.target.value) : undefined)}>
+            {(control) => (
+              <select {...control} className={selectClass} value={filters.seasonFrom ?? ''} onChange={(e) => set('seasonFrom', e.target.value ? Number(e.target.value) : undefined)}>
                 <option value="">Any</option>
                 {seasons.filter((y) => filters.seasonTo === undefined || y <= filters.seasonTo).map((y) => (
                   <option key={y} value={y}>
@@ -125,8 +109,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
             )}
           </Field>
           <Field label="to">
-            {(id) => (
-              <select id={id} className={selectClass} value={filters.seasonTo ?? ''} onChange={(e) => set('seasonTo', e.target.value ? Number(e.target.value) : undefined)}>
+            {(control) => (
+              <select {...control} className={selectClass} value={filters.seasonTo ?? ''} onChange={(e) => set('seasonTo', e.target.value ? Number(e.target.value) : undefined)}>
                 <option value="">Any</option>
                 {seasons.filter((y) => filters.seasonFrom === undefined || y >= filters.seasonFrom).map((y) => (
                   <option key={y} value={y}>
@@ -138,8 +122,8 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           </Field>
         </div>
         <Field label="Growing form" hint="Containers and warm walls give a head start in short seasons.">
-          {(id, hintId) => (
-            <select id={id} aria-describedby={hintId} className={selectClass} value={filters.form ?? ''} onChange={(e) => set('form', text(e.target.value) as PinFilters['form'])}>
+          {(control) => (
+            <select {...control} className={selectClass} value={filters.form ?? ''} onChange={(e) => set('form', text(e.target.value) as PinFilters['form'])}>
               <option value="">Any way of growing</option>
               {GROWING_FORMS.map((f) => (
                 <option key={f} value={f}>
