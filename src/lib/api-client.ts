@@ -40,10 +40,47 @@ export async function apiFetch<T extends z.ZodType>(path: string, schema: T, ini
 }
 
 async function toApiError(response: Response): Promise<ApiError> {
+  let body: unknown;
   try {
-    const body = apiErrorSchema.parse(await response.json());
-    return new ApiError(response.status, body.error.code, body.error.message, body.error.fields);
+    body = await response.json();
   } catch {
-    return new ApiError(response.status, 'http_error', `The server answered ${response.status}`);
+    body = undefined;
   }
+  return errorFromBody(response.status, body);
+}
+
+/** The server's error answer as ApiError, or a plain one naming the status when it is not ours. */
+function errorFromBody(status: number, body: unknown): ApiError {
+  const parsed = apiErrorSchema.safeParse(body);
+  return parsed.success ? new ApiError(status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.fields) : new ApiError(status, 'http_error', `The server answered ${status}`);
+}
+
+/**
+ * POST a multipart form with upload progress (fetch cannot report it; XMLHttpRequest can), then
+ * parse the JSON answer like apiFetch. `onProgress` gets the sent fraction; `onSent` fires once the
+ * whole body is on the server and it is working on it.
+ */
+export function uploadWithProgress<T extends z.ZodType>(path: string, form: FormData, schema: T, { onProgress, onSent }: { onProgress: (fraction: number) => void; onSent?: () => void }): Promise<z.output<T>> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', path);
+    xhr.setRequestHeader(CSRF_HEADER, '1');
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.upload.onprogress = (event) => {
+      if (event.lengthComputable) onProgress(event.loaded / event.total);
+    };
+    if (onSent) xhr.upload.onload = () => onSent();
+    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload did not reach the server. Check the connection and try again.'));
+    xhr.onload = () => {
+      let body: unknown;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        body = undefined;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) resolve(schema.parse(body));
+      else reject(errorFromBody(xhr.status, body));
+    };
+    xhr.send(form);
+  });
 }

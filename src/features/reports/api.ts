@@ -1,6 +1,5 @@
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { apiErrorSchema } from '@shared/schemas/api-error';
 import {
   importResultSchema,
   photoListSchema,
@@ -13,7 +12,7 @@ import {
 } from '@shared/schemas/reports';
 import { varietyListSchema } from '@shared/schemas/varieties';
 import { fitResponseSchema } from '@shared/schemas/atlas';
-import { ApiError, apiFetch } from '../../lib/api-client';
+import { apiFetch, uploadWithProgress } from '../../lib/api-client';
 
 const toSearch = (params: Record<string, unknown>) =>
   new URLSearchParams(Object.entries(params).flatMap(([k, v]) => (v === undefined || v === null || v === '' ? [] : [[k, String(v)]]))).toString();
@@ -57,40 +56,13 @@ export const useFlagReport = () => useReportMutation(({ id, reason }: { id: numb
 export const useDeletePhoto = () =>
   useReportMutation(({ id, photoId }: { id: number; photoId: number }) => apiFetch(`/api/reports/${id}/photos/${photoId}`, z.undefined(), { method: 'DELETE' }));
 
-/**
- * POST multipart with upload progress (fetch cannot report upload progress; XMLHttpRequest can).
- * Resolves with the parsed JSON, rejects with ApiError like apiFetch.
- */
-export function uploadWithProgress<T extends z.ZodType>(url: string, form: FormData, schema: T, onProgress: (share: number) => void): Promise<z.output<T>> {
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', url);
-    xhr.setRequestHeader('X-Syconium-Request', '1');
-    xhr.setRequestHeader('Accept', 'application/json');
-    xhr.upload.onprogress = (event) => event.lengthComputable && onProgress(event.loaded / event.total);
-    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload did not reach the server; check your connection'));
-    xhr.onload = () => {
-      let body: unknown;
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        body = undefined;
-      }
-      if (xhr.status >= 200 && xhr.status < 300) return resolve(schema.parse(body));
-      const parsed = apiErrorSchema.safeParse(body);
-      reject(parsed.success ? new ApiError(xhr.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.fields) : new ApiError(xhr.status, 'http_error', `The server answered ${xhr.status}`));
-    };
-    xhr.send(form);
-  });
-}
-
 export function useUploadPhotos() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, files, onProgress }: { id: number; files: File[]; onProgress: (share: number) => void }) => {
       const form = new FormData();
       for (const file of files) form.append('photos', file);
-      return uploadWithProgress(`/api/reports/${id}/photos`, form, photoListSchema, onProgress);
+      return uploadWithProgress(`/api/reports/${id}/photos`, form, photoListSchema, { onProgress });
     },
     onSuccess: () => queryClient.invalidateQueries({ queryKey: reportQueries.all }),
   });
@@ -102,7 +74,7 @@ export function useImportReports() {
     mutationFn: ({ file, onProgress }: { file: File; onProgress: (share: number) => void }) => {
       const form = new FormData();
       form.append('file', file);
-      return uploadWithProgress('/api/reports/import', form, importResultSchema, onProgress);
+      return uploadWithProgress('/api/reports/import', form, importResultSchema, { onProgress });
     },
     onSuccess: () => queryClient.invalidateQueries({ queryKey: reportQueries.all }),
   });
