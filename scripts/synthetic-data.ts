@@ -5,18 +5,7 @@ import type Database from 'better-sqlite3';
 import { bulkLoad } from './bulk-load';
 import { CROPS, GROWING_FORMS, OUTCOMES, PLANT_ORIGINS } from '../shared/domain/codes';
 import { snapToGrid } from '../shared/domain/public-grid';
-
-/** A small deterministic generator (mulberry32), so runs are repeatable. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../server/seed/random';
 
 /** Regions where synthetic growers live (North America's fig belt and cool north, Europe, south-east Australia). */
 const REGIONS = [
@@ -27,7 +16,7 @@ const REGIONS = [
 
 /** Places where growers cluster (towns), drawn once per seed. */
 export function syntheticCentres(count: number, seed = 2026): { lat: number; lon: number }[] {
-  const rand = random(seed ^ 0x5eed);
+  const rand = seededRandom(seed ^ 0x5eed);
   return Array.from({ length: count }, (_, i) => {
     const region = REGIONS[i % 5 === 4 ? 2 : i % 2]!;
     return { lat: region.minLat + rand() * (region.maxLat - region.minLat), lon: region.minLon + rand() * (region.maxLon - region.minLon) };
@@ -67,7 +56,7 @@ export function insertSyntheticData(sqlite: Database.Database, options: Syntheti
 
 /** The same rows with every trigger firing per row (slow; the reference bulkLoad is checked against). */
 export function insertSyntheticRows(sqlite: Database.Database, options: SyntheticOptions): SyntheticIds {
-  const rand = random(options.seed ?? 2026);
+  const rand = seededRandom(options.seed ?? 2026);
   const centres = syntheticCentres(options.centres ?? Math.max(1, Math.ceil(options.growers / 10)), options.seed ?? 2026);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(rand() * list.length)]!;
   const emailOf = options.emailOf ?? syntheticEmail;
