@@ -89,6 +89,12 @@ describe('the atlas map in the browser', () => {
     await waitForMap(page);
     await page.getByLabel('Crop').selectOption('breba');
     await expect.poll(() => new URL(page.url()).searchParams.get('crop')).toBe('breba');
+    // The download links carry the same filter; the export gives grid cells, never a garden's place.
+    const csvHref = await page.getByRole('link', { name: 'CSV', exact: true }).getAttribute('href');
+    expect(csvHref).toBe('/api/reports/export.csv?crop=breba');
+    const geojson = await (await fetch(`${site.url}${await page.getByRole('link', { name: 'GeoJSON', exact: true }).getAttribute('href')}`)).json();
+    expect(geojson.features.length).toBeGreaterThan(0);
+    expect(geojson.features.every((f: { properties: { crop: string } }) => f.properties.crop === 'breba')).toBe(true);
 
     await page.getByRole('combobox', { name: 'Find a town' }).fill('Milwaukee');
     await page.getByRole('option', { name: /Milwaukee/ }).first().click();

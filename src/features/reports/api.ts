@@ -7,6 +7,7 @@ import {
   reportResponseSchema,
   treeListSchema,
   type CreateReportValues,
+  type ReportFilter,
   type ReportListQuery,
   type UpdateReportInput,
 } from '@shared/schemas/reports';
@@ -38,7 +39,8 @@ export const reportQueries = {
     }),
 };
 
-export const exportUrl = (format: 'csv' | 'geojson', filter: Record<string, unknown>) => `/api/reports/export.${format}?${toSearch(filter)}`;
+/** The public export of the published reports a filter matches (GET /api/reports/export.csv or .geojson). */
+export const exportUrl = (format: 'csv' | 'geojson', filter: ReportFilter) => `/api/reports/export.${format}?${toSearch(filter)}`;
 
 function useReportMutation<TInput, TOutput>(mutationFn: (input: TInput) => Promise<TOutput>) {
   const queryClient = useQueryClient();

@@ -3,6 +3,7 @@ import { useState } from 'react';
 import { CROPS, FIG_TYPES, GROWING_FORMS, LABELS, OUTCOMES } from '@shared/domain/codes';
 import type { PinFilters } from '@shared/schemas/pins';
 import { Field } from '../../../components/form-field';
+import { exportUrl } from '../../reports/api';
 import { mapQueries } from '../api';
 import type { OverlayName } from '../url-state';
 
@@ -163,6 +164,17 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           {copied ? 'Link copied' : 'Copy a link to this view'}
         </button>
         <p className="mt-1 text-xs text-ink/70">The link keeps the filters, layers and where the map is.</p>
+        <p className="mt-3 text-sm">
+          Download these reports:{' '}
+          <a className="font-medium text-fig-700 underline" href={exportUrl('csv', filters)} download>
+            CSV
+          </a>{' '}
+          ·{' '}
+          <a className="font-medium text-fig-700 underline" href={exportUrl('geojson', filters)} download>
+            GeoJSON
+          </a>
+        </p>
+        <p className="mt-1 text-xs text-ink/70">Every published report the filters match, anywhere on the map, each at its ~5 km grid cell: never a garden’s own place.</p>
       </div>
     </div>
   );
