@@ -90,8 +90,7 @@ describe('the atlas map in the browser', () => {
     await page.getByLabel('Crop').selectOption('breba');
     await expect.poll(() => new URL(page.url()).searchParams.get('crop')).toBe('breba');
     // The download links carry the same filter; the export gives grid cells, never a garden's place.
-    const csvHref = await page.getByRole('link', { name: 'CSV', exact: true }).getAttribute('href');
-    expect(csvHref).toBe('/api/reports/export.csv?crop=breba');
+    await expect.poll(() => page.getByRole('link', { name: 'CSV', exact: true }).getAttribute('href')).toBe('/api/reports/export.csv?crop=breba');
     const geojson = await (await fetch(`${site.url}${await page.getByRole('link', { name: 'GeoJSON', exact: true }).getAttribute('href')}`)).json();
     expect(geojson.features.length).toBeGreaterThan(0);
     expect(geojson.features.every((f: { properties: { crop: string } }) => f.properties.crop === 'breba')).toBe(true);
