@@ -1,9 +1,10 @@
 import type Database from 'better-sqlite3';
 import KDBush from 'kdbush';
 import { GROWING_FORMS, type GrowingForm } from '../../shared/domain/codes';
-import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
+import { distanceKm, type LatLon } from '../../shared/domain/geo';
 import { overallByVariety, type OverallRow, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
 import { atlasDataVersion } from '../db/data-version';
+import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 
 /*
  * Every tree row of the atlas (table tree_evidence, kept by triggers on reports) held in memory as
@@ -226,22 +227,12 @@ export function treesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: num
   const c = snapshot.columns;
   if (c.count === 0) return [];
   const result: NearTree[] = [];
-  const boxes = boundingBox(point, radiusKm);
-  // Boxes either side of the antimeridian only touch at +-180; a row there could be found twice.
-  const seen = boxes.length > 1 ? new Set<number>() : null;
   const place = { lat: 0, lon: 0 };
-  for (const box of boxes) {
-    for (const i of snapshot.index.range(box.minLon, box.minLat, box.maxLon, box.maxLat)) {
-      place.lat = c.lat[i]!;
-      place.lon = c.lon[i]!;
-      const distance = distanceKm(point, place);
-      if (distance > radiusKm) continue;
-      if (seen) {
-        if (seen.has(i)) continue;
-        seen.add(i);
-      }
-      result.push(treeAt(c, i, distance));
-    }
+  for (const i of idsInRadiusBoxes(snapshot.index, point, radiusKm)) {
+    place.lat = c.lat[i]!;
+    place.lon = c.lon[i]!;
+    const distance = distanceKm(point, place);
+    if (distance <= radiusKm) result.push(treeAt(c, i, distance));
   }
   return result;
 }

@@ -1,8 +1,9 @@
 import KDBush from 'kdbush';
-import { boundingBox, type LatLon } from '../../shared/domain/geo';
+import type { LatLon } from '../../shared/domain/geo';
 import type { StationSeason } from '../../shared/domain/season-estimate';
 import type { Db } from '../db/client';
 import { stationsDataVersion } from '../db/data-version';
+import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 import { allStationSeasons } from './stations.repo';
 
 /*
@@ -61,14 +62,5 @@ export function currentStationSnapshot(db: Db): StationSnapshot {
  */
 export function stationSeasonsInBoxes(snapshot: StationSnapshot, point: LatLon, radiusKm: number): StationSeason[] {
   const { stations, index } = snapshot;
-  if (!index) return [];
-  const boxes = boundingBox(point, radiusKm);
-  if (boxes.length === 1) {
-    const box = boxes[0]!;
-    return index.range(box.minLon, box.minLat, box.maxLon, box.maxLat).map((i) => stations[i]!);
-  }
-  // Boxes either side of the antimeridian touch at +-180: a station there would be found twice.
-  const found = new Set<number>();
-  for (const box of boxes) for (const i of index.range(box.minLon, box.minLat, box.maxLon, box.maxLat)) found.add(i);
-  return [...found].map((i) => stations[i]!);
+  return index ? idsInRadiusBoxes(index, point, radiusKm).map((i) => stations[i]!) : [];
 }

@@ -64,15 +64,15 @@ export function estimateSeason(input: SeasonEstimateInput): SeasonEstimate {
   const near = input.stations
     .map((s) => ({ s, d: distanceKm(input.point, s) }))
     .filter((x) => x.d <= input.radiusKm)
-    .sort((a, b) => a.d - b.d || a.s.id - b.s.id);
+    .sort((a, b) => a.d - b.d || a.s.id - b.s.id)
+    .map((x) => ({ ...x, w: idw(x.d) }));
   // Sums in loops, not arrays of pairs: hundreds of grower seasons at a wide radius.
   const days10 = new WeightedMean();
   const days50 = new WeightedMean();
   const days90 = new WeightedMean();
   const lastSpring = new WeightedMean();
   const firstFall = new WeightedMean();
-  for (const { s, d } of near) {
-    const w = idw(d);
+  for (const { s, w } of near) {
     days10.add(s.days10, w);
     days50.add(s.days50, w);
     days90.add(s.days90, w);
@@ -97,12 +97,12 @@ export function estimateSeason(input: SeasonEstimateInput): SeasonEstimate {
     reportFrostCount,
     nearestStationKm: near.length ? round1(near[0].d) : null,
     method: '',
-    stations: near.map(({ s, d }) => ({
+    stations: near.map(({ s, d, w }) => ({
       id: s.id,
       name: s.name,
       distanceKm: round1(d),
       days50: s.days50,
-      weight: s.days50 === null || days50.totalWeight === 0 ? 0 : Math.round((idw(d) / days50.totalWeight) * 1000) / 1000,
+      weight: s.days50 === null || days50.totalWeight === 0 ? 0 : Math.round((w / days50.totalWeight) * 1000) / 1000,
     })),
   };
   estimate.method = describe(estimate, input.radiusKm);
