@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, RIPENING_CLASSES, SEASON_FIT_VERDICTS } from '../domain/codes';
+import { chanceSchema } from './chance';
 import { numberFromText } from './text-number';
 
 /*
@@ -102,6 +103,8 @@ export const varietyEvidenceSchema = z.object({
   medianFirstRipeDoy: z.number().nullable(),
   medianDaysFrostToRipe: z.number().nullable(),
   seasonFit: seasonFitSchema,
+  /** The calibrated chance of an edible crop (issue 16); absent until the model has been fitted. */
+  chance: chanceSchema.nullable().optional(),
   /** One line in plain words: why this rank. */
   reason: z.string(),
 });
