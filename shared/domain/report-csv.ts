@@ -3,6 +3,7 @@
  * of one text row into a candidate for createReportInputSchema, and the public export rows.
  * Pure: the server imports and exports with it, the client shows the column list and the template.
  */
+import { decimalNumber } from '../schemas/text-number';
 import type { Crop, FigType, GrowingForm, Outcome, PlantOrigin } from './codes';
 
 export interface CsvColumn {
@@ -78,7 +79,7 @@ export function csvRowToCandidate(row: Record<string, string | undefined>, line:
     if (column.name === 'tree' || column.name === 'variety') continue;
     if (value === '') continue;
     if ((NUMBER_COLUMNS as readonly string[]).includes(column.name)) {
-      const number = Number(value);
+      const number = decimalNumber(value);
       if (Number.isFinite(number)) input[column.name] = number;
       else errors.push({ line, column: column.name, message: `“${value}” is not a number` });
     } else if (column.name === 'pinched') {

@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { decimalNumber } from '../schemas/text-number';
 import { CATALOGUE_CSV_COLUMNS, varietyInputSchema, type Variety, type VarietyInput } from '../schemas/varieties';
 
 /** One problem of an import, in words an editor can act on. Row numbers count the header as row 1. */
@@ -60,7 +61,7 @@ export function parseCatalogueCsv(text: string): { ok: true; rows: VarietyInput[
       bearsBreba: bool('bearsBreba'),
       bearsMain: bool('bearsMain'),
       ripeningClass: (record.ripeningClass ?? '').trim() || null,
-      typicalDaysToRipen: days === '' ? null : Number(days),
+      typicalDaysToRipen: days === '' ? null : decimalNumber(days),
       notes: record.notes ?? '',
       sources: record.sources ?? '',
     };

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, OUTCOMES } from '../domain/codes';
 import { latSchema, lonSchema } from './atlas';
-import { numberFromText } from './text-number';
+import { decimalNumber, numberFromText } from './text-number';
 
 /*
  * The atlas map's report pins: GET /api/atlas/pins (clusters and grid cells for a viewport) and
@@ -35,7 +35,7 @@ export type PinFilters = z.infer<typeof pinFiltersSchema>;
 export const bboxSchema = z
   .string({ message: 'bbox is required as west,south,east,north' })
   .transform((value, ctx) => {
-    const parts = value.split(',').map((p) => (p.trim() === '' ? Number.NaN : Number(p)));
+    const parts = value.split(',').map(decimalNumber);
     const [west, south, east, north] = parts;
     const ok =
       parts.length === 4 &&

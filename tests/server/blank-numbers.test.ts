@@ -139,3 +139,26 @@ describe('empty numbers in bodies, form fields and CSV cells', () => {
     expect(station.elevationM).toBeNull();
   });
 });
+
+describe('numbers written other than in plain decimals', () => {
+  it('query strings: 0x10 and 1e3 are refused with the field named, not read as 16 or 1000', async () => {
+    await expectFieldError('/api/atlas/near?lat=0x10&lon=3', 'lat');
+    await expectFieldError('/api/atlas/near?lat=45&lon=3&radiusKm=1e2', 'radiusKm');
+    await expectFieldError('/api/guidance/short-season?seasonDays=0xA0', 'seasonDays');
+    await expectFieldError('/api/atlas/pins?bbox=0x10,-90,180,90&zoom=3', 'bbox');
+  });
+
+  it('bodies and CSV cells: "0x10" is a 400 naming the field or cell', async () => {
+    const grower = await ctx.signedIn('grower');
+    const hex = await grower.post('/api/saved-places').send({ name: 'Hex', lat: '0x10', lon: '3' });
+    expect(hex.status).toBe(400);
+    expect(Object.keys(hex.body.error.fields)).toEqual(['lat']);
+    const header = IMPORT_COLUMNS.map((c) => c.name);
+    const row = (values: Record<string, string>) => header.map((name) => values[name] ?? '').join(',');
+    const base = { variety: 'Blank Test Brown', lat: '44.1', lon: '4.1', form: 'ground', season: '2024', crop: 'main', outcome: 'unripe' };
+    const csv = [header.join(','), row({ ...base, lat: '0x10' }), row({ ...base, season: '2.024e3' })].join('\n');
+    const refused = await grower.post('/api/reports/import').attach('file', Buffer.from(csv), 'hex.csv');
+    expect(refused.status).toBe(400);
+    expect(Object.keys(refused.body.error.fields).sort()).toEqual(['rows.2.lat', 'rows.3.season']);
+  });
+});

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { blankToUndefined, numberFromText } from '../../shared/schemas/text-number';
+import { blankToUndefined, decimalNumber, numberFromText } from '../../shared/schemas/text-number';
 
 describe('numberFromText', () => {
   const schema = z.object({
@@ -30,5 +30,20 @@ describe('numberFromText', () => {
     expect(blankToUndefined(0)).toBe(0);
     expect(blankToUndefined(null)).toBeNull();
     expect(blankToUndefined('')).toBeUndefined();
+  });
+
+  it('accepts plain decimal notation only: 0x10 is refused, never read as 16', () => {
+    // Number('0x10') is 16, Number('1e3') 1000, Number('0b11') 3, Number('Infinity') Infinity (ECMAScript StringToNumber).
+    expect(Number('0x10')).toBe(16);
+    for (const text of ['0x10', '0X1F', '0b11', '0o7', '1e3', '2E-1', 'Infinity', '-Infinity', 'NaN', '1_000', '42,5', '4 2', '+-1', '.', '--1', '١٢']) {
+      expect(decimalNumber(text), text).toBeNaN();
+      const result = schema.safeParse({ lat: text });
+      expect(result.success, text).toBe(false);
+      expect(z.flattenError(result.error!).fieldErrors, text).toEqual({ lat: ['lat must be a number'] });
+    }
+    for (const [text, value] of [['42', 42], [' -73.81 ', -73.81], ['+5', 5], ['.5', 0.5], ['7.', 7], ['007', 7], ['-0', -0]] as const) {
+      expect(decimalNumber(text), text).toBe(value);
+    }
+    expect(schema.parse({ lat: '-0.25', season: '2024' })).toEqual({ lat: -0.25, radiusKm: 100, season: 2024 });
   });
 });
