@@ -22,8 +22,11 @@ export function createUploadsRouter({ db, config }: { db: Db; config: Config }):
       {
         root: photoDir(config.uploadsDir),
         dotfiles: 'deny',
-        // Names never change content, so published photos can be cached long; others stay private.
-        headers: { 'Cache-Control': isPublic ? 'public, max-age=604800, immutable' : 'private, no-store', 'X-Content-Type-Options': 'nosniff' },
+        // A name never changes content, but an editor can hide its report at any time: a cache may keep
+        // a published photo yet must ask again before each use (an ETag answer is a cheap 304 while it
+        // stays published, a 404 once hidden). Never `immutable` or a long max-age: a hidden photo would
+        // go on being served from browsers and shared caches for days. Others' views stay private.
+        headers: { 'Cache-Control': isPublic ? 'public, no-cache' : 'private, no-store', 'X-Content-Type-Options': 'nosniff' },
       },
       (error) => {
         if (error) next((error as NodeJS.ErrnoException).code === 'ENOENT' ? notFound('Photo') : error);

@@ -30,6 +30,18 @@ describe('development mailbox', async () => {
     expect((await ctx.agent().get('/api/dev/mail')).body.messages).toHaveLength(0);
   });
 
+  it('answers only when the Host names this machine (no DNS rebinding)', async () => {
+    for (const host of ['127.0.0.1:3030', 'localhost:3030', 'LOCALHOST', 'syconium.localhost:5173', '[::1]:3030', '127.1.2.3']) {
+      expect((await ctx.agent().get('/api/dev/mail').set('Host', host)).status, host).toBe(200);
+    }
+    // A name an attacker points at 127.0.0.1 reaches the server from loopback with its own Host.
+    for (const host of ['rebind.example.org', 'localhost.example.org', '127.0.0.1.nip.io', '10.0.0.5:3030', 'evil.com:3030']) {
+      const res = await ctx.agent().get('/api/dev/mail').set('Host', host);
+      expect(res.status, host).toBe(404);
+      expect(JSON.stringify(res.body)).not.toContain('@example.com');
+    }
+  });
+
   it('is off (404) in production unless asked for', async () => {
     const production = createTestContext({}, { env: 'production', devMail: readConfig({ NODE_ENV: 'production' }).devMail });
     expect((await production.agent().get('/api/dev/mail')).status).toBe(404);

@@ -271,9 +271,21 @@ describe('photos', () => {
     const png = await sharp({ create: { width: 20, height: 20, channels: 4, background: '#f3d9a4' } }).png().toBuffer();
     const res = await alice.post(`/api/reports/${report.id}/photos`).attach('photos', png, 'a.png');
     const url = res.body.photos[0].url as string;
+    // While public: cacheable, but every use asks again (a cheap 304), never `immutable` or long-lived,
+    // so hiding the report takes effect at once (RFC 9111 section 5.2.2.4 no-cache; RFC 8246 immutable).
+    const published = await ctx.agent().get(url);
+    expect(published.headers['cache-control']).toBe('public, no-cache');
+    expect(published.headers['cache-control']).not.toMatch(/immutable|max-age=[1-9]/);
+    const etag = published.headers.etag as string;
+    expect(etag).toBeTruthy();
+    expect((await ctx.agent().get(url).set('If-None-Match', etag)).status).toBe(304);
     await editor.post(`/api/reports/${report.id}/hide`).send({ reason: 'Not a fig' });
     expect((await ctx.agent().get(url)).status).toBe(404);
-    expect((await alice.get(url)).status).toBe(200);
+    // A cache that revalidates its copy learns it is gone.
+    expect((await ctx.agent().get(url).set('If-None-Match', etag)).status).toBe(404);
+    const own = await alice.get(url);
+    expect(own.status).toBe(200);
+    expect(own.headers['cache-control']).toBe('private, no-store');
     expect((await ctx.agent().get('/uploads/reports/..%2F..%2Ftest.db')).status).toBe(404);
   });
 
