@@ -13,6 +13,7 @@
 // LOAD_PROFILE=dir profiles the server's CPU, and names what ran during each long stall.
 // Bounded: LOAD_SECONDS (default 20) of traffic; a route missing from the server is skipped with a note.
 import autocannon from 'autocannon';
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -157,7 +158,7 @@ const server = await startServerProcess(
     SYCONIUM_UPLOADS: path.join(dir, 'uploads'),
     SYCONIUM_DEV_MAIL: 'false',
     SMTP_HOST: '',
-    SESSION_SECRET: 'load-test-secret',
+    SESSION_SECRET: randomBytes(32).toString('hex'),
     SYCONIUM_LOOP_STATS: '1', // server/lib/loop-stats.ts: printed at shutdown
   },
   // At shutdown the server prints its loop figures and writes its profile: give it time.

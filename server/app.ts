@@ -46,6 +46,8 @@ export interface AppDeps {
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
 export function createApp(deps: AppDeps): Express {
   const { db, config } = deps;
+  // server/index.ts settles the secret first (withSessionSecret); never sign cookies with a default.
+  if (!config.sessionSecret) throw new Error('createApp needs config.sessionSecret (see server/lib/session-secret.ts)');
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

@@ -6,10 +6,18 @@ import { startMail } from './email';
 import { appJobs } from './jobs/app-jobs';
 import { createScheduler } from './jobs/scheduler';
 import { readConfig } from './lib/config';
+import { SessionSecretError, withSessionSecret } from './lib/session-secret';
 import { startLoopStats } from './lib/loop-stats';
 import { seedDatabase } from './seed';
 
-const config = readConfig();
+let config: ReturnType<typeof withSessionSecret>;
+try {
+  config = withSessionSecret(readConfig());
+} catch (error) {
+  if (!(error instanceof SessionSecretError)) throw error;
+  console.error(`Syconium cannot start: ${error.message}`);
+  process.exit(1);
+}
 
 // Migrations and the demo run once, before any instance serves.
 if (cluster.isPrimary) {

@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import path from 'node:path';
 
 /** Everything the server reads from its environment, in one place. */
@@ -11,7 +12,11 @@ export interface Config {
   uploadsDir: string;
   tilesDir: string;
   clientDir: string;
-  sessionSecret: string;
+  /**
+   * Signs session cookies: SESSION_SECRET, or (tests) a random one. Unset otherwise until
+   * withSessionSecret (server/lib/session-secret.ts) requires it in production or makes a local one.
+   */
+  sessionSecret?: string;
   seedDemo: boolean;
   adminEmail?: string;
   adminPassword?: string;
@@ -37,7 +42,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     uploadsDir: env.SYCONIUM_UPLOADS ?? 'data/uploads',
     tilesDir: env.SYCONIUM_TILES ?? path.resolve('tiles'),
     clientDir: path.resolve('dist'),
-    sessionSecret: env.SESSION_SECRET ?? 'syconium-development-secret-change-me',
+    sessionSecret: env.SESSION_SECRET || (mode === 'test' ? randomBytes(32).toString('hex') : undefined),
     seedDemo: env.SYCONIUM_SEED_DEMO !== 'false',
     adminEmail: env.SYCONIUM_ADMIN_EMAIL,
     adminPassword: env.SYCONIUM_ADMIN_PASSWORD,

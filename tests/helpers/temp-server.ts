@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -18,7 +19,8 @@ export interface TempServer {
 /** Start the production server on its own files; `name` names the folder and the database file. */
 export async function startTempServer(name: string, env: Record<string, string> = {}): Promise<TempServer> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), `syconium-${name}-`));
-  const settings = { SYCONIUM_DB: path.join(dir, `${name}.db`), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), ...env };
+  // The production server refuses to start without its own session secret; one per temporary server, kept across restarts.
+  const settings = { SYCONIUM_DB: path.join(dir, `${name}.db`), SYCONIUM_UPLOADS: path.join(dir, 'uploads'), SESSION_SECRET: randomBytes(32).toString('hex'), ...env };
   const removeDir = () => fs.rmSync(dir, { recursive: true, force: true });
   let process: ServerProcess;
   try {

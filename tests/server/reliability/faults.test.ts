@@ -22,7 +22,7 @@ const server = () => temp!.process;
 const dbFile = () => temp!.env.SYCONIUM_DB!;
 
 beforeAll(async () => {
-  temp = await startTempServer('faults', { SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'fault-test-secret' });
+  temp = await startTempServer('faults', { SYCONIUM_DEV_MAIL: 'false' });
 }, 180_000);
 afterAll(async () => {
   await temp?.remove();

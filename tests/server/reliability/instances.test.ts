@@ -14,7 +14,7 @@ let temp: TempServer | undefined;
 const server = () => temp!.process;
 
 beforeAll(async () => {
-  temp = await startTempServer('instances', { SYCONIUM_INSTANCES: '2', SYCONIUM_DEV_MAIL: 'false', SESSION_SECRET: 'instances-test-secret' });
+  temp = await startTempServer('instances', { SYCONIUM_INSTANCES: '2', SYCONIUM_DEV_MAIL: 'false' });
 }, 180_000);
 afterAll(async () => {
   await temp?.remove();
