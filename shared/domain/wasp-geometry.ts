@@ -1,10 +1,15 @@
-import { area, kinks, polygon as turfPolygon } from '@turf/turf';
+import { area } from '@turf/turf';
+import { pointInRing, ringCrossings } from './ring-crossings';
 import type { WaspAreaGeometry } from '../schemas/wasp-areas';
 
 /** Limits on one wasp area: enough for a county-sized outline, small enough to draw quickly. */
 export const WASP_AREA_LIMITS = {
   /** Positions over all rings. */
   maxVertices: 5000,
+  /** Rings over all polygons (outer rings and holes). */
+  maxRings: 500,
+  /** Problems listed in one answer; the rest are counted. */
+  maxProblems: 20,
   /** Square kilometres (about the size of a large US state; larger records are probably mistakes). */
   maxAreaKm2: 500_000,
 } as const;
@@ -34,11 +39,28 @@ function samePosition(a: number[], b: number[]): boolean {
   return a[0] === b[0] && a[1] === b[1];
 }
 
+/** Count rings and positions without looking inside them: the cheap limits come before any geometry work. */
+function countShape(polygons: unknown[]): { rings: number; vertices: number } {
+  let rings = 0;
+  let vertices = 0;
+  for (const poly of polygons) {
+    if (!Array.isArray(poly)) continue;
+    rings += poly.length;
+    for (const ring of poly) if (Array.isArray(ring)) vertices += ring.length;
+  }
+  return { rings, vertices };
+}
+
 /**
  * Check a GeoJSON area drawn on the map or uploaded by an editor (RFC 7946 rules for polygons):
  * every ring has at least 4 positions and is closed, coordinates are numbers with longitude in
- * [-180, 180] and latitude in [-90, 90], no ring crosses itself, and the area stays within
- * WASP_AREA_LIMITS. Every problem found is named, with the polygon and ring it concerns.
+ * [-180, 180] and latitude in [-90, 90], no ring crosses itself or another ring of its polygon,
+ * every hole lies inside its outer ring, and the area stays within WASP_AREA_LIMITS. Every problem
+ * found is named, with the polygon and ring it concerns.
+ *
+ * Cost: the vertex and ring counts are checked first, by counting array lengths, so an oversized
+ * outline is refused before any position is read; crossings are found through an R-tree of the
+ * segments (ring-crossings.ts), about n log n for n vertices, never all pairs.
  */
 export function validateWaspGeometry(input: unknown): WaspGeometryResult {
   const { geometry, problem } = unwrap(input);
@@ -47,8 +69,17 @@ export function validateWaspGeometry(input: unknown): WaspGeometryResult {
   if (!Array.isArray(raw) || raw.length === 0) return { ok: false, problems: [`The ${String(geometry.type)} has no coordinates`] };
   const polygons: unknown[] = geometry.type === 'Polygon' ? [raw] : raw;
   const multi = geometry.type === 'MultiPolygon';
+
+  const size = countShape(polygons);
+  if (size.vertices > WASP_AREA_LIMITS.maxVertices) {
+    return { ok: false, problems: [`The area has ${size.vertices} vertices; the limit is ${WASP_AREA_LIMITS.maxVertices}. Simplify the outline first.`] };
+  }
+  if (size.rings > WASP_AREA_LIMITS.maxRings) {
+    return { ok: false, problems: [`The area has ${size.rings} rings (outlines and holes); the limit is ${WASP_AREA_LIMITS.maxRings}. Simplify the outline first.`] };
+  }
+
   const problems: string[] = [];
-  let vertexCount = 0;
+  const vertexCount = size.vertices;
   const clean: number[][][][] = [];
 
   polygons.forEach((poly, p) => {
@@ -58,13 +89,15 @@ export function validateWaspGeometry(input: unknown): WaspGeometryResult {
       return;
     }
     const rings: number[][][] = [];
+    const ringNames: string[] = [];
+    let ringProblem = false;
     poly.forEach((ring, r) => {
       const ringName = `${r === 0 ? 'outer ring' : `hole ${r}`} of ${polyName}`;
       if (!Array.isArray(ring)) {
         problems.push(`The ${ringName} is not a list of positions`);
+        ringProblem = true;
         return;
       }
-      vertexCount += ring.length;
       const positions: number[][] = [];
       let badCoordinate = false;
       ring.forEach((position, i) => {
@@ -84,24 +117,42 @@ export function validateWaspGeometry(input: unknown): WaspGeometryResult {
         }
         positions.push([lon!, lat!]);
       });
-      if (badCoordinate) return;
+      if (badCoordinate) return void (ringProblem = true);
       if (positions.length < 4) {
         problems.push(`The ${ringName} has ${positions.length} positions; a ring needs at least 4 (3 corners and the first one again)`);
-        return;
+        return void (ringProblem = true);
       }
       if (!samePosition(positions[0]!, positions[positions.length - 1]!)) {
         problems.push(`The ${ringName} is not closed: its last position must repeat its first`);
-        return;
+        return void (ringProblem = true);
       }
-      const crossings = kinks(turfPolygon([positions])).features.length;
-      if (crossings > 0) problems.push(`The ${ringName} crosses itself (${crossings} crossing${crossings === 1 ? '' : 's'})`);
+      if (new Set(positions.map(([x, y]) => `${x},${y}`)).size < 3) {
+        problems.push(`The ${ringName} has fewer than 3 different corners`);
+        return void (ringProblem = true);
+      }
       rings.push(positions);
+      ringNames.push(ringName);
     });
     clean.push(rings);
+    if (ringProblem) return;
+
+    const crossings = ringCrossings(rings);
+    crossings.self.forEach((count, r) => {
+      if (count > 0) problems.push(`The ${ringNames[r]} crosses itself (${count} crossing${count === 1 ? '' : 's'})`);
+    });
+    for (const [r, t, count] of crossings.between) {
+      problems.push(`The ${ringNames[t]} crosses or touches the ${ringNames[r]} (${count} place${count === 1 ? '' : 's'})`);
+    }
+    if (crossings.self.some((c) => c > 0) || crossings.between.length) return;
+    // With no crossings, a hole is inside its outer ring exactly when any one of its corners is.
+    rings.slice(1).forEach((hole, h) => {
+      if (!pointInRing(hole[0]!, rings[0]!)) problems.push(`The ${ringNames[h + 1]} lies outside its outer ring; a hole must be inside the area`);
+    });
   });
 
-  if (vertexCount > WASP_AREA_LIMITS.maxVertices) {
-    problems.push(`The area has ${vertexCount} vertices; the limit is ${WASP_AREA_LIMITS.maxVertices}. Simplify the outline first.`);
+  if (problems.length > WASP_AREA_LIMITS.maxProblems) {
+    const more = problems.length - WASP_AREA_LIMITS.maxProblems;
+    problems.splice(WASP_AREA_LIMITS.maxProblems, more, `…and ${more} more problem${more === 1 ? '' : 's'}`);
   }
   if (problems.length) return { ok: false, problems };
 
