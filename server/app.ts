@@ -20,7 +20,7 @@ import { createCatalogueRouter } from './varieties/catalogue.router';
 import { createModerationRouter } from './moderation/moderation.router';
 import { createAuditRouter } from './audit/audit.router';
 import { createWaspAreasRouter } from './wasp-areas/wasp-areas.router';
-import { createReportsRouter } from './reports/reports.router';
+import { createReportsRouter, type ReportsRouterDeps } from './reports/reports.router';
 import { createUploadsRouter } from './photos/uploads.router';
 import { createSavedPlacesRouter } from './saved-places/saved-places.router';
 import { createGuidanceRouter } from './guidance/guidance.router';
@@ -30,6 +30,7 @@ import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
 import { csrfGuard } from './middleware/csrf';
+import { jsonOrMultipartOnly } from './middleware/json-only';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
@@ -41,6 +42,7 @@ export interface AppDeps {
   /** Outgoing mail (server/email/index.ts starts it); without one, mail follows the SMTP settings. */
   mailer?: Mailer;
   forgotLimit?: PasswordResetDeps['forgotLimit'];
+  photoUploadLimit?: ReportsRouterDeps['photoUploadLimit'];
 }
 
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
@@ -89,7 +91,7 @@ export function createApp(deps: AppDeps): Express {
   );
 
   const api = express.Router();
-  api.use(csrfGuard);
+  api.use(csrfGuard, jsonOrMultipartOnly);
   api.get('/health', (_req, res) => {
     res.json({ ok: true });
   });
@@ -105,7 +107,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/varieties', createVarietiesRouter({ db }));
   api.use('/wasp-areas', createWaspAreasRouter({ db }));
   api.use('/stations', createStationsRouter({ db }));
-  api.use('/reports', createReportsRouter({ db, config }));
+  api.use('/reports', createReportsRouter({ db, config, photoUploadLimit: deps.photoUploadLimit }));
   api.use('/saved-places', createSavedPlacesRouter({ db }));
   api.use('/guidance', createGuidanceRouter({ db }));
   api.use('/atlas/pins', createPinsRouter({ db }));

@@ -1,4 +1,4 @@
-import { Router, type RequestHandler } from 'express';
+import { Router, type RequestHandler, type Response } from 'express';
 import multer from 'multer';
 import Papa from 'papaparse';
 import { and, eq } from 'drizzle-orm';
@@ -36,7 +36,8 @@ import { reportFlags } from '../db/schema';
 import type { Config } from '../lib/config';
 import { HttpError, notFound } from '../lib/http-error';
 import { requireRole, requireSignedIn } from '../middleware/require-role';
-import { processPhoto, removePhotoFiles, storePhoto, type ProcessedPhoto } from '../photos/photos';
+import { PHOTO_UPLOAD_LIMIT, processPhoto, removePhotoFiles, storePhoto, type ProcessedPhoto } from '../photos/photos';
+import { retryAfterSeconds, takeAllowance, type AllowanceLimit } from '../lib/allowance';
 import { publishDraft } from './publish';
 import {
   canView,
@@ -96,8 +97,26 @@ const refuseLargerThan =
   };
 
 /** Harvest reports: posting, editing, photos, moderation, CSV import and public exports. */
-export function createReportsRouter({ db, config }: { db: Db; config: Config }): Router {
+export interface ReportsRouterDeps {
+  db: Db;
+  config: Config;
+  /** Photos one account may send per window (default PHOTO_UPLOAD_LIMIT: 60 an hour). */
+  photoUploadLimit?: AllowanceLimit;
+}
+
+export function createReportsRouter({ db, config, photoUploadLimit = PHOTO_UPLOAD_LIMIT }: ReportsRouterDeps): Router {
   const router = Router();
+  /** Take `count` photos from the account's hourly allowance (0: only check it is not used up), else 429 with Retry-After. */
+  const photoAllowance = (res: Response, userId: number, count: number) => {
+    const taken = takeAllowance(db, `photo-upload:${userId}`, count, photoUploadLimit);
+    if (taken.ok) return;
+    const wait = retryAfterSeconds(taken.resetAt);
+    res.set('Retry-After', String(wait));
+    const left = Math.max(0, photoUploadLimit.limit - taken.used);
+    throw new HttpError(429, 'rate_limited', `An account may send ${photoUploadLimit.limit} photos an hour; try again in ${Math.ceil(wait / 60)} minutes`, {
+      photos: [left > 0 ? `Only ${left} more photo${left === 1 ? '' : 's'} this hour` : `No more photos this hour; try again in ${Math.ceil(wait / 60)} minutes`],
+    });
+  };
   const photoUpload = runMulter(
     multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: PHOTOS_PER_REPORT, fields: 10 } }).array('photos', PHOTOS_PER_REPORT),
     'photos',
@@ -285,10 +304,11 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
     '/:id/photos',
     requireSignedIn,
     refuseLargerThan(PHOTOS_PER_REPORT * PHOTO_MAX_BYTES + 64 * 1024, 'photos'),
-    (req, _res, next) => {
-      // Check the author and the room left before reading any upload.
+    (req, res, next) => {
+      // Check the author, the hourly allowance and the room left before reading any upload.
       const { id } = idParamsSchema.parse(req.params);
       ownReport(id, req.user!);
+      photoAllowance(res, req.user!.id, 0);
       if (photoCount(db, id) >= PHOTOS_PER_REPORT) throw new HttpError(400, 'too_many_photos', `A report keeps at most ${PHOTOS_PER_REPORT} photos`, { photos: [`This report already has ${PHOTOS_PER_REPORT} photos; delete one first`] });
       next();
     },
@@ -298,6 +318,8 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
       const user = req.user!;
       const files = (req.files as Express.Multer.File[] | undefined) ?? [];
       if (files.length === 0) throw new HttpError(400, 'no_photo', 'Choose at least one photo', { photos: ['Choose at least one photo (JPEG, PNG or WebP)'] });
+      // Every file counts before it is decoded, readable or not: decoding is what the allowance limits.
+      photoAllowance(res, user.id, files.length);
       const processed: ProcessedPhoto[] = [];
       for (const file of files) processed.push(await processPhoto(file.buffer));
       const stored: { fileName: string; thumbName: string }[] = [];

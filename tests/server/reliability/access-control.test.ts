@@ -158,7 +158,7 @@ const CASES: Case[] = [
   { route: 'GET /tiles/*', expected: everyone(204), note: 'a tile with no data is an empty 204', call: () => get('/tiles/base/6/0/0.pbf') },
 ];
 
-const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, perAccount: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 } });
+const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, perAccount: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 }, photoUploadLimit: { windowMs: 60_000, limit: 10_000 } });
 let world: World;
 /** Every response body each role received, to search for leaks afterwards. */
 const seen: Record<Role, string[]> = { visitor: [], owner: [], other: [], editor: [], admin: [] };

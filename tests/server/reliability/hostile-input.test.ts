@@ -19,7 +19,11 @@ import { dataFingerprint, listRoutes, validReportBody } from './helpers';
 
 const RUNS = Number(process.env.HOSTILE_RUNS ?? 20);
 const ctx = createTestContext(
-  { signInLimit: { windowMs: 60_000, perAddress: 100_000, perAccount: 100_000 }, forgotLimit: { windowMs: 60_000, perAddress: 100_000, perEmail: 100_000 } },
+  {
+    signInLimit: { windowMs: 60_000, perAddress: 100_000, perAccount: 100_000 },
+    forgotLimit: { windowMs: 60_000, perAddress: 100_000, perEmail: 100_000 },
+    photoUploadLimit: { windowMs: 60_000, limit: 100_000 },
+  },
   { devMail: false },
 );
 let world: World;
@@ -175,6 +179,52 @@ describe('random and malformed JSON bodies on every JSON write route', () => {
       );
     }, 120_000);
   }
+});
+
+describe('bodies that are not JSON', () => {
+  /** A real id for each parameter, so the request reaches the route's own code, not a 404. */
+  const fill = (template: string) =>
+    template.replace(/:(\w+)/g, (_m, name: string) => {
+      if (name === 'photoId') return '1';
+      if (template.startsWith('/api/reports')) return String(ids.report);
+      if (template.startsWith('/api/saved-places')) return String(ids.place);
+      if (template.startsWith('/api/wasp-areas')) return String(ids.waspArea);
+      if (template.startsWith('/api/users')) return String(ids.user);
+      if (template.startsWith('/api/varieties')) return String(ids.proposed);
+      return '1';
+    });
+  const roleFor = (path: string): Role => (path.startsWith('/api/reports') && !/hide|restore/.test(path)) || path.startsWith('/api/saved-places') || path.startsWith('/api/email') ? 'owner' : 'admin';
+  const BODIES = [
+    { type: 'text/plain', body: '{"name":"Plain text that looks like JSON","lat":45,"lon":3}' },
+    { type: 'text/plain', body: 'hello' },
+    { type: 'application/x-www-form-urlencoded', body: 'email=a%40example.com&password=correct+horse+battery&name=x&lat=45&lon=3&reason=spam' },
+    { type: 'application/x-www-form-urlencoded', body: 'a[b][c]=1&__proto__[role]=admin' },
+  ];
+
+  it('every write route (read from the router) answers 415 naming JSON, never 500, and changes nothing', async () => {
+    const writes = listRoutes(ctx.app).filter((route) => !route.startsWith('GET ') && route.includes('/api/'));
+    expect(writes.length).toBeGreaterThan(30);
+    for (const route of writes) {
+      const [method, template] = route.split(' ') as [string, string];
+      const path = fill(template);
+      for (const { type, body } of BODIES) {
+        const what = `${route} with ${type}: ${body.slice(0, 30)}`;
+        const res = await checkRefusedOrFine(() => agentFor(roleFor(path))[method.toLowerCase() as 'post'](path).set('Content-Type', type).send(body), what);
+        expect(res.status, `${what}: ${res.text}`).toBe(415);
+        expect(res.body.error.code, what).toBe('unsupported_media_type');
+        expect(res.body.error.message, what).toMatch(/application\/json/);
+      }
+    }
+  }, 120_000);
+
+  it('a body with no Content-Type at all is refused the same way; an empty one is no body', async () => {
+    const res = await agentFor('owner').post('/api/saved-places').set('Content-Type', '').send(Buffer.from('{"name":"x","lat":1,"lon":2}'));
+    expect(res.status).toBe(415);
+    // No body: the route itself answers (here: a 400 naming the missing fields).
+    const empty = await agentFor('owner').post('/api/saved-places').set('Content-Type', 'text/plain');
+    expect(empty.status).toBe(400);
+    expect(empty.body.error.code).toBe('invalid_input');
+  });
 });
 
 describe('random path parameters', () => {
