@@ -39,6 +39,7 @@ export interface AppDeps {
   db: Db;
   config: Config;
   signInLimit?: AuthRouterDeps['signInLimit'];
+  signUpLimit?: AuthRouterDeps['signUpLimit'];
   /** Outgoing mail (server/email/index.ts starts it); without one, mail follows the SMTP settings. */
   mailer?: Mailer;
   forgotLimit?: PasswordResetDeps['forgotLimit'];
@@ -97,7 +98,7 @@ export function createApp(deps: AppDeps): Express {
   });
   const mail = { db, mailer: deps.mailer ?? createMailer(config), appUrl: config.appUrl };
   const onSignedUp = async (user: Express.User) => void (await sendVerificationEmail(mail, user));
-  api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, onSignedUp }));
+  api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, signUpLimit: deps.signUpLimit, onSignedUp, mail }));
   api.use('/auth', createVerificationRouter(mail), createPasswordResetRouter({ ...mail, forgotLimit: deps.forgotLimit }));
   api.use('/email', createDigestRouter({ db }));
   if (config.devMail) api.use('/dev/mail', createDevMailRouter({ db }));

@@ -18,6 +18,22 @@ export function verifyEmailMessage(input: { displayName: string; url: string; ex
   });
 }
 
+/** To the owner of an address someone tried to join with: sign-up answers the same either way, so the owner hears it here. */
+export function signUpAttemptMessage(input: { displayName: string; signInUrl: string; forgotUrl: string }): RenderedEmail {
+  return renderEmail({
+    subject: 'Someone tried to join Syconium with your address',
+    heading: 'You already have an account',
+    blocks: [
+      { kind: 'p', text: `Hello ${input.displayName}, someone (perhaps you) just tried to create a new Syconium account with this address. It already has an account, so nothing was created and nothing changed.` },
+      { kind: 'button', label: 'Sign in', url: input.signInUrl },
+      { kind: 'p', text: 'Forgotten your password? Ask for a link to choose a new one:' },
+      { kind: 'link', label: 'Choose a new password', url: input.forgotUrl },
+      SIGN_OFF,
+    ],
+    footer: [{ kind: 'p', text: 'If it was not you, you can ignore this message: your account and password are as they were.' }],
+  });
+}
+
 export function resetPasswordMessage(input: { displayName: string; url: string; expiresMinutes: number }): RenderedEmail {
   return renderEmail({
     subject: 'Choose a new Syconium password',

@@ -3,14 +3,17 @@ import { createTestContext, TEST_PASSWORD } from '../helpers/test-app';
 import { users } from '../../server/db/schema';
 
 describe('accounts', () => {
-  it('signs up, says who I am, signs out', async () => {
+  it('signs up (no session yet), signs in with the same details, says who I am, signs out', async () => {
     const { agent } = createTestContext();
     const a = agent();
     const signUp = await a.post('/api/auth/sign-up').send({ email: 'Ada@Example.com', displayName: 'Ada', password: 'a long enough password' });
-    expect(signUp.status).toBe(201);
-    expect(signUp.body.user).toMatchObject({ email: 'ada@example.com', role: 'grower', emailVerified: false });
-    expect(signUp.headers['set-cookie']?.[0]).toMatch(/HttpOnly/i);
-    expect(signUp.headers['set-cookie']?.[0]).toMatch(/SameSite=Lax/i);
+    expect(signUp.status).toBe(202);
+    expect(signUp.headers['set-cookie']).toBeUndefined();
+    expect((await a.get('/api/auth/me')).body.user).toBeNull();
+    const signIn = await a.post('/api/auth/sign-in').send({ email: 'ada@example.com', password: 'a long enough password' });
+    expect(signIn.body.user).toMatchObject({ email: 'ada@example.com', role: 'grower', emailVerified: false });
+    expect(signIn.headers['set-cookie']?.[0]).toMatch(/HttpOnly/i);
+    expect(signIn.headers['set-cookie']?.[0]).toMatch(/SameSite=Lax/i);
 
     expect((await a.get('/api/auth/me')).body.user.displayName).toBe('Ada');
     expect((await a.post('/api/auth/sign-out')).status).toBe(204);
@@ -25,14 +28,15 @@ describe('accounts', () => {
     expect(row.passwordHash).not.toContain('another long password');
   });
 
-  it('rejects a duplicate e-mail, naming the field', async () => {
+  it('a taken address gets the same answer as a new one, and creates nothing', async () => {
     const { agent, db } = createTestContext();
     const body = { email: 'c@example.com', displayName: 'Cy', password: 'a long enough password' };
-    await agent().post('/api/auth/sign-up').send(body);
-    const again = await agent().post('/api/auth/sign-up').send({ ...body, email: 'C@EXAMPLE.COM' });
-    expect(again.status).toBe(409);
-    expect(again.body.error.fields.email).toBeDefined();
+    const first = await agent().post('/api/auth/sign-up').send(body);
+    const again = await agent().post('/api/auth/sign-up').send({ ...body, displayName: 'Someone else', email: 'C@EXAMPLE.COM' });
+    expect(again.status).toBe(first.status);
+    expect(again.body).toEqual(first.body);
     expect(db.select().from(users).all()).toHaveLength(1);
+    expect(db.select().from(users).get()!.displayName).toBe('Cy');
   });
 
   it('gives the same answer for a wrong password and an unknown e-mail', async () => {
@@ -65,14 +69,6 @@ describe('accounts', () => {
     expect(res.body.user).toBeNull();
   });
 
-  it('throttles repeated sign-in attempts for one account', async () => {
-    const { agent, signedIn } = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 100, perAccount: 3 } });
-    await signedIn('grower', 'fay@example.com'); // uses one attempt
-    const a = agent();
-    const statuses = [];
-    for (let i = 0; i < 4; i++) statuses.push((await a.post('/api/auth/sign-in').send({ email: 'fay@example.com', password: 'wrong password!' })).status);
-    expect(statuses).toEqual([401, 401, 429, 429]);
-  });
 });
 
 describe('validation and errors', () => {

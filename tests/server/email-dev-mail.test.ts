@@ -3,7 +3,7 @@ import { createTestContext, createTestDb } from '../helpers/test-app';
 import { readConfig } from '../../server/lib/config';
 import { renderEmail } from '../../server/email/layout';
 import { compassWord, describePlace, initialBearingDeg } from '../../server/email/digest-wording';
-import { createMailTestContext } from './email-helpers';
+import { createMailTestContext, join } from './email-helpers';
 import { startDevMailServer } from '../../server/email/dev-mail-server';
 import { listDevMail } from '../../server/email/dev-mail.repo';
 import { createMailer } from '../../server/email/mailer';
@@ -12,7 +12,7 @@ describe('development mailbox', async () => {
   const ctx = await createMailTestContext();
 
   it('lists and shows every message the local server received, with both parts', async () => {
-    await ctx.agent().post('/api/auth/sign-up').send({ email: 'box@example.com', displayName: 'Box <b>', password: 'a long enough password' });
+    await join(ctx, ctx.agent(), { email: 'box@example.com', displayName: 'Box <b>', password: 'a long enough password' });
     const list = await ctx.agent().get('/api/dev/mail');
     expect(list.status).toBe(200);
     expect(list.body.messages).toHaveLength(1);

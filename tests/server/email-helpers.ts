@@ -1,6 +1,6 @@
-import { afterAll } from 'vitest';
+import { afterAll, expect } from 'vitest';
 import { asc, eq } from 'drizzle-orm';
-import { createTestContext, type TestContext } from '../helpers/test-app';
+import { createTestContext, signUpAndIn, type TestAgent, type TestContext } from '../helpers/test-app';
 import { devMailMessages } from '../../server/db/schema';
 import { startDevMailServer } from '../../server/email/dev-mail-server';
 import { createMailer, type Mailer } from '../../server/email/mailer';
@@ -46,4 +46,15 @@ export function linkToken(text: string | null, path: string): string {
   const match = new RegExp(`${path.replace(/[/?]/g, '\\$&')}\\?token=([A-Za-z0-9_-]+)`).exec(text ?? '');
   if (!match) throw new Error(`no ${path} link in:\n${text}`);
   return match[1]!;
+}
+
+/**
+ * Join as the client does (sign-up, then sign-in with the same details; tests/helpers/test-app.ts)
+ * and wait for the confirmation message, which is sent after the answer.
+ */
+export async function join(ctx: MailTestContext, agent: TestAgent, body: { email: string; displayName: string; password: string }) {
+  const before = ctx.inbox(body.email.toLowerCase()).length;
+  const signIn = await signUpAndIn(agent, body);
+  await expect.poll(() => ctx.inbox(body.email.toLowerCase()).length, { timeout: 10_000 }).toBeGreaterThan(before);
+  return signIn;
 }

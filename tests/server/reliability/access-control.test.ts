@@ -50,7 +50,7 @@ const cell = () => `lat=${snapToGrid(EXACT_LAT)}&lon=${snapToGrid(EXACT_LON)}`;
 const CASES: Case[] = [
   { route: 'GET /api/health', expected: everyone(200), call: () => get('/api/health') },
   { route: 'GET /api/auth/me', expected: everyone(200), call: () => get('/api/auth/me') },
-  { route: 'POST /api/auth/sign-up', fresh: true, expected: everyone(201), call: () => ({ method: 'post', path: '/api/auth/sign-up', body: { email: `${uniqueName('new').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: 'New grower' } }) },
+  { route: 'POST /api/auth/sign-up', fresh: true, expected: everyone(202), call: () => ({ method: 'post', path: '/api/auth/sign-up', body: { email: `${uniqueName('new').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: 'New grower' } }) },
   { route: 'POST /api/auth/sign-in', fresh: true, expected: everyone(200), call: (w) => ({ method: 'post', path: '/api/auth/sign-in', body: { email: w.emails.signInTarget, password: TEST_PASSWORD } }) },
   { route: 'POST /api/auth/sign-out', fresh: true, expected: everyone(204), call: () => ({ method: 'post', path: '/api/auth/sign-out' }) },
   { route: 'POST /api/auth/verify', expected: everyone(400), note: 'public: the link may be opened signed out', call: () => ({ method: 'post', path: '/api/auth/verify', body: { token: 'x'.repeat(40) } }) },
@@ -158,7 +158,7 @@ const CASES: Case[] = [
   { route: 'GET /tiles/*', expected: everyone(204), note: 'a tile with no data is an empty 204', call: () => get('/tiles/base/6/0/0.pbf') },
 ];
 
-const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, perAccount: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 }, photoUploadLimit: { windowMs: 60_000, limit: 10_000 } });
+const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, freeFailures: 10_000 }, signUpLimit: { windowMs: 60_000, perAddress: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 }, photoUploadLimit: { windowMs: 60_000, limit: 10_000 } });
 let world: World;
 /** Every response body each role received, to search for leaks afterwards. */
 const seen: Record<Role, string[]> = { visitor: [], owner: [], other: [], editor: [], admin: [] };

@@ -7,7 +7,7 @@ import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
 import { PHOTO_NAME_PATTERN } from '../../../server/photos/photos';
-import { createTestContext, TEST_PASSWORD, testConfig, type TestAgent } from '../../helpers/test-app';
+import { createTestContext, signUpAndIn, TEST_PASSWORD, testConfig, type TestAgent } from '../../helpers/test-app';
 import { createWorld, stationCsv, uniqueName, varietyBody, waspAreaBody, type Role, type World } from './fixtures';
 import { dataFingerprint, listRoutes, validReportBody } from './helpers';
 
@@ -20,7 +20,8 @@ import { dataFingerprint, listRoutes, validReportBody } from './helpers';
 const RUNS = Number(process.env.HOSTILE_RUNS ?? 20);
 const ctx = createTestContext(
   {
-    signInLimit: { windowMs: 60_000, perAddress: 100_000, perAccount: 100_000 },
+    signInLimit: { windowMs: 60_000, perAddress: 100_000, freeFailures: 100_000 },
+    signUpLimit: { windowMs: 60_000, perAddress: 100_000 },
     forgotLimit: { windowMs: 60_000, perAddress: 100_000, perEmail: 100_000 },
     photoUploadLimit: { windowMs: 60_000, limit: 100_000 },
   },
@@ -570,8 +571,8 @@ describe('injection strings in free text are stored verbatim and returned as dat
       expect(station.status, station.text).toBe(201);
       expect(station.text).toContain(JSON.stringify(payload).slice(1, -1));
 
-      const signUp = await ctx.agent().post('/api/auth/sign-up').send({ email: `${uniqueName('inj').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: payload.slice(0, 60) });
-      expect(signUp.status, signUp.text).toBe(201);
+      const signUp = await signUpAndIn(ctx.agent(), { email: `${uniqueName('inj').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: payload.slice(0, 60) });
+      expect(signUp.status, signUp.text).toBe(200);
       expect(signUp.body.user.displayName).toBe(payload.slice(0, 60));
     }
     for (const table of ['reports', 'users', 'varieties', 'saved_places', 'wasp_areas', 'stations']) {
