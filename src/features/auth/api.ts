@@ -2,7 +2,8 @@ import { hashKey, queryOptions, useMutation, useQuery, useQueryClient, type Quer
 import { z } from 'zod';
 import { meResponseSchema, type CurrentUser, type SignInInput, type SignUpInput } from '@shared/schemas/auth';
 import type { Role } from '@shared/domain/codes';
-import { apiFetch } from '../../lib/api-client';
+import { messageResponseSchema } from '@shared/schemas/email';
+import { ApiError, apiFetch } from '../../lib/api-client';
 
 const userResponseSchema = meResponseSchema.required();
 
@@ -54,7 +55,28 @@ function useAuthMutation<TInput>(path: string) {
 }
 
 export const useSignIn = () => useAuthMutation<SignInInput>('/api/auth/sign-in');
-export const useSignUp = () => useAuthMutation<SignUpInput>('/api/auth/sign-up');
+/**
+ * Join: the server answers every sign-up the same way (it never tells whether the address already has
+ * an account) and starts no session. Then sign in with the same details: that works for a new account
+ * (unconfirmed, it can save drafts) and fails for a taken address unless this is its owner's password.
+ * `user` null: show the sign-up answer (the owner of a taken address was mailed).
+ */
+export function useSignUp() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async (input: SignUpInput): Promise<{ user: CurrentUser | null; message: string }> => {
+      const { message } = await apiFetch('/api/auth/sign-up', messageResponseSchema, { method: 'POST', json: input });
+      try {
+        const { user } = await apiFetch('/api/auth/sign-in', userResponseSchema, { method: 'POST', json: { email: input.email, password: input.password } });
+        return { user, message };
+      } catch (error) {
+        if (error instanceof ApiError && (error.status === 401 || error.status === 429)) return { user: null, message };
+        throw error;
+      }
+    },
+    onSuccess: ({ user }) => (user ? showCurrentUser(queryClient, user) : undefined),
+  });
+}
 
 export function useSignOut() {
   const queryClient = useQueryClient();

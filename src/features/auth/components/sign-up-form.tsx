@@ -1,4 +1,5 @@
 import { useForm } from 'react-hook-form';
+import { Link } from 'react-router';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signUpInputSchema, type SignUpInput } from '@shared/schemas/auth';
 import { Button } from '../../../components/button';
@@ -12,8 +13,28 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
   const { errors } = form.formState;
   const serverFields = signUp.error instanceof ApiError ? signUp.error.fields : {};
 
+  // Not signed in after joining: the address may already have an account. Say only what was sent.
+  if (signUp.data && !signUp.data.user) {
+    return (
+      <div role="status" className="rounded-md border border-fig-200 bg-fig-50 px-4 py-3 text-sm text-ink">
+        <p className="font-medium">Check your mailbox</p>
+        <p className="mt-1">{signUp.data.message}</p>
+        <p className="mt-2">
+          <Link className="font-medium text-fig-600 underline" to="/sign-in">
+            Sign in
+          </Link>{' '}
+          or{' '}
+          <Link className="font-medium text-fig-600 underline" to="/forgot-password">
+            choose a new password
+          </Link>
+          .
+        </p>
+      </div>
+    );
+  }
+
   return (
-    <form noValidate className="flex flex-col gap-4" onSubmit={form.handleSubmit((input) => signUp.mutate(input, { onSuccess: onSignedUp }))}>
+    <form noValidate className="flex flex-col gap-4" onSubmit={form.handleSubmit((input) => signUp.mutate(input, { onSuccess: ({ user }) => user && onSignedUp() }))}>
       <FormField
         label="Name shown with your reports"
         autoComplete="nickname"
