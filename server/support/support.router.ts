@@ -138,7 +138,13 @@ export function createSupportRouter(deps: SupportDeps): Router {
   router.post('/membership/cancel', requireSignedIn, async (req, res) => {
     const row = currentMembershipRow(db, req.user!.id);
     if (!row || !MARKED_STATUSES.includes(row.status)) throw new HttpError(409, 'no_membership', 'You have no running membership to cancel');
-    const sub = await provider(payments).subscriptions.cancel(row.providerSubscriptionId);
+    let sub: Stripe.Subscription;
+    try {
+      sub = await provider(payments).subscriptions.cancel(row.providerSubscriptionId);
+    } catch (err) {
+      if (err instanceof HttpError) throw err;
+      throw new HttpError(502, 'provider_error', `The payment provider could not cancel the membership: ${(err as Error).message}`);
+    }
     // The provider's answer (not the browser) moves the state; its event will say the same and change nothing.
     if (sub.status === 'canceled') updateMembership(db, row.providerSubscriptionId, { status: 'cancelled', renewsOn: null, cancelledAt: new Date((sub.canceled_at ?? Date.now() / 1000) * 1000).toISOString() });
     const after = currentMembershipRow(db, req.user!.id)!;

@@ -244,3 +244,21 @@ describe('webhooks done right', () => {
     expect((await membershipOf(grower)).membership).toMatchObject({ status: 'active', tier: 'orchard', amountMinor: 1200, currency: 'gbp' });
   });
 });
+
+describe('the demo', () => {
+  it('seeds invented members (one past due, two cancelled), gifts and shown marks, once; the demo grower is not a member', async () => {
+    const { seedDatabase } = await import('../../server/seed');
+    const { db } = createTestDb();
+    await seedDatabase(db, { seedDemo: true, demoAtlas: true });
+    await seedDatabase(db, { seedDemo: true, demoAtlas: true });
+    const statuses = db.sqlite.prepare('SELECT status, count(*) AS n FROM memberships GROUP BY status ORDER BY status').all();
+    expect(statuses).toEqual([
+      { status: 'active', n: 11 },
+      { status: 'cancelled', n: 2 },
+      { status: 'past_due', n: 1 },
+    ]);
+    expect(db.sqlite.prepare("SELECT count(*) FROM contributions WHERE kind = 'one-off'").pluck().get()).toBe(9);
+    expect(db.sqlite.prepare('SELECT count(*) FROM users WHERE supporter_mark = 1').pluck().get()).toBe(7);
+    expect(db.sqlite.prepare("SELECT count(*) FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = 'grower@demo.syconium.test'").pluck().get()).toBe(0);
+  }, 120_000);
+});
