@@ -29,6 +29,8 @@ import { createPlacesRouter } from './places/places.router';
 import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
+import { PAYMENTS_OFF, type Payments } from './support/payments';
+import { createSupportRouter, createSupportWebhookRouter } from './support/support.router';
 import { csrfGuard } from './middleware/csrf';
 import { jsonOrMultipartOnly } from './middleware/json-only';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
@@ -44,6 +46,8 @@ export interface AppDeps {
   mailer?: Mailer;
   forgotLimit?: PasswordResetDeps['forgotLimit'];
   photoUploadLimit?: ReportsRouterDeps['photoUploadLimit'];
+  /** The payment provider for contributions (server/support/payments.ts starts it); without one, contributions are off. */
+  payments?: Payments;
 }
 
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
@@ -73,6 +77,11 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
+  const mailer = deps.mailer ?? createMailer(config);
+  const support = { db, payments: deps.payments ?? PAYMENTS_OFF, mailer, appUrl: config.appUrl };
+  // The provider signs the raw bytes: its webhook goes before the JSON parser (and outside the CSRF guard).
+  app.use('/api/support/webhook', createSupportWebhookRouter(support));
+
   app.use(refuseLargeJson(1024 * 1024), express.json({ limit: '1mb' }));
 
   const passport = createPassport(db);
@@ -96,7 +105,7 @@ export function createApp(deps: AppDeps): Express {
   api.get('/health', (_req, res) => {
     res.json({ ok: true });
   });
-  const mail = { db, mailer: deps.mailer ?? createMailer(config), appUrl: config.appUrl };
+  const mail = { db, mailer, appUrl: config.appUrl };
   const onSignedUp = async (user: Express.User) => void (await sendVerificationEmail(mail, user));
   api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, signUpLimit: deps.signUpLimit, onSignedUp, mail }));
   api.use('/auth', createVerificationRouter(mail), createPasswordResetRouter({ ...mail, forgotLimit: deps.forgotLimit }));
@@ -115,6 +124,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/places', createPlacesRouter());
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
+  api.use('/support', createSupportRouter(support));
   api.use(apiNotFound);
   app.use('/api', api);
   app.use('/uploads', createUploadsRouter({ db, config }));

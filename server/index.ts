@@ -9,6 +9,7 @@ import { readConfig } from './lib/config';
 import { SessionSecretError, withSessionSecret } from './lib/session-secret';
 import { startLoopStats } from './lib/loop-stats';
 import { seedDatabase } from './seed';
+import { startPayments } from './support/payments';
 
 let config: ReturnType<typeof withSessionSecret>;
 try {
@@ -72,10 +73,11 @@ async function serve(): Promise<void> {
   const db = createDb(config.dbFile);
   const checkpointer = startCheckpointer(db);
   const mail = await startMail(config, db);
+  const payments = await startPayments(config, db);
   const scheduler = createScheduler(db, appJobs({ db, mailer: mail.mailer, appUrl: config.appUrl }));
   scheduler.start();
 
-  const app = createApp({ db, config, mailer: mail.mailer });
+  const app = createApp({ db, config, mailer: mail.mailer, payments: payments.payments });
   const server = app.listen(config.port, config.host, () => {
     const instance = cluster.isWorker ? ` (instance ${process.pid}, one of ${config.instances})` : '';
     console.log(`Syconium is running at http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${config.port}/${instance}`);
@@ -94,6 +96,7 @@ async function serve(): Promise<void> {
     setTimeout(() => process.exit(1), 10_000).unref();
     server.close(async () => {
       await mail.close();
+      await payments.close();
       await checkpointer.stop();
       db.sqlite.close();
       process.exit(0);

@@ -22,6 +22,9 @@ import ReportNewRoute from './routes/report-new';
 import ResetPasswordRoute from './routes/reset-password';
 import SignInRoute from './routes/sign-in';
 import SignUpRoute from './routes/sign-up';
+import SupportRoute from './routes/support';
+import SupportThanksRoute from './routes/support-thanks';
+import EditorsSupportersRoute from './routes/editors-supporters';
 import UnsubscribeRoute from './routes/unsubscribe';
 import VerifyRoute from './routes/verify';
 import WhyNoFigsRoute from './routes/why-no-figs';
@@ -47,6 +50,8 @@ export const routes = [
       { path: 'reset-password', element: <ResetPasswordRoute /> },
       { path: 'unsubscribe', element: <UnsubscribeRoute /> },
       { path: 'dev/mail', element: <DevMailRoute /> },
+      { path: 'support', element: <SupportRoute /> },
+      { path: 'support/thanks', element: <SupportThanksRoute /> },
       {
         path: 'editors',
         element: <EditorsRoute />,
@@ -58,6 +63,7 @@ export const routes = [
           { path: 'stations/:stationId?', element: <EditorsStationsRoute /> },
           { path: 'moderation', element: <EditorsModerationRoute /> },
           { path: 'audit', element: <EditorsAuditRoute /> },
+          { path: 'supporters', element: <EditorsSupportersRoute /> },
         ],
       },
       { path: '*', element: <NotFoundRoute /> },

@@ -13,6 +13,7 @@ import {
   VARIETY_STATUSES,
   WASP_AREA_STATUSES,
 } from '../../shared/domain/codes';
+import { MEMBERSHIP_STATUSES, MEMBERSHIP_TIERS, SUPPORT_CURRENCIES, SUPPORT_KINDS } from '../../shared/domain/support';
 
 /*
  * One file for the whole schema: drizzle.config.ts points here and `npm run db:generate` writes
@@ -35,6 +36,8 @@ export const users = sqliteTable('users', {
   role: text('role', { enum: ROLES }).notNull().default('grower'),
   emailVerifiedAt: text('email_verified_at'),
   isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+  /** Opt-in: show a supporter mark beside this grower's name on their reports while a membership is paid up. */
+  supporterMark: integer('supporter_mark', { mode: 'boolean' }).notNull().default(false),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -381,4 +384,73 @@ export const devMailMessages = sqliteTable('dev_mail_messages', {
   text: text('text'),
   html: text('html'),
   receivedAt: createdAt(),
+});
+
+/*
+ * Supporters (drizzle/0020_supporters.sql). Memberships and contributions change only on the payment
+ * provider's signed events (server/support/webhook.ts); payment_events makes each event count once.
+ * No card data is ever stored: the provider's hosted checkout takes the card.
+ */
+export const memberships = sqliteTable(
+  'memberships',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    providerSubscriptionId: text('provider_subscription_id').notNull(),
+    tier: text('tier', { enum: MEMBERSHIP_TIERS }).notNull(),
+    amountMinor: integer('amount_minor').notNull(),
+    currency: text('currency', { enum: SUPPORT_CURRENCIES }).notNull(),
+    status: text('status', { enum: MEMBERSHIP_STATUSES }).notNull(),
+    startedAt: text('started_at').notNull(),
+    renewsOn: text('renews_on'),
+    cancelledAt: text('cancelled_at'),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex('memberships_subscription_unique').on(t.providerSubscriptionId), index('memberships_user_idx').on(t.userId)],
+);
+
+/** Money received: a first payment (checkout), a renewal (invoice) or a one-off gift. */
+export const contributions = sqliteTable(
+  'contributions',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    kind: text('kind', { enum: SUPPORT_KINDS }).notNull(),
+    /** The provider's checkout session or invoice id: one contribution each. */
+    providerRef: text('provider_ref').notNull(),
+    amountMinor: integer('amount_minor').notNull(),
+    currency: text('currency', { enum: SUPPORT_CURRENCIES }).notNull(),
+    paidAt: text('paid_at').notNull(),
+  },
+  (t) => [uniqueIndex('contributions_provider_ref_unique').on(t.providerRef)],
+);
+
+/** Each checkout we started, so the thank-you page can answer from our own records. */
+export const checkoutAttempts = sqliteTable('checkout_attempts', {
+  sessionId: text('session_id').primaryKey(),
+  userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+  kind: text('kind', { enum: SUPPORT_KINDS }).notNull(),
+  tier: text('tier', { enum: MEMBERSHIP_TIERS }),
+  amountMinor: integer('amount_minor').notNull(),
+  currency: text('currency', { enum: SUPPORT_CURRENCIES }).notNull(),
+  state: text('state', { enum: ['waiting', 'paid', 'unpaid'] }).notNull().default('waiting'),
+  createdAt: createdAt(),
+});
+
+/** Provider events already handled (by event id): a redelivered event changes nothing. */
+export const paymentEvents = sqliteTable('payment_events', {
+  eventId: text('event_id').primaryKey(),
+  type: text('type').notNull(),
+  receivedAt: text('received_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+});
+
+/** The local test provider's own objects (development and tests only), shared by every server instance. */
+export const devPaymentObjects = sqliteTable('dev_payment_objects', {
+  id: text('id').primaryKey(),
+  kind: text('kind').notNull(),
+  data: text('data', { mode: 'json' }).notNull(),
+  createdAt: createdAt(),
 });

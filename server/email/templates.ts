@@ -137,3 +137,31 @@ export function editorAlertMessage(input: { displayName: string; flags: AlertFla
     footer: [{ kind: 'p', text: 'Editors and admins get one summary every few minutes at most, however many flags arrive.' }],
   });
 }
+
+export function supportReceiptMessage(input: {
+  kind: 'first-monthly' | 'renewal' | 'one-off';
+  amount: string;
+  paidOn: string;
+  reference: string;
+  tierLabel: string | null;
+  membershipUrl: string;
+}): RenderedEmail {
+  const monthly = input.kind !== 'one-off';
+  const what = monthly ? `${input.tierLabel ?? 'Monthly'} membership${input.kind === 'renewal' ? ', renewal' : ''}` : 'One-off contribution';
+  return renderEmail({
+    subject: input.kind === 'renewal' ? 'Your Syconium membership receipt' : 'Thank you for supporting Syconium',
+    heading: input.kind === 'renewal' ? 'Another month of the atlas, thanks to you' : 'Thank you for keeping the atlas open',
+    blocks: [
+      {
+        kind: 'p',
+        text: monthly
+          ? 'Your membership pays for the map, the climate data work and the hours spent checking varieties and reports. Every page, number and download stays open to everyone, as it always will.'
+          : 'Your contribution pays for the map, the climate data work and the hours spent checking varieties and reports. Every page, number and download stays open to everyone, as it always will.',
+      },
+      { kind: 'table', head: ['Receipt', ''], rows: [['For', what], ['Amount', input.amount], ['Paid on', input.paidOn], ['Reference', input.reference]] },
+      ...(monthly ? [{ kind: 'link' as const, label: 'See or cancel your membership', url: input.membershipUrl }] : []),
+      SIGN_OFF,
+    ],
+    footer: [{ kind: 'p', text: 'The payment provider took the card; Syconium never sees or keeps card details. Keep this message as your receipt.' }],
+  });
+}

@@ -29,6 +29,12 @@ export interface Config {
   devMail: boolean;
   /** Its port; 0 picks a free one. */
   devMailPort: number;
+  /** Contributions through the payment provider (Stripe): its secret API key and webhook signing secret. */
+  payments: { secretKey?: string; webhookSecret?: string };
+  /** Without a secret key: start the local test provider (default: outside production), else contributions are off. */
+  devPayments: boolean;
+  /** Its port; 0 picks a free one. */
+  devPaymentsPort: number;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -57,5 +63,8 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mailFrom: env.MAIL_FROM ?? 'Syconium <atlas@syconium.invalid>',
     devMail: env.SYCONIUM_DEV_MAIL ? env.SYCONIUM_DEV_MAIL === 'true' : mode !== 'production',
     devMailPort: Number(env.SYCONIUM_DEV_MAIL_PORT ?? 0),
+    payments: { secretKey: env.STRIPE_SECRET_KEY || undefined, webhookSecret: env.STRIPE_WEBHOOK_SECRET || undefined },
+    devPayments: env.SYCONIUM_DEV_PAYMENTS ? env.SYCONIUM_DEV_PAYMENTS === 'true' : mode !== 'production',
+    devPaymentsPort: Number(env.SYCONIUM_DEV_PAYMENTS_PORT ?? 0),
   };
 }

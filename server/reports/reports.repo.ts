@@ -30,7 +30,17 @@ const q = {
   photos: perDb((db) => db.select().from(reportPhotos).where(eq(reportPhotos.reportId, ph('reportId'))).orderBy(asc(reportPhotos.position), asc(reportPhotos.id)).prepare()),
   varietyRef: perDb((db) => db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType, status: varieties.status }).from(varieties).where(eq(varieties.id, ph('id'))).prepare()),
   treeLabel: perDb((db) => db.select({ label: trees.label }).from(trees).where(eq(trees.id, ph('id'))).prepare()),
-  growerName: perDb((db) => db.select({ displayName: users.displayName }).from(users).where(eq(users.id, ph('id'))).prepare()),
+  grower: perDb((db) =>
+    db
+      .select({
+        displayName: users.displayName,
+        // The opt-in supporter mark shows only while a membership is paid up (drizzle/0020_supporters.sql).
+        supporter: sql<number>`${users.supporterMark} = 1 AND EXISTS (SELECT 1 FROM memberships m WHERE m.user_id = ${users.id} AND m.status IN ('active', 'past_due'))`,
+      })
+      .from(users)
+      .where(eq(users.id, ph('id')))
+      .prepare(),
+  ),
   openFlagOf: perDb((db) =>
     db.select({ id: reportFlags.id }).from(reportFlags).where(and(eq(reportFlags.reportId, ph('reportId')), eq(reportFlags.userId, ph('userId')), eq(reportFlags.status, 'open'))).prepare(),
   ),
@@ -79,7 +89,7 @@ type VarietyRef = NonNullable<Report['variety']>;
 interface ReportRefs {
   variety: VarietyRef | undefined;
   treeLabel: string | undefined;
-  growerName: string | undefined;
+  grower: { displayName: string; supporter: number | boolean } | undefined;
   photos: ReportPhoto[];
   hasOpenFlag: boolean;
   openFlags: number;
@@ -90,7 +100,7 @@ export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
   return shapeReport(row, viewer, {
     variety: row.varietyId ? q.varietyRef(db).get({ id: row.varietyId }) : undefined,
     treeLabel: q.treeLabel(db).get({ id: row.treeId })?.label,
-    growerName: q.growerName(db).get({ id: row.userId })?.displayName,
+    grower: q.grower(db).get({ id: row.userId }),
     photos: photosOf(db, row.id).map(({ fileName: _f, thumbName: _t, ...photo }) => photo),
     hasOpenFlag: viewer ? !!q.openFlagOf(db).get({ reportId: row.id, userId: viewer.id }) : false,
     openFlags: isEditor(viewer) ? q.openFlagCount(db).get({ reportId: row.id })!.n : 0,
@@ -99,11 +109,11 @@ export function toReport(db: Db, row: ReportRow, viewer: Viewer): Report {
 
 /**
  * A report its author has just written, as toReport would answer it, without reading back what
- * the write already knows: its variety and tree as resolved, the author's name, and no photos or
- * flags yet.
+ * the write already knows: its variety and tree as resolved, no photos or flags yet (the author's
+ * name and supporter mark are one primary-key read).
  */
-export function toNewReport(row: ReportRow, author: Express.User, refs: { variety: VarietyRef; treeLabel: string }): Report {
-  return shapeReport(row, author, { ...refs, growerName: author.displayName, photos: [], hasOpenFlag: false, openFlags: 0 });
+export function toNewReport(db: Db, row: ReportRow, author: Express.User, refs: { variety: VarietyRef; treeLabel: string }): Report {
+  return shapeReport(row, author, { ...refs, grower: q.grower(db).get({ id: author.id }), photos: [], hasOpenFlag: false, openFlags: 0 });
 }
 
 function shapeReport(row: ReportRow, viewer: Viewer, refs: ReportRefs): Report {
@@ -125,7 +135,7 @@ function shapeReport(row: ReportRow, viewer: Viewer, refs: ReportRefs): Report {
     status: row.status,
     hiddenReason: isOwner || moderator ? row.hiddenReason : null,
     hiddenAt: isOwner || moderator ? row.hiddenAt : null,
-    grower: { displayName: refs.growerName ?? 'A grower' },
+    grower: { displayName: refs.grower?.displayName ?? 'A grower', supporter: !!refs.grower?.supporter },
     photos: refs.photos,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,

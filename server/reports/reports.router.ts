@@ -184,7 +184,7 @@ export function createReportsRouter({ db, config, photoUploadLimit = PHOTO_UPLOA
       const now = new Date().toISOString();
       const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId: tree.id, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
       recordAudit(db, { actorId: user.id, action: 'report.create', entityType: 'report', entityId: created.id, after: created });
-      return toNewReport(created, user, { variety: variety.ref, treeLabel: tree.label });
+      return toNewReport(db, created, user, { variety: variety.ref, treeLabel: tree.label });
     });
     res.status(201).json(reportResponseSchema.parse({ report, notice: status === 'draft' ? DRAFT_NOTICE : undefined }));
   });

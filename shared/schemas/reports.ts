@@ -181,7 +181,8 @@ export const reportSchema = z.object({
   /** Only the owner and editors see why a report was hidden. */
   hiddenReason: z.string().nullable(),
   hiddenAt: z.string().nullable(),
-  grower: z.object({ displayName: z.string() }),
+  /** `supporter`: the grower chose to show that they fund the atlas (and their membership is paid up). */
+  grower: z.object({ displayName: z.string(), supporter: z.boolean() }),
   photos: z.array(reportPhotoSchema),
   createdAt: z.string(),
   updatedAt: z.string(),

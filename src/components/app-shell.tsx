@@ -41,6 +41,9 @@ export function AppShell() {
           Editors
         </NavLink>
       )}
+      <NavLink to="/support" className={navClass}>
+        Support
+      </NavLink>
     </>
   );
 

@@ -4,6 +4,7 @@ import { RequireRole } from '../features/auth/components/require-role';
 import { useCurrentUser } from '../features/auth/api';
 import { DigestSettings } from '../features/email/components/digest-settings';
 import { SavedPlaceList } from '../features/places/components/saved-place-list';
+import { MembershipPanel } from '../features/support/components/membership-panel';
 
 export default function AccountRoute() {
   const { user } = useCurrentUser();
@@ -23,6 +24,9 @@ export default function AccountRoute() {
           </dl>
           <div className="mt-6">
             <DigestSettings />
+          </div>
+          <div className="mt-6">
+            <MembershipPanel />
           </div>
           <section className="mt-6" aria-labelledby="saved-places-title">
             <h2 id="saved-places-title" className="mb-2 text-lg font-semibold text-fig-900">

@@ -39,9 +39,14 @@ export default function EditorsRoute() {
             Audit log
           </NavLink>
           {hasRole(user, 'admin') && (
-            <NavLink to="/editors/people" className={tabClass}>
-              People
-            </NavLink>
+            <>
+              <NavLink to="/editors/people" className={tabClass}>
+                People
+              </NavLink>
+              <NavLink to="/editors/supporters" className={tabClass}>
+                Supporters
+              </NavLink>
+            </>
           )}
         </nav>
         <div className="min-h-0 flex-1 overflow-y-auto">

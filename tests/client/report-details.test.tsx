@@ -12,7 +12,7 @@ const report = reportSchema.parse({
   id: 41, treeId: 7, treeLabel: null, variety: null, proposedVarietyName: 'Sample Fig', lat: null, lon: null, gridLat: 42.675, gridLon: -73.775,
   form: 'ground', origin: 'cutting', yearPlanted: 2019, season: 2024, crop: 'main', outcome: 'ripened', firstRipeDate: '2024-08-20', lastHarvestDate: null,
   springFrostDate: null, fallFrostDate: null, pinched: false, pinchedDate: null, winterProtection: '', feeding: '', watering: '', notes: '', status: 'published',
-  hiddenReason: null, hiddenAt: null, grower: { displayName: 'Sample Grower' }, photos: [], createdAt: '2024-09-01T10:00:00.000Z', updatedAt: '2024-09-02T10:00:00.000Z',
+  hiddenReason: null, hiddenAt: null, grower: { displayName: 'Sample Grower', supporter: false }, photos: [], createdAt: '2024-09-01T10:00:00.000Z', updatedAt: '2024-09-02T10:00:00.000Z',
   viewer: { isOwner: false, canModerate: false, hasOpenFlag: false, openFlags: 0 },
 });
 

@@ -130,6 +130,19 @@ const CASES: Case[] = [
       return { method: 'delete', path: `/api/reports/${reportId}/photos/${photoId}` };
     },
   },
+  { route: 'GET /api/support/options', expected: everyone(200), call: () => get('/api/support/options') },
+  {
+    route: 'POST /api/support/checkout',
+    note: 'contributions are off in this app (support.test.ts runs them on); a monthly membership needs an account',
+    expected: { visitor: 401, owner: 503, other: 503, editor: 503, admin: 503 },
+    call: () => ({ method: 'post', path: '/api/support/checkout', body: { kind: 'monthly', tier: 'cutting', currency: 'usd' } }),
+  },
+  { route: 'GET /api/support/checkout/:sessionId', expected: everyone(404), call: () => get('/api/support/checkout/cs_test_unknown') },
+  { route: 'GET /api/support/membership', expected: signedIn(200), call: () => get('/api/support/membership') },
+  { route: 'PUT /api/support/membership/mark', expected: signedIn(200), call: () => ({ method: 'put', path: '/api/support/membership/mark', body: { showMark: false } }) },
+  { route: 'POST /api/support/membership/cancel', expected: signedIn(409), note: 'no membership to cancel', call: () => ({ method: 'post', path: '/api/support/membership/cancel' }) },
+  { route: 'GET /api/support/summary', expected: admins(200), call: () => get('/api/support/summary') },
+  { route: 'POST /api/support/webhook', expected: everyone(503), note: 'signed provider events only (support.test.ts); off here', call: () => ({ method: 'post', path: '/api/support/webhook', body: { id: 'evt_x' } }) },
   {
     route: 'POST /api/reports/import',
     expected: signedIn(201),
@@ -199,6 +212,24 @@ describe('access control: every route as every role', () => {
       expect(got).toEqual(c.expected);
     }, 30_000);
   }
+
+  it('nothing is paywalled: a supporter gets exactly what any other grower gets, on every route', async () => {
+    // Make the "other" grower a paying member with the mark shown, then call every route again as them.
+    const otherId = ctx.db.sqlite.prepare('SELECT id FROM users WHERE email = ?').pluck().get(world.emails.other) as number;
+    ctx.db.sqlite.prepare("INSERT INTO memberships (user_id, provider_subscription_id, tier, amount_minor, currency, status, started_at) VALUES (?, 'sub_paywall_check', 'orchard', 1500, 'usd', 'active', '2026-01-01T00:00:00.000Z')").run(otherId);
+    ctx.db.sqlite.prepare('UPDATE users SET supporter_mark = 1 WHERE id = ?').run(otherId);
+    try {
+      const differs: string[] = [];
+      // Only the membership's own page (see it, cancel it) answers differently, by design.
+      for (const c of CASES.filter((x) => !x.fresh && !x.route.includes('/api/support/membership'))) {
+        const status = (await send(c, 'other')).status;
+        if (status !== c.expected.other) differs.push(`${c.route}: ${status} as a supporter, ${c.expected.other} otherwise`);
+      }
+      expect(differs).toEqual([]);
+    } finally {
+      ctx.db.sqlite.prepare("DELETE FROM memberships WHERE provider_subscription_id = 'sub_paywall_check'").run();
+    }
+  }, 120_000);
 
   it('the development mailbox is not served in production', async () => {
     const app = createApp({ db: ctx.db, config: testConfig({ env: 'production', devMail: false }) });

@@ -75,6 +75,8 @@ const JSON_WRITES: WriteRoute[] = [
   { route: 'POST /api/reports/:id/flags', role: 'other', method: 'post', path: () => `/api/reports/${ids.report}/flags`, keys: ['reason'] },
   { route: 'POST /api/saved-places', role: 'owner', method: 'post', path: () => '/api/saved-places', keys: ['name', 'lat', 'lon', 'form', 'isHome'] },
   { route: 'PATCH /api/saved-places/:id', role: 'owner', method: 'patch', path: () => `/api/saved-places/${ids.place}`, keys: ['name', 'lat', 'lon', 'form', 'isHome'] },
+  { route: 'POST /api/support/checkout', role: 'owner', method: 'post', path: () => '/api/support/checkout', keys: ['kind', 'tier', 'amount', 'currency'] },
+  { route: 'PUT /api/support/membership/mark', role: 'owner', method: 'put', path: () => '/api/support/membership/mark', keys: ['showMark'] },
 ];
 
 /** Routes whose path carries ids: fuzzed with hostile ids (DELETE and body-less writes are covered here). */
@@ -92,7 +94,8 @@ const UPLOADS: { route: string; role: Role; path: () => string; field: string; f
 ];
 
 /** Writes that take no input at all (no body, no id). */
-const NO_INPUT_WRITES = ['POST /api/auth/sign-out', 'POST /api/auth/verify/resend', 'DELETE /api/dev/mail'];
+// The provider's webhook takes only signed events: tests/server/support.test.ts sends it forged, unsigned and replayed ones.
+const NO_INPUT_WRITES = ['POST /api/auth/sign-out', 'POST /api/auth/verify/resend', 'DELETE /api/dev/mail', 'POST /api/support/membership/cancel', 'POST /api/support/webhook'];
 
 /** Values of every wrong kind: other types, huge and odd numbers, odd strings, nesting. */
 const wrongValue = fc.oneof(

@@ -39,6 +39,11 @@ export function ReportDetails({ report }: { report: Report }) {
       <header>
         <p className="text-sm text-ink/70">
           Reported by {report.grower.displayName}
+          {report.grower.supporter && (
+            <span className="ml-1.5 rounded-full bg-leaf-100 px-2 py-0.5 text-xs font-medium text-leaf-700" title="This grower helps fund the atlas">
+              supports the atlas
+            </span>
+          )}
           {report.treeLabel && ` · tree “${report.treeLabel}”`}
         </p>
         <h1 className="text-2xl font-semibold tracking-tight text-fig-900">
