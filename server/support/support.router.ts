@@ -4,6 +4,7 @@ import type { Db } from '../db/client';
 import type { Mailer } from '../email/mailer';
 import { supportReceiptMessage } from '../email/templates';
 import { HttpError, notFound } from '../lib/http-error';
+import { jsonOrMultipartOnly } from '../middleware/json-only';
 import { requireRole, requireSignedIn } from '../middleware/require-role';
 import { TIER_DETAILS, formatMoney, MARKED_STATUSES } from '../../shared/domain/support';
 import { checkoutInputSchema, supporterMarkInputSchema, type CheckoutStatus, type MyMembership, type SupportOptions } from '../../shared/schemas/support';
@@ -28,7 +29,8 @@ export interface SupportDeps {
 }
 
 function provider(payments: Payments): Stripe {
-  if (!payments.stripe) throw new HttpError(503, 'contributions_off', 'Contributions are not set up on this installation');
+  // Not set up here: like a route this installation does not offer (a 4xx, not a server fault).
+  if (!payments.stripe) throw new HttpError(404, 'contributions_off', 'Contributions are not set up on this installation');
   return payments.stripe;
 }
 
@@ -59,7 +61,7 @@ async function sendReceipts(deps: SupportDeps, receipts: Receipt[]): Promise<voi
  */
 export function createSupportWebhookRouter(deps: SupportDeps): Router {
   const router = Router();
-  router.post('/', express.raw({ type: () => true, limit: '256kb' }), async (req, res) => {
+  router.post('/', jsonOrMultipartOnly, express.raw({ type: 'application/json', limit: '256kb' }), async (req, res) => {
     const stripe = provider(deps.payments);
     const signature = req.get('stripe-signature');
     if (!signature) throw new HttpError(400, 'signature_missing', 'The event has no stripe-signature header');

@@ -75,11 +75,11 @@ describe('the Support page and checkout', () => {
     expect((await ctx.agent().get('/api/support/options')).body).toEqual({ enabled: true, testMode: true });
   });
 
-  it('without a provider, the page says contributions are off and checkout answers 503, not a crash', async () => {
+  it('without a provider, the page says contributions are off and checkout answers 404, not a crash', async () => {
     const app = createApp({ db: ctx.db, config: testConfig() });
     expect((await supertest(app).get('/api/support/options')).body).toEqual({ enabled: false, testMode: false });
     const res = await supertest(app).post('/api/support/checkout').set('X-Syconium-Request', '1').send({ kind: 'one-off', amount: 10, currency: 'usd' });
-    expect(res.status).toBe(503);
+    expect(res.status).toBe(404);
     expect(res.body.error.code).toBe('contributions_off');
   });
 

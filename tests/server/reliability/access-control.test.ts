@@ -134,7 +134,7 @@ const CASES: Case[] = [
   {
     route: 'POST /api/support/checkout',
     note: 'contributions are off in this app (support.test.ts runs them on); a monthly membership needs an account',
-    expected: { visitor: 401, owner: 503, other: 503, editor: 503, admin: 503 },
+    expected: { visitor: 401, owner: 404, other: 404, editor: 404, admin: 404 },
     call: () => ({ method: 'post', path: '/api/support/checkout', body: { kind: 'monthly', tier: 'cutting', currency: 'usd' } }),
   },
   { route: 'GET /api/support/checkout/:sessionId', expected: everyone(404), call: () => get('/api/support/checkout/cs_test_unknown') },
@@ -142,7 +142,7 @@ const CASES: Case[] = [
   { route: 'PUT /api/support/membership/mark', expected: signedIn(200), call: () => ({ method: 'put', path: '/api/support/membership/mark', body: { showMark: false } }) },
   { route: 'POST /api/support/membership/cancel', expected: signedIn(409), note: 'no membership to cancel', call: () => ({ method: 'post', path: '/api/support/membership/cancel' }) },
   { route: 'GET /api/support/summary', expected: admins(200), call: () => get('/api/support/summary') },
-  { route: 'POST /api/support/webhook', expected: everyone(503), note: 'signed provider events only (support.test.ts); off here', call: () => ({ method: 'post', path: '/api/support/webhook', body: { id: 'evt_x' } }) },
+  { route: 'POST /api/support/webhook', expected: everyone(404), note: 'signed provider events only (support.test.ts); off here', call: () => ({ method: 'post', path: '/api/support/webhook', body: { id: 'evt_x' } }) },
   {
     route: 'POST /api/reports/import',
     expected: signedIn(201),
