@@ -29,6 +29,8 @@ import { createPlacesRouter } from './places/places.router';
 import { createTilesRouter } from './tiles/tiles.router';
 import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
+import { createFollowsRouter } from './follows/follows.router';
+import { createUnitsRouter } from './account/units.router';
 import { csrfGuard } from './middleware/csrf';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
@@ -108,6 +110,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/guidance', createGuidanceRouter({ db }));
   api.use('/atlas/pins', createPinsRouter({ db }));
   api.use('/places', createPlacesRouter());
+  api.use('/follows', createFollowsRouter({ db }));
+  api.use('/account', createUnitsRouter({ db }));
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);

@@ -10,6 +10,7 @@ import { seedDemoPhotos } from '../reports/demo-photos.seed';
 import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
+import { seedDemoFollows } from '../follows/follows.seed';
 import { seedDemoStations } from './demo-stations';
 import { seedDemoAtlas } from './demo-atlas-seed';
 import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
@@ -47,6 +48,7 @@ export async function seedDatabase(
   seedDemoSavedPlaces(db);
   seedEditorsDemo(db);
   seedDemoDigest(db);
+  seedDemoFollows(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {
