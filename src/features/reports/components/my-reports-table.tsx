@@ -8,6 +8,7 @@ import { Button } from '../../../components/button';
 import { SortableTableHead } from '../../../components/sortable-table-head';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
+import { DateText } from '../../units/components/date-text';
 
 const column = createColumnHelper<ReportListItem>();
 const STATUS_LABEL = { published: 'Published', draft: 'Draft', hidden: 'Hidden by an editor' } as const;
@@ -64,7 +65,7 @@ export function MyReportsTable() {
       column.accessor('outcome', { header: 'Outcome', cell: ({ getValue }) => LABELS.outcome[getValue()] }),
       column.accessor('form', { header: 'Form', cell: ({ getValue }) => LABELS.growingForm[getValue()] }),
       column.accessor('status', { header: 'Status', cell: ({ getValue }) => <span className={getValue() === 'published' ? 'text-leaf-700' : 'text-fig-700'}>{STATUS_LABEL[getValue()]}</span> }),
-      column.accessor('updatedAt', { header: 'Changed', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
+      column.accessor('updatedAt', { header: 'Changed', cell: ({ getValue }) => <DateText iso={getValue()} className="whitespace-nowrap" /> }),
       column.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
