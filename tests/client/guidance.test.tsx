@@ -80,7 +80,7 @@ describe('HereResults', () => {
     const first = within(rows[0]!);
     // No model answer yet: the adjusted share with the local 90 % interval.
     expect(first.getByRole('img', { name: 'Chance 72 %, likely between 48 % and 90 %, from 8 trees' })).toBeInTheDocument();
-    expect(first.getByText('8 trees / 5 growers')).toBeInTheDocument();
+    expect(first.getByTitle('8 trees from 5 growers')).toHaveTextContent('8 / 5');
     expect(first.getByText('+61 days')).toBeInTheDocument();
     // The Smyrna type stays in the list, marked; the pollination sentence is said once per fig type.
     expect(within(rows[1]!).getByText(/needs the wasp/)).toBeInTheDocument();

@@ -58,7 +58,7 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
         <VarietyTable near={near} onlyIds={onlyIds} />
         <MethodNote method={<>How the list is ranked: {near.method}</>}>
           Varieties whose nearby trees ripened more often rank higher; a variety known from only a few trees counts for less than one seen on many, and one that needs the fig wasp
-          where it is not recorded, or a longer season than this place gives, moves down. The chance bar shows the likely range as a band and the figure as a dot; a figure resting on
+          where it is not recorded, or a longer season than this place gives, moves down. Trees / growers counts the trees and growers behind each row. The chance bar shows the likely range as a band and the figure as a dot; a figure resting on
           one or two trees is drawn faint.
         </MethodNote>
       </section>

@@ -48,7 +48,8 @@ export function ShortSeasonSummary({
             {data.varieties.map((v, i) => (
               <span key={v.varietyId}>
                 {i > 0 ? ', ' : ''}
-                <VarietyLink id={v.varietyId} name={v.name} /> <span className="text-ink/70">({percent(v.share)} of {plural(v.trees, 'tree')}, shortest {v.shortestRipeSeasonDays} days)</span>
+                <VarietyLink id={v.varietyId} name={v.name} />
+                <span className="hidden text-ink/70 sm:inline"> ({percent(v.share)} of {plural(v.trees, 'tree')}, shortest {v.shortestRipeSeasonDays} days)</span>
               </span>
             ))}
             .

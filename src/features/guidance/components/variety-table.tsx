@@ -50,9 +50,12 @@ const VERDICT_STYLE: Record<VarietyEvidence['seasonFit']['verdict'], string> = {
   unknown: 'bg-paper text-ink/70 ring-1 ring-fig-100',
 };
 
+/** The fig type in one word for the table (the full label, with what it means, is in the pollination notes). */
+const FIG_TYPE_SHORT: Record<FigType, string> = { common: 'Common', 'san-pedro': 'San Pedro', smyrna: 'Smyrna', caprifig: 'Caprifig', unknown: 'Unknown' };
+
 const cropsOf = (v: VarietyEvidence) => [v.byCrop.breba.trees > 0 ? 'breba' : null, v.byCrop.main.trees > 0 ? 'main' : null].filter(Boolean).join(' + ') || '—';
 
-export function ChanceCell({ v }: { v: VarietyEvidence }) {
+export function ChanceCell({ v, barClassName = 'w-12 sm:w-20' }: { v: VarietyEvidence; barClassName?: string }) {
   const c = chanceOf(v);
   if (c.tooLittle)
     return (
@@ -63,7 +66,7 @@ export function ChanceCell({ v }: { v: VarietyEvidence }) {
   const label = `Chance ${percent(c.value)}, likely between ${percent(c.low)} and ${percent(c.high)}, from ${plural(c.trees, 'tree')}`;
   return (
     <div className={`flex items-center gap-2 ${c.thin ? 'opacity-60' : ''}`} data-testid={c.thin ? 'chance-thin' : 'chance'}>
-      <IntervalBar share={null} low={c.low} high={c.high} adjusted={c.value} label={label} />
+      <IntervalBar share={null} low={c.low} high={c.high} adjusted={c.value} label={label} className={barClassName} />
       <span className="whitespace-nowrap text-sm tabular-nums">
         {percent(c.value)}
         {c.thin && <span className="ml-1 text-xs italic text-ink/70">· only {plural(c.trees, 'tree')}</span>}
@@ -76,9 +79,11 @@ function MarginCell({ v }: { v: VarietyEvidence }) {
   const fit = v.seasonFit;
   return (
     <div className="flex flex-col items-start gap-0.5">
-      <span className={`rounded-full px-2 py-0.5 text-xs font-medium whitespace-nowrap ${VERDICT_STYLE[fit.verdict]}`}>{LABELS.verdict[fit.verdict]}</span>
+      <span className={`hidden rounded-full px-2 py-0.5 text-xs font-medium whitespace-nowrap sm:inline ${VERDICT_STYLE[fit.verdict]}`}>{LABELS.verdict[fit.verdict]}</span>
+      {/* On a phone the verdict is the colour of the margin itself (the words are in the details). */}
+      {fit.verdict === 'unknown' && <span className="text-xs text-ink/60 sm:hidden">—</span>}
       {fit.marginDays !== null && (
-        <span className="text-xs tabular-nums text-ink/80">
+        <span className={`whitespace-nowrap rounded px-1 text-xs tabular-nums sm:bg-transparent sm:px-0 sm:text-ink/80 ${VERDICT_STYLE[fit.verdict]}`} title={LABELS.verdict[fit.verdict]}>
           {fit.marginDays > 0 ? '+' : ''}
           {Math.round(fit.marginDays)} days
         </span>
@@ -89,8 +94,8 @@ function MarginCell({ v }: { v: VarietyEvidence }) {
 
 const column = createColumnHelper<VarietyEvidence>();
 
-/** On a phone the table keeps its key columns; type and crops are in the details and the pollination notes. */
-const phoneHidden = (columnId: string) => (columnId === 'crops' || columnId === 'figType' || columnId === 'rank' ? 'hidden md:table-cell' : '');
+/** On a phone the table keeps its key columns (variety, chance, margin); the rest is in the details and the pollination notes. */
+const phoneHidden = (columnId: string) => (columnId === 'figType' || columnId === 'rank' || columnId === 'evidence' ? 'hidden md:table-cell' : '');
 
 /** Everything else about one variety here, shown when its row is opened. */
 function RowDetails({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
@@ -112,7 +117,7 @@ function RowDetails({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
       <div>
         <p className="text-ink/70">Season fit ({LABELS.growingForm[fit.form].toLowerCase()})</p>
         <p>
-          {fit.localSeasonDays === null ? '—' : Math.round(fit.localSeasonDays)} days here vs {fit.neededDays === null ? '—' : Math.round(fit.neededDays)} needed
+          <strong className="font-medium">{LABELS.verdict[fit.verdict]}</strong>: {fit.localSeasonDays === null ? '—' : Math.round(fit.localSeasonDays)} days here vs {fit.neededDays === null ? '—' : Math.round(fit.neededDays)} needed
           {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (reports elsewhere)' : ''}
           {fit.headStartDays ? `, head start ${fit.headStartDays} days` : ''}.
         </p>
@@ -167,17 +172,24 @@ export function VarietyTable({ near, onlyIds }: { near: NearResponse; onlyIds?: 
           const blocked = waspBlocked(v, near.pollinationByFigType[v.figType]!);
           return (
             <div className="flex flex-col">
-              <VarietyLink id={v.varietyId} name={v.name} />
-              <span className="text-xs text-ink/60">
-                {v.isFictional ? 'fictional (demo)' : ''}
+              <VarietyLink id={v.varietyId} name={v.name} className="sm:whitespace-nowrap" />
+              <span className="hidden whitespace-nowrap text-xs text-ink/60 sm:inline">
+                {v.isFictional ? 'fictional' : ''}
                 {blocked ? `${v.isFictional ? ' · ' : ''}needs the wasp` : ''}
               </span>
             </div>
           );
         },
       }),
-      column.accessor('figType', { header: 'Type', cell: (c) => <span className="whitespace-nowrap">{LABELS.figType[c.getValue()]}</span> }),
-      column.accessor((v) => cropsOf(v), { id: 'crops', header: 'Crops', enableSorting: false }),
+      column.accessor('figType', {
+        header: 'Type, crops',
+        cell: ({ row: { original: v } }) => (
+          <div className="flex flex-col whitespace-nowrap">
+            <span>{FIG_TYPE_SHORT[v.figType]}</span>
+            <span className="text-xs text-ink/70">{cropsOf(v)}</span>
+          </div>
+        ),
+      }),
       column.accessor((v) => {
         const c = chanceOf(v);
         return c.tooLittle ? -1 : (c.value ?? -1);
@@ -187,24 +199,25 @@ export function VarietyTable({ near, onlyIds }: { near: NearResponse; onlyIds?: 
         header: 'Trees / growers',
         sortDescFirst: true,
         cell: ({ row: { original: v } }) => (
-          <span className={`whitespace-nowrap tabular-nums ${Math.round(v.all.trees) <= THIN_TREES ? 'text-ink/60' : ''}`}>
-            {plural(Math.round(v.all.trees), 'tree')} / {plural(v.growers, 'grower')}
+          <span className={`whitespace-nowrap tabular-nums ${Math.round(v.all.trees) <= THIN_TREES ? 'text-ink/60' : ''}`} title={`${plural(Math.round(v.all.trees), 'tree')} from ${plural(v.growers, 'grower')}`}>
+            {Math.round(v.all.trees)} / {v.growers}
           </span>
         ),
       }),
-      column.accessor((v) => v.seasonFit.marginDays ?? Number.NEGATIVE_INFINITY, { id: 'margin', header: 'Season margin', sortDescFirst: true, cell: ({ row }) => <MarginCell v={row.original} /> }),
+      column.accessor((v) => v.seasonFit.marginDays ?? Number.NEGATIVE_INFINITY, { id: 'margin', header: 'Margin', sortDescFirst: true, cell: ({ row }) => <MarginCell v={row.original} /> }),
       column.display({
         id: 'more',
         header: () => <span className="sr-only">Details</span>,
         cell: ({ row: { original: v } }) => (
           <button
             type="button"
-            className="whitespace-nowrap rounded px-2 py-1 text-sm font-medium text-fig-600 hover:bg-fig-50"
+            className="whitespace-nowrap rounded border border-fig-100 px-2 py-1 text-sm font-medium text-fig-600 hover:bg-fig-50"
             aria-expanded={open.has(v.varietyId)}
             aria-label={`${open.has(v.varietyId) ? 'Hide' : 'Show'} details of ${v.name}`}
+            title="Details"
             onClick={() => toggle(v.varietyId)}
           >
-            {open.has(v.varietyId) ? 'Less ▴' : 'More ▾'}
+            {open.has(v.varietyId) ? '▴' : '▾'}
           </button>
         ),
       }),
@@ -229,7 +242,7 @@ export function VarietyTable({ near, onlyIds }: { near: NearResponse; onlyIds?: 
               <Fragment key={row.id}>
                 <tr className="border-t border-fig-100 align-middle" data-testid="variety-row">
                   {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className={`px-3 py-2 ${phoneHidden(cell.column.id)}`}>
+                    <td key={cell.id} className={`px-2 py-2 first:pl-3 ${phoneHidden(cell.column.id)}`}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ))}

@@ -36,7 +36,7 @@ export function VarietyProfile({ page }: { page: VarietyPage }) {
 
       {v.notes && <p className="text-ink/90">{v.notes}</p>}
 
-      <section className="grid gap-3 sm:grid-cols-4" aria-label="Evidence in the atlas">
+      <section className="grid grid-cols-2 gap-3 sm:grid-cols-4" aria-label="Evidence in the atlas">
         {[
           ['Reports', String(totals.reports)],
           ['Trees', String(totals.trees)],
@@ -55,7 +55,7 @@ export function VarietyProfile({ page }: { page: VarietyPage }) {
         <p className="mb-2 text-sm text-ink/70">
           {cells.length === 0
             ? 'No published reports yet.'
-            : `${plural(cells.length, 'grid cell')} with reports; ripe figs in ${ripenedCells} of them. Green: at least one tree ripened figs; rose: trees there never did. Each dot is a public 5 km cell, never a garden.`}
+            : `${plural(cells.length, 'grid cell')} with reports; ripe figs in ${ripenedCells} of them. Green: at least one tree ripened figs; rose: trees there never did. Each dot is a public grid cell of about ${units.distance(5)}, never a garden.`}
         </p>
         {cells.length > 0 && (
           <Suspense fallback={<div className="h-72 rounded-lg bg-fig-50" />}>
