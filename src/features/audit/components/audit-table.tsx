@@ -7,7 +7,8 @@ import type { AuditEntryView } from '@shared/schemas/audit';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { auditQueries } from '../api';
 import { DateText } from '../../units/components/date-text';
-import { useUnits } from '../../units/use-units';
+import { browserLocale, useUnits } from '../../units/use-units';
+import { formatDateTime } from '@shared/domain/units';
 
 const column = createColumnHelper<AuditEntryView>();
 
@@ -65,8 +66,7 @@ const ISO_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
 const readable = (s: string, dateTime: (iso: string) => string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)) ? dateTime(s) : s);
 
 /** Before → after for the keys that changed, one line each. */
-export function ChangeList({ before, after }: { before: unknown; after: unknown }) {
-  const { dateTime } = useUnits();
+export function ChangeList({ before, after, dateTime = (iso) => formatDateTime(iso, browserLocale()) }: { before: unknown; after: unknown; dateTime?: (iso: string) => string }) {
   const changes = auditChanges(before, after);
   if (changes.length === 0) return <span className="text-ink/70">no field changed</span>;
   return (
@@ -98,6 +98,7 @@ export function AuditTable() {
     setPage((p) => ({ ...p, offset: 0 }));
   };
 
+  const units = useUnits();
   const columns = useMemo(
     () => [
       column.accessor('createdAt', { header: 'When', cell: (c) => <DateText iso={c.getValue()} withTime className="whitespace-nowrap tabular-nums" /> }),
@@ -119,9 +120,9 @@ export function AuditTable() {
           );
         },
       }),
-      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} /> }),
+      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} dateTime={units.dateTime} /> }),
     ],
-    [],
+    [units.dateTime],
   );
 
   return (
