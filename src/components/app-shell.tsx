@@ -4,10 +4,10 @@ import { LABELS } from '@shared/domain/codes';
 import { hasRole, useCurrentUser, useSignOut } from '../features/auth/api';
 import { VerifyBanner } from '../features/email/components/verify-banner';
 import { Logo } from './logo';
-import { UnitsControl } from '../features/units/components/units-control';
+import { UnitsControl, UnitsMenu } from '../features/units/components/units-control';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
-  `rounded-md px-3 py-1.5 text-sm font-medium ${isActive ? 'bg-fig-100 text-fig-700' : 'text-ink/80 hover:bg-fig-50'}`;
+  `whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-medium ${isActive ? 'bg-fig-100 text-fig-700' : 'text-ink/80 hover:bg-fig-50'}`;
 
 const primaryClass = 'rounded-md bg-fig-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-fig-700';
 
@@ -87,7 +87,7 @@ export function AppShell() {
           </nav>
           <div className="ml-auto flex items-center gap-2 lg:ml-0">
             <div className="hidden items-center gap-2 lg:flex">
-              <UnitsControl compact />
+              <UnitsMenu />
               {account}
             </div>
             {primary}

@@ -102,7 +102,10 @@ describe('the grower’s day in the browser', () => {
     expect(await page.locator('#season-title').locator('..').textContent()).toMatch(/last spring frost \d{1,2} [A-Z][a-z]{2}/);
 
     // A visitor's choice lives in this browser.
-    await page.getByTestId('units-control').first().getByRole('combobox').nth(1).selectOption('km');
+    const menu = page.getByTestId('units-menu');
+    expect(await menu.locator('summary').textContent()).toContain('°C · mi');
+    await menu.locator('summary').click();
+    await menu.getByLabel('Distances in').selectOption('km');
     await expect.poll(() => page.getByText(/within 100 km/).count()).toBeGreaterThan(0);
     await page.reload();
     await expect.poll(() => page.getByText(/within 100 km/).count(), { timeout: 30_000 }).toBeGreaterThan(0);

@@ -3,6 +3,21 @@ import { useUnits } from '../use-units';
 
 const selectClass = 'rounded-md border border-fig-200 bg-white px-2 py-1 text-sm';
 
+/** The top bar's version: one small button ("°F · mi") that opens the two selects. */
+export function UnitsMenu() {
+  const { prefs } = useUnits();
+  return (
+    <details className="relative" data-testid="units-menu">
+      <summary className="cursor-pointer list-none rounded-md px-2 py-1.5 text-sm text-ink/80 hover:bg-fig-50" aria-label={`Units: °${prefs.temperature}, ${prefs.distance === 'mi' ? 'miles' : 'km'}. Change`}>
+        °{prefs.temperature} · {prefs.distance} <span aria-hidden="true">▾</span>
+      </summary>
+      <div className="absolute right-0 z-30 mt-1 rounded-md border border-fig-100 bg-white p-3 shadow-lg">
+        <UnitsControl compact />
+      </div>
+    </details>
+  );
+}
+
 /** Two small selects: °F or °C, km or miles. Saved to the account when signed in, to this browser otherwise. */
 export function UnitsControl({ compact = false }: { compact?: boolean }) {
   const id = useId();
