@@ -1,7 +1,7 @@
 import { setImmediate as nextTurn } from 'node:timers/promises';
 import { LABELS } from '../../shared/domain/codes';
 import { formatDate, formatDistance, type UnitPrefs } from '../../shared/domain/units';
-import { findUnitPrefs } from '../account/units.router';
+import { findUnitPrefs } from '../account/units.repo';
 import { followedNews, hasNews } from '../follows/follows-digest';
 import type { MailDeps } from './mailer';
 import { dueSubscriptions, findHomePlace, markDigestSent, nearbyRipenedReports, type NearbyRipening } from './digest.repo';
