@@ -85,10 +85,16 @@ describe('the grower’s day in the browser', () => {
     await page.getByRole('button', { name: `Follow ${DEMO_FOLLOWED_VARIETY}` }).click();
     await following.waitFor();
 
+    // Follow the place What ripens here is showing, named after its town.
+    await page.goto(site.url + ALBANY);
+    await page.getByRole('button', { name: 'Follow this place' }).click();
+    await page.getByRole('button', { name: 'Following this place ✓' }).waitFor({ timeout: 15_000 });
+
     await page.goto(`${site.url}/account`);
     const list = page.getByTestId('follow-list');
     await expect.poll(() => list.textContent(), { timeout: 15_000 }).toContain(DEMO_FOLLOWED_PLACE.name);
     expect(await list.textContent()).toContain(DEMO_FOLLOWED_VARIETY);
+    expect(await list.textContent()).toContain('Albany, NY');
   });
 
   it('speaks the grower’s units and dates: the browser’s language first, then the choice saved to the account', async () => {
