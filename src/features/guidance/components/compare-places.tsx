@@ -74,7 +74,7 @@ export function ComparePlaces({ a, b, form, radiusKm, onPoint, onForm, onRadius 
   const error = nearA.error ?? nearB.error;
   return (
     <div className="flex flex-col gap-6">
-      <div className="grid gap-4 md:grid-cols-2">
+      <div className="grid items-start gap-4 md:grid-cols-2">
         <SideSummary side={{ key: 'a', point: a }} near={nearA.data} form={form} radiusKm={radiusKm} onPoint={(p) => onPoint('a', p)} onForm={onForm} onRadius={onRadius} />
         <SideSummary side={{ key: 'b', point: b }} near={nearB.data} form={form} radiusKm={radiusKm} onPoint={(p) => onPoint('b', p)} onForm={onForm} onRadius={onRadius} />
       </div>
