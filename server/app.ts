@@ -31,6 +31,8 @@ import { createAtlasRouter } from './atlas/atlas.router';
 import { createStationsRouter } from './stations/stations.router';
 import { PAYMENTS_OFF, type Payments } from './support/payments';
 import { createSupportRouter, createSupportWebhookRouter } from './support/support.router';
+import { createFollowsRouter } from './follows/follows.router';
+import { createUnitsRouter } from './account/units.router';
 import { csrfGuard } from './middleware/csrf';
 import { jsonOrMultipartOnly } from './middleware/json-only';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
@@ -122,6 +124,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/guidance', createGuidanceRouter({ db }));
   api.use('/atlas/pins', createPinsRouter({ db }));
   api.use('/places', createPlacesRouter());
+  api.use('/follows', createFollowsRouter({ db }));
+  api.use('/account', createUnitsRouter({ db }));
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use('/support', createSupportRouter(support));

@@ -28,6 +28,8 @@ import EditorsSupportersRoute from './routes/editors-supporters';
 import UnsubscribeRoute from './routes/unsubscribe';
 import VerifyRoute from './routes/verify';
 import WhyNoFigsRoute from './routes/why-no-figs';
+import VarietyRoute from './routes/variety';
+import HereCompareRoute from './routes/here-compare';
 
 /** Every page of the client. Route files stay thin: they compose features. */
 export const routes = [
@@ -44,6 +46,8 @@ export const routes = [
       { path: 'my/reports', element: <MyReportsRoute /> },
       { path: 'my/reports/import', element: <ReportImportRoute /> },
       { path: 'here', element: <HereRoute /> },
+      { path: 'here/compare', element: <HereCompareRoute /> },
+      { path: 'varieties/:id', element: <VarietyRoute /> },
       { path: 'why-no-figs', element: <WhyNoFigsRoute /> },
       { path: 'verify', element: <VerifyRoute /> },
       { path: 'forgot-password', element: <ForgotPasswordRoute /> },

@@ -59,6 +59,8 @@ export function listCellReports(db: Db, query: CellQuery, limit = 50): { total: 
   const rows = db
     .select({
       id: reports.id,
+      // The variety's page exists only for accepted names (a proposed one links nowhere).
+      varietyId: sql<number | null>`CASE WHEN ${varieties.status} = 'accepted' THEN ${varieties.id} END`,
       varietyName: sql<string>`coalesce(${varieties.name}, ${reports.proposedVarietyName}, 'Unnamed variety')`,
       figType: sql<PinReportSummary['figType']>`coalesce(${varieties.figType}, 'unknown')`,
       crop: reports.crop,

@@ -14,6 +14,7 @@ import {
   WASP_AREA_STATUSES,
 } from '../../shared/domain/codes';
 import { MEMBERSHIP_STATUSES, MEMBERSHIP_TIERS, SUPPORT_CURRENCIES, SUPPORT_KINDS } from '../../shared/domain/support';
+import { DISTANCE_UNITS, TEMPERATURE_UNITS } from '../../shared/domain/units';
 
 /*
  * One file for the whole schema: drizzle.config.ts points here and `npm run db:generate` writes
@@ -38,6 +39,10 @@ export const users = sqliteTable('users', {
   isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
   /** Opt-in: show a supporter mark beside this grower's name on their reports while a membership is paid up. */
   supporterMark: integer('supporter_mark', { mode: 'boolean' }).notNull().default(false),
+  /** Units and date language the grower chose (null: the browser's language decides). drizzle/0017. */
+  temperatureUnit: text('temperature_unit', { enum: TEMPERATURE_UNITS }),
+  distanceUnit: text('distance_unit', { enum: DISTANCE_UNITS }),
+  dateLocale: text('date_locale'),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -385,6 +390,37 @@ export const devMailMessages = sqliteTable('dev_mail_messages', {
   html: text('html'),
   receivedAt: createdAt(),
 });
+
+/** Varieties a grower follows: new reports of them anywhere go into the weekly digest (drizzle/0017). */
+export const followedVarieties = sqliteTable(
+  'followed_varieties',
+  {
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    varietyId: integer('variety_id')
+      .notNull()
+      .references(() => varieties.id, { onDelete: 'cascade' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.varietyId] }), index('followed_varieties_variety_idx').on(t.varietyId)],
+);
+
+/** Places a grower follows (private to them): ripened reports around them go into the weekly digest. */
+export const followedPlaces = sqliteTable(
+  'followed_places',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    lat: real('lat').notNull(),
+    lon: real('lon').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('followed_places_user_idx').on(t.userId)],
+);
 
 /*
  * Supporters (drizzle/0020_supporters.sql). Memberships and contributions change only on the payment

@@ -1,4 +1,5 @@
 import { distanceKm, type LatLon } from '../../shared/domain/geo';
+import { formatDistance, type UnitPrefs } from '../../shared/domain/units';
 
 const RAD = Math.PI / 180;
 const COMPASS = ['north', 'north-east', 'east', 'south-east', 'south', 'south-west', 'west', 'north-west'] as const;
@@ -23,8 +24,8 @@ export function compassWord(bearingDeg: number): (typeof COMPASS)[number] {
  * public grid cell (never the exact point): "within about 5 km" inside the grid's own size,
  * otherwise "about 23 km north-east", rounded to whole km.
  */
-export function describePlace(home: LatLon, gridCell: LatLon): string {
+export function describePlace(home: LatLon, gridCell: LatLon, units: Pick<UnitPrefs, 'distance'> = { distance: 'km' }): string {
   const km = distanceKm(home, gridCell);
-  if (km < 5) return 'within about 5 km';
-  return `about ${Math.round(km)} km ${compassWord(initialBearingDeg(home, gridCell))}`;
+  if (km < 5) return units.distance === 'km' ? 'within about 5 km' : 'within about 3 mi';
+  return `about ${formatDistance(km, units)} ${compassWord(initialBearingDeg(home, gridCell))}`;
 }

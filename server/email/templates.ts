@@ -1,3 +1,4 @@
+import type { FollowedNews } from '../follows/follows-digest';
 import { renderEmail, type Block, type RenderedEmail } from './layout';
 
 /** Syconium's messages, in its own voice. Every function returns both parts. */
@@ -66,39 +67,71 @@ export const DIGEST_MAX_ROWS = 30;
 export function digestMessage(input: {
   displayName: string;
   homeName: string;
-  radiusKm: number;
+  /** The radius in the grower's unit, e.g. "50 km" or "31 mi". */
+  radius: string;
   since: string;
   items: DigestItem[];
+  /** News of the varieties and places the grower follows. */
+  followed?: FollowedNews;
+  varietyUrl?: (id: number) => string;
   atlasUrl: string;
   settingsUrl: string;
   unsubscribeUrl: string;
 }): RenderedEmail {
   const count = input.items.length;
   const varieties = new Set(input.items.map((i) => i.variety)).size;
+  const followed = followedBlocks(input.followed, input.radius, input.varietyUrl);
   return renderEmail({
-    subject: `${count} new ripening report${count === 1 ? '' : 's'} near ${input.homeName}`,
-    heading: `New ripening reports within ${input.radiusKm} km`,
+    subject: count ? `${count} new ripening report${count === 1 ? '' : 's'} near ${input.homeName}` : `News of the figs you follow`,
+    heading: count ? `New ripening reports within ${input.radius}` : 'News of the figs you follow',
     blocks: [
-      {
-        kind: 'p',
-        text: `Hello ${input.displayName}, since ${input.since} growers posted ${count} report${count === 1 ? '' : 's'} of figs that ripened within ${input.radiusKm} km of ${input.homeName}, covering ${varieties} variet${varieties === 1 ? 'y' : 'ies'}.`,
-      },
-      {
-        kind: 'table',
-        head: ['Variety', 'Season and crop', 'Grown', 'First ripe', `From ${input.homeName}`],
-        rows: input.items.slice(0, DIGEST_MAX_ROWS).map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} · grid ${i.grid}`]),
-      },
-      ...(count > DIGEST_MAX_ROWS ? [{ kind: 'p' as const, text: `…and ${count - DIGEST_MAX_ROWS} more on the atlas.` }] : []),
+      ...(count
+        ? ([
+            {
+              kind: 'p',
+              text: `Hello ${input.displayName}, since ${input.since} growers posted ${count} report${count === 1 ? '' : 's'} of figs that ripened within ${input.radius} of ${input.homeName}, covering ${varieties} variet${varieties === 1 ? 'y' : 'ies'}.`,
+            },
+            {
+              kind: 'table',
+              head: ['Variety', 'Season and crop', 'Grown', 'First ripe', `From ${input.homeName}`],
+              rows: input.items.slice(0, DIGEST_MAX_ROWS).map((i) => [i.variety, `${i.season}, ${i.crop}`, i.form, i.firstRipe, `${i.where} · grid ${i.grid}`]),
+            },
+            ...(count > DIGEST_MAX_ROWS ? [{ kind: 'p' as const, text: `…and ${count - DIGEST_MAX_ROWS} more on the atlas.` }] : []),
+          ] satisfies Block[])
+        : ([{ kind: 'p', text: `Hello ${input.displayName}, nothing new ripened near ${input.homeName} since ${input.since}, but there is news of what you follow.` }] satisfies Block[])),
+      ...followed,
       { kind: 'note', text: 'Places are shown on the atlas’s public 5 km grid; growers’ exact gardens stay private.' },
       { kind: 'button', label: 'See the atlas around your home', url: input.atlasUrl },
       SIGN_OFF,
     ],
     footer: [
-      { kind: 'p', text: `You get this weekly digest because you asked for it on your Syconium account page (radius ${input.radiusKm} km).` },
+      { kind: 'p', text: `You get this weekly digest because you asked for it on your Syconium account page (radius ${input.radius}).` },
       { kind: 'link', label: 'Change the radius', url: input.settingsUrl },
       { kind: 'link', label: 'Unsubscribe from this digest', url: input.unsubscribeUrl },
     ],
   });
+}
+
+/** The digest's part for followed varieties and places (nothing when there is no news). */
+function followedBlocks(news: FollowedNews | undefined, radius: string, varietyUrl?: (id: number) => string): Block[] {
+  if (!news) return [];
+  const blocks: Block[] = [];
+  if (news.varieties.length) {
+    blocks.push(
+      { kind: 'p', text: 'Varieties you follow, anywhere in the atlas:' },
+      {
+        kind: 'list',
+        items: news.varieties.map((v) => `${v.name}: ${v.reports} new ripened report${v.reports === 1 ? '' : 's'} from ${v.cells} place${v.cells === 1 ? '' : 's'}${varietyUrl ? ` (${varietyUrl(v.varietyId)})` : ''}`),
+      },
+    );
+  }
+  if (news.places.length) {
+    blocks.push(
+      { kind: 'p', text: `Places you follow (within ${radius}):` },
+      { kind: 'list', items: news.places.map((p) => `${p.name}: ${p.reports} new ripened report${p.reports === 1 ? '' : 's'} (${p.varieties.join(', ')})`) },
+    );
+  }
+  return blocks;
 }
 
 export interface AlertFlag {

@@ -1,5 +1,8 @@
 import { createRequire } from 'node:module';
+import KDBush from 'kdbush';
+import { distanceKm } from '../../shared/domain/geo';
 import type { Place } from '../../shared/schemas/places';
+import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 
 /*
  * The embedded gazetteer: GeoNames towns of 1,000+ people (CC-BY 4.0), shipped by the
@@ -39,6 +42,8 @@ function countryName(code: string): string {
 export interface Gazetteer {
   size: number;
   search: (q: string, limit: number) => Place[];
+  /** The town nearest a point within maxKm (towns of 1,000+ people), or null. */
+  nearest: (point: { lat: number; lon: number }, maxKm: number) => { place: Place; distanceKm: number } | null;
 }
 
 /** Every name of a town, and each of its later words ("new york city" is also found as "york"). */
@@ -72,8 +77,32 @@ export function createGazetteer(rows: CityRow[]): Gazetteer {
   keys.sort((a, b) => (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
 
   const MAX_SCAN = 20_000;
+  // Built on the first nearest-town question only: the search never needs it.
+  let pointIndex: KDBush | undefined;
+  const indexOfPoints = () => {
+    if (!pointIndex) {
+      pointIndex = new KDBush(places.length);
+      for (const p of places) pointIndex.add(p.lon, p.lat);
+      pointIndex.finish();
+    }
+    return pointIndex;
+  };
   return {
     size: places.length,
+    nearest(point, maxKm) {
+      const found = idsInRadiusBoxes(indexOfPoints(), point, maxKm)
+        .map((i) => ({ place: places[i]!, distanceKm: distanceKm(point, places[i]!) }))
+        .filter((c) => c.distanceKm <= maxKm)
+        .sort((a, b) => a.distanceKm - b.distanceKm);
+      // A city a grower would name beats the hamlet next door: the nearest town of 50,000 within
+      // 30 km, else of 10,000 within 20 km, else the nearest town at all (our choice, no source).
+      return (
+        found.find((c) => c.place.population >= 50_000 && c.distanceKm <= 30) ??
+        found.find((c) => c.place.population >= 10_000 && c.distanceKm <= 20) ??
+        found[0] ??
+        null
+      );
+    },
     search(q, limit) {
       const wanted = foldName(q);
       if (!wanted) return [];

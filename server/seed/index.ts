@@ -11,6 +11,7 @@ import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
 import { seedDemoSupporters } from '../support/support.seed';
+import { seedDemoFollows } from '../follows/follows.seed';
 import { seedDemoStations } from './demo-stations';
 import { seedDemoAtlas } from './demo-atlas-seed';
 import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
@@ -49,6 +50,7 @@ export async function seedDatabase(
   seedEditorsDemo(db);
   seedDemoDigest(db);
   seedDemoSupporters(db);
+  seedDemoFollows(db);
 }
 
 async function seedDemoAccounts(db: Db): Promise<void> {

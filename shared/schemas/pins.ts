@@ -103,6 +103,8 @@ export type CellQuery = z.output<typeof cellQuerySchema>;
 /** One report's public summary as the map's popup shows it. */
 export const pinReportSummarySchema = z.object({
   id: z.number().int(),
+  /** The accepted variety's id, for the link to its page (null for a name awaiting review). */
+  varietyId: z.number().int().nullable().optional(),
   varietyName: z.string(),
   figType: z.enum(FIG_TYPES),
   crop: z.enum(CROPS),

@@ -26,3 +26,14 @@ export type Place = z.infer<typeof placeSchema>;
 
 export const placeSearchResponseSchema = z.object({ places: z.array(placeSchema) });
 export type PlaceSearchResponse = z.infer<typeof placeSearchResponseSchema>;
+
+/** GET /api/places/nearest?lat=&lon=: the town to name a point by ("near Albany, NY"). */
+export const nearestPlaceQuerySchema = z.object({
+  lat: numberFromText(z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' })),
+  lon: numberFromText(z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' })),
+});
+export const nearestPlaceResponseSchema = z.object({ place: placeSchema.nullable(), distanceKm: z.number().nullable() });
+export type NearestPlaceResponse = z.infer<typeof nearestPlaceResponseSchema>;
+
+/** How far a town may be and still name a point. */
+export const NEAREST_PLACE_MAX_KM = 50;

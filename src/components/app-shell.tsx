@@ -4,9 +4,10 @@ import { LABELS } from '@shared/domain/codes';
 import { hasRole, useCurrentUser, useSignOut } from '../features/auth/api';
 import { VerifyBanner } from '../features/email/components/verify-banner';
 import { Logo } from './logo';
+import { UnitsControl, UnitsMenu } from '../features/units/components/units-control';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
-  `rounded-md px-3 py-1.5 text-sm font-medium ${isActive ? 'bg-fig-100 text-fig-700' : 'text-ink/80 hover:bg-fig-50'}`;
+  `whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-medium ${isActive ? 'bg-fig-100 text-fig-700' : 'text-ink/80 hover:bg-fig-50'}`;
 
 const primaryClass = 'rounded-md bg-fig-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-fig-700';
 
@@ -88,7 +89,10 @@ export function AppShell() {
             {links}
           </nav>
           <div className="ml-auto flex items-center gap-2 lg:ml-0">
-            <div className="hidden items-center gap-2 lg:flex">{account}</div>
+            <div className="hidden items-center gap-2 lg:flex">
+              <UnitsMenu />
+              {account}
+            </div>
             {primary}
             <button
               type="button"
@@ -105,6 +109,9 @@ export function AppShell() {
           <nav id="phone-menu" aria-label="Main" className="flex flex-col gap-1 border-t border-fig-100 px-4 py-3 lg:hidden">
             {links}
             <div className="mt-2 flex flex-col gap-1 border-t border-fig-100 pt-2">{account}</div>
+            <div className="mt-2 border-t border-fig-100 pt-2">
+              <UnitsControl compact />
+            </div>
           </nav>
         )}
       </header>

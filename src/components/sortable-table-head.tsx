@@ -6,7 +6,7 @@ const SORT_MARK = { asc: '▲', desc: '▼' } as const;
  * A table's header rows from TanStack Table: a sortable column's title is a button that toggles
  * its order, with the order shown as a mark and told to screen readers (aria-sort).
  */
-export function SortableTableHead<T>({ table, className }: { table: Table<T>; className: string }) {
+export function SortableTableHead<T>({ table, className, columnClassName }: { table: Table<T>; className: string; columnClassName?: (columnId: string) => string }) {
   return (
     <thead className={className}>
       {table.getHeaderGroups().map((group) => (
@@ -15,7 +15,7 @@ export function SortableTableHead<T>({ table, className }: { table: Table<T>; cl
             const sorted = header.column.getIsSorted();
             const title = header.isPlaceholder ? null : flexRender(header.column.columnDef.header, header.getContext());
             return (
-              <th key={header.id} scope="col" className="whitespace-nowrap px-3 py-2 font-medium" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
+              <th key={header.id} scope="col" className={`whitespace-nowrap px-3 py-2 font-medium ${columnClassName?.(header.column.id) ?? ''}`} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
                 {header.column.getCanSort() && !header.isPlaceholder ? (
                   <button type="button" className="inline-flex items-center gap-1 hover:text-fig-700" onClick={header.column.getToggleSortingHandler()}>
                     {title}

@@ -12,6 +12,7 @@ import { guidanceQueries } from '../../src/features/guidance/api';
 import { DiagnosisStepper } from '../../src/features/guidance/components/diagnosis-stepper';
 import { HereResults } from '../../src/features/guidance/components/here-view';
 import { stationQueries } from '../../src/features/stations/api';
+import { placeSearchQueries } from '../../src/features/places/api';
 import { sampleNear } from '../shared/atlas-samples';
 
 const query = { lat: 42.65, lon: -73.75, radiusKm: 100, form: 'container' } as const;
@@ -20,6 +21,11 @@ const query = { lat: 42.65, lon: -73.75, radiusKm: 100, form: 'container' } as c
 function setup(children: ReactNode) {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false, staleTime: Infinity } } });
   client.setQueryData(authQueries.me().queryKey, { user: null });
+  // GeoNames: Albany, NY (coordinates and population recalled from memory, rounded).
+  client.setQueryData(placeSearchQueries.nearest(query.lat, query.lon).queryKey, {
+    place: { id: 5106834, name: 'Albany', context: 'NY, United States', country: 'US', lat: 42.653, lon: -73.756, population: 97_000 },
+    distanceKm: 0.6,
+  });
   client.setQueryData(
     stationQueries.detail(3).queryKey,
     stationDetailSchema.parse({
@@ -61,28 +67,71 @@ function setup(children: ReactNode) {
 }
 
 describe('HereResults', () => {
-  it('shows the season with what it rests on, and the ranked varieties with their evidence', () => {
+  it('names the place, shows the season, and one row per variety with its chance, evidence and margin', () => {
     setup(<HereResults near={sampleNear} query={query} />);
+    expect(screen.getByTestId('here-title')).toHaveTextContent('What ripens near Albany, NY');
     expect(screen.getByTestId('season-days50')).toHaveTextContent('166 days');
     expect(screen.getByText(/Rests on 2 stations and 14 grower frost reports; nearest station 9 km away/)).toBeInTheDocument();
     expect(screen.getByTestId('wasp-status')).toHaveTextContent('Not recorded here');
 
     const rows = screen.getAllByTestId('variety-row');
-    expect(rows.map((r) => within(r).getByRole('heading').textContent)).toEqual(['Lantern Amber', 'Terrace Gold']);
+    expect(rows.map((r) => within(r).getByRole('link').textContent)).toEqual(['Lantern Amber', 'Terrace Gold']);
+    expect(within(rows[0]!).getByRole('link')).toHaveAttribute('href', '/varieties/11');
     const first = within(rows[0]!);
-    expect(first.getByText('16 reports · 8 trees · 5 growers')).toBeInTheDocument();
-    expect(first.getByRole('img', { name: 'Ripened 75 %, 90 % interval 48 % to 90 %, adjusted 72 %' })).toBeInTheDocument();
-    expect(first.getByText(/166 days here vs 125 needed \(reports elsewhere\), head start 20 days, margin \+61 days/)).toBeInTheDocument();
-    expect(first.queryByTestId('wasp-warning')).toBeNull();
-    // The Smyrna type stays in the list, marked and explained.
-    expect(within(rows[1]!).getByTestId('wasp-warning')).toHaveTextContent('Needs the fig wasp, which is not recorded here');
+    // No model answer yet: the adjusted share with the local 90 % interval.
+    expect(first.getByRole('img', { name: 'Chance 72 %, likely between 48 % and 90 %, from 8 trees' })).toBeInTheDocument();
+    expect(first.getByTitle('8 trees from 5 growers')).toHaveTextContent('8 / 5');
+    expect(first.getByText('+61 days')).toBeInTheDocument();
+    // The Smyrna type stays in the list, marked; the pollination sentence is said once per fig type.
+    expect(within(rows[1]!).getByText(/needs the wasp/)).toBeInTheDocument();
+    const notes = within(screen.getByTestId('pollination-notes')).getAllByRole('listitem');
+    expect(notes).toHaveLength(2);
+    expect(notes[0]).toHaveTextContent(/^Common/);
+    expect(notes[1]).toHaveTextContent(/^Smyrna/);
   });
 
-  it('filters to varieties that ripened in seasons as short as this one', async () => {
+  it('opens a row for its details and sorts by a column', async () => {
     setup(<HereResults near={sampleNear} query={query} />);
-    await userEvent.click(screen.getByLabelText(/Only varieties that ripened in places with a season as short/));
-    expect(await screen.findByTestId('short-season-list')).toHaveTextContent('shortest season with ripe figs: 142 days');
-    expect(screen.getAllByTestId('variety-row').map((r) => within(r).getByRole('heading').textContent)).toEqual(['Lantern Amber']);
+    const user = userEvent.setup();
+    await user.click(screen.getByRole('button', { name: 'Show details of Lantern Amber' }));
+    expect(screen.getByTestId('variety-details')).toHaveTextContent(/166 days here vs 125 needed \(reports elsewhere\), head start 20 days/);
+    await user.click(screen.getByRole('button', { name: /Trees \/ growers/ }));
+    // Fewest trees first would be Terrace Gold (3); sorting a count starts with the largest.
+    expect(screen.getAllByTestId('variety-row').map((r) => within(r).getByRole('link').textContent)).toEqual(['Lantern Amber', 'Terrace Gold']);
+    await user.click(screen.getByRole('button', { name: /Trees \/ growers/ }));
+    expect(screen.getAllByTestId('variety-row').map((r) => within(r).getByRole('link').textContent)).toEqual(['Terrace Gold', 'Lantern Amber']);
+  });
+
+  it('draws the calibrated chance when present, says when the evidence is too little, and marks one-tree figures', () => {
+    const near = nearResponseSchema.parse({
+      ...sampleNear,
+      varieties: [
+        { ...sampleNear.varieties[0]!, chance: { probability: 0.64, low: 0.5, high: 0.76, enoughEvidence: true, trees: 12 } },
+        { ...sampleNear.varieties[1]!, chance: { probability: 0.2, low: 0, high: 0.9, enoughEvidence: false, trees: 1 } },
+        { ...sampleNear.varieties[0]!, varietyId: 12, rank: 3, name: 'Single Tree Fig', all: { ...sampleNear.varieties[0]!.all, trees: 1 } },
+      ],
+    });
+    setup(<HereResults near={near} query={query} />);
+    const rows = screen.getAllByTestId('variety-row');
+    expect(within(rows[0]!).getByRole('img', { name: 'Chance 64 %, likely between 50 % and 76 %, from 12 trees' })).toBeInTheDocument();
+    expect(within(rows[1]!).getByTestId('chance-too-little')).toHaveTextContent('too little evidence (1 tree)');
+    expect(within(rows[2]!).getByTestId('chance-thin')).toHaveTextContent('only 1 tree');
+    expect(document.body.textContent).not.toMatch(/\b1 trees\b/);
+  });
+
+  it('puts the short-season summary on top and filters the table to it', async () => {
+    setup(<HereResults near={sampleNear} query={query} />);
+    expect(screen.getByTestId('short-season-summary')).toHaveTextContent('shortest 142 days');
+    await userEvent.click(screen.getByLabelText('Show only these in the table'));
+    expect(screen.getAllByTestId('variety-row').map((r) => within(r).getByRole('link').textContent)).toEqual(['Lantern Amber']);
+  });
+
+  it('follows the grower’s units: miles and °C', () => {
+    localStorage.setItem('syconium.units', JSON.stringify({ temperature: 'C', distance: 'mi', locale: 'en-GB' }));
+    setup(<HereResults near={sampleNear} query={query} />);
+    // 100 km = 62 mi (NIST: 1 mi = 1.609344 km); 32 °F = 0 °C.
+    expect(screen.getByText(/within 62 mi/)).toBeInTheDocument();
+    expect(screen.getByText(/At 0 °C\./)).toBeInTheDocument();
   });
 
   it('says honestly when there is no season data in range', () => {
@@ -93,7 +142,7 @@ describe('HereResults', () => {
     });
     setup(<HereResults near={empty} query={query} />);
     expect(screen.getByText(/No season data within 100 km/)).toBeInTheDocument();
-    expect(screen.getByLabelText(/Only varieties that ripened/)).toBeDisabled();
+    expect(screen.getByText(/No season length is known within range/)).toBeInTheDocument();
     expect(screen.getByText(/No reports of any variety within 100 km yet/)).toBeInTheDocument();
   });
 });

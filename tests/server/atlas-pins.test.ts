@@ -121,7 +121,7 @@ describe('GET /api/atlas/pins/cell', () => {
     expect(body.total).toBe(2);
     expect(body.reports.map((r) => r.id)).toContain(firstId);
     expect(body.reports[0]).toMatchObject({ varietyName: 'Lantern Amber', figType: 'common', season: 2024 });
-    expect(Object.keys(body.reports[0]!).sort()).toEqual(['crop', 'figType', 'form', 'id', 'outcome', 'season', 'varietyName']);
+    expect(Object.keys(body.reports[0]!).sort()).toEqual(['crop', 'figType', 'form', 'id', 'outcome', 'season', 'varietyId', 'varietyName']);
     const filtered = cellResponseSchema.parse((await ctx.agent().get(`/api/atlas/pins/cell?lat=${lat}&lon=${lon}&crop=breba`)).body);
     expect(filtered.total).toBe(1);
   });

@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { placeSearchResponseSchema } from '@shared/schemas/places';
+import { nearestPlaceResponseSchema, placeSearchResponseSchema, type Place } from '@shared/schemas/places';
 import { savedPlaceListSchema, savedPlaceResponseSchema, type SavedPlaceInput, type SavedPlacePatch } from '@shared/schemas/saved-places';
 import { apiFetch } from '../../lib/api-client';
 
@@ -18,7 +18,20 @@ export const placeSearchQueries = {
       enabled: q.trim().length >= 2,
       staleTime: 5 * 60_000,
     }),
+  /** The town that names a point ("near Albany, NY"); the answer is cached by the server for an hour. */
+  nearest: (lat: number, lon: number) =>
+    queryOptions({
+      queryKey: [...placeSearchQueries.all, 'nearest', lat.toFixed(3), lon.toFixed(3)],
+      queryFn: () => apiFetch(`/api/places/nearest?${new URLSearchParams({ lat: lat.toFixed(4), lon: lon.toFixed(4) })}`, nearestPlaceResponseSchema),
+      staleTime: 60 * 60_000,
+    }),
 };
+
+/** A town as a grower names it: "Albany, NY" in the US, "Lyon, France" elsewhere. */
+export function placeLabel(place: Pick<Place, 'name' | 'context' | 'country'>): string {
+  const [first, ...rest] = place.context.split(', ');
+  return place.country === 'US' && rest.length ? `${place.name}, ${first}` : `${place.name}, ${place.context}`;
+}
 
 export function useSavePlace() {
   const queryClient = useQueryClient();

@@ -8,6 +8,7 @@ import {
   type CatalogueQuery,
   type VarietyInput,
 } from '@shared/schemas/varieties';
+import { varietyPageSchema } from '@shared/schemas/variety-page';
 import { apiFetch } from '../../lib/api-client';
 
 const toSearch = (params: Record<string, string | number | undefined>) =>
@@ -48,3 +49,8 @@ export const useMergeVariety = () =>
 export const useImportCatalogue = () => useCatalogueMutation((csv: string) => apiFetch('/api/varieties/import', catalogueImportResultSchema, { method: 'POST', json: { csv } }));
 
 export const EXPORT_URL = '/api/varieties/export.csv';
+
+/** A variety's own page (public; `following` reflects the signed-in viewer). */
+export const varietyPageQueries = {
+  page: (id: number) => queryOptions({ queryKey: ['variety-page', id], queryFn: () => apiFetch(`/api/varieties/${id}/page`, varietyPageSchema) }),
+};

@@ -161,6 +161,30 @@ const CASES: Case[] = [
   { route: 'GET /api/atlas/pins', expected: everyone(200), call: () => get('/api/atlas/pins?bbox=-75,41,-72,44&zoom=9') },
   { route: 'GET /api/atlas/pins/cell', expected: everyone(200), call: () => get(`/api/atlas/pins/cell?${cell()}`) },
   { route: 'GET /api/places', expected: everyone(200), call: () => get('/api/places?q=Albany') },
+  { route: 'GET /api/places/nearest', expected: everyone(200), call: () => get(`/api/places/nearest?${NEAR}`) },
+  { route: 'GET /api/varieties/:id/page', expected: everyone(200), call: (w) => get(`/api/varieties/${w.varietyId}/page`) },
+  { route: 'GET /api/account/units', expected: signedIn(200), call: () => get('/api/account/units') },
+  { route: 'PUT /api/account/units', expected: signedIn(200), call: () => ({ method: 'put', path: '/api/account/units', body: { temperature: 'C', distance: 'km', locale: 'en-GB' } }) },
+  { route: 'GET /api/follows', expected: signedIn(200), call: () => get('/api/follows') },
+  { route: 'POST /api/follows', expected: signedIn(201), call: (w) => ({ method: 'post', path: '/api/follows', body: { kind: 'variety', varietyId: w.varietyId } }) },
+  {
+    route: 'DELETE /api/follows/varieties/:id',
+    note: 'each grower unfollows only their own follow; the owner follows first',
+    expected: ownerPrivate(200),
+    call: async (w, role) => {
+      if (role === 'owner') await w.agents.owner.post('/api/follows').send({ kind: 'variety', varietyId: w.varietyId });
+      else if (role !== 'visitor') await w.agents[role].delete(`/api/follows/varieties/${w.varietyId}`);
+      return { method: 'delete', path: `/api/follows/varieties/${w.varietyId}` };
+    },
+  },
+  {
+    route: 'DELETE /api/follows/places/:id',
+    expected: ownerPrivate(200),
+    call: async (w) => {
+      const list = await w.agents.owner.post('/api/follows').send({ kind: 'place', name: uniqueName('Followed'), lat: 41.1, lon: -74.2 });
+      return { method: 'delete', path: `/api/follows/places/${list.body.places.at(-1).id}` };
+    },
+  },
   { route: 'GET /api/moderation/queue', expected: editors(200), call: () => get('/api/moderation/queue') },
   { route: 'GET /api/moderation/summary', expected: editors(200), call: () => get('/api/moderation/summary') },
   { route: 'POST /api/moderation/reports/:id/reviewed', expected: editors(204), call: async (w) => ({ method: 'post', path: `/api/moderation/reports/${await w.report()}/reviewed` }) },

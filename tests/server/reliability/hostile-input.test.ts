@@ -77,6 +77,8 @@ const JSON_WRITES: WriteRoute[] = [
   { route: 'PATCH /api/saved-places/:id', role: 'owner', method: 'patch', path: () => `/api/saved-places/${ids.place}`, keys: ['name', 'lat', 'lon', 'form', 'isHome'] },
   { route: 'POST /api/support/checkout', role: 'owner', method: 'post', path: () => '/api/support/checkout', keys: ['kind', 'tier', 'amount', 'currency'] },
   { route: 'PUT /api/support/membership/mark', role: 'owner', method: 'put', path: () => '/api/support/membership/mark', keys: ['showMark'] },
+  { route: 'POST /api/follows', role: 'owner', method: 'post', path: () => '/api/follows', keys: ['kind', 'varietyId', 'name', 'lat', 'lon'] },
+  { route: 'PUT /api/account/units', role: 'owner', method: 'put', path: () => '/api/account/units', keys: ['temperature', 'distance', 'locale'] },
 ];
 
 /** Routes whose path carries ids: fuzzed with hostile ids (DELETE and body-less writes are covered here). */
@@ -84,7 +86,7 @@ const PARAM_ROUTES = [
     'GET /api/reports/:id', 'PATCH /api/reports/:id', 'DELETE /api/reports/:id', 'POST /api/reports/:id/publish', 'POST /api/reports/:id/hide', 'POST /api/reports/:id/restore',
     'POST /api/reports/:id/flags', 'DELETE /api/reports/:id/photos/:id', 'GET /api/varieties/:id', 'PATCH /api/varieties/:id', 'POST /api/varieties/:id/merge', 'GET /api/stations/:id',
     'DELETE /api/stations/:id', 'PATCH /api/saved-places/:id', 'DELETE /api/saved-places/:id', 'GET /api/wasp-areas/records/:id', 'POST /api/wasp-areas/:id/retire',
-    'PATCH /api/users/:id/role', 'POST /api/moderation/reports/:id/reviewed', 'POST /api/moderation/flags/:id/clear', 'GET /uploads/reports/:id',
+    'PATCH /api/users/:id/role', 'POST /api/moderation/reports/:id/reviewed', 'DELETE /api/follows/varieties/:id', 'DELETE /api/follows/places/:id', 'GET /api/varieties/:id/page', 'POST /api/moderation/flags/:id/clear', 'GET /uploads/reports/:id',
   ];
 
 const UPLOADS: { route: string; role: Role; path: () => string; field: string; fields?: () => Record<string, string> }[] = [

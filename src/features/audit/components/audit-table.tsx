@@ -6,6 +6,9 @@ import { auditChanges } from '@shared/domain/audit-diff';
 import type { AuditEntryView } from '@shared/schemas/audit';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { auditQueries } from '../api';
+import { DateText } from '../../units/components/date-text';
+import { browserLocale, useUnits } from '../../units/use-units';
+import { formatDateTime } from '@shared/domain/units';
 
 const column = createColumnHelper<AuditEntryView>();
 
@@ -60,10 +63,10 @@ function entityHref(type: string, id: number | null): string | null {
 
 const ISO_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
 /** Timestamps in before/after read as local dates and times, not raw ISO strings. */
-const readable = (s: string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)) ? new Date(s).toLocaleString() : s);
+const readable = (s: string, dateTime: (iso: string) => string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)) ? dateTime(s) : s);
 
 /** Before → after for the keys that changed, one line each. */
-export function ChangeList({ before, after }: { before: unknown; after: unknown }) {
+export function ChangeList({ before, after, dateTime = (iso) => formatDateTime(iso, browserLocale()) }: { before: unknown; after: unknown; dateTime?: (iso: string) => string }) {
   const changes = auditChanges(before, after);
   if (changes.length === 0) return <span className="text-ink/70">no field changed</span>;
   return (
@@ -72,7 +75,7 @@ export function ChangeList({ before, after }: { before: unknown; after: unknown 
         <div key={c.key} className="contents">
           <dt className="font-medium text-ink/80">{c.key}</dt>
           <dd className="break-words">
-            <del className="text-red-800 decoration-red-800/50">{truncate(readable(c.before))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(readable(c.after))}</ins>
+            <del className="text-red-800 decoration-red-800/50">{truncate(readable(c.before, dateTime))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(readable(c.after, dateTime))}</ins>
           </dd>
         </div>
       ))}
@@ -95,9 +98,10 @@ export function AuditTable() {
     setPage((p) => ({ ...p, offset: 0 }));
   };
 
+  const units = useUnits();
   const columns = useMemo(
     () => [
-      column.accessor('createdAt', { header: 'When', cell: (c) => <time dateTime={c.getValue()} className="whitespace-nowrap tabular-nums">{new Date(c.getValue()).toLocaleString()}</time> }),
+      column.accessor('createdAt', { header: 'When', cell: (c) => <DateText iso={c.getValue()} withTime className="whitespace-nowrap tabular-nums" /> }),
       column.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? <span className="text-ink/70">system</span> }),
       column.accessor('action', { header: 'What', cell: (c) => <span title={c.getValue()}>{actionLabel(c.getValue())}</span> }),
       column.accessor((e) => `${e.entityType}${e.entityId ? ` #${e.entityId}` : ''}`, {
@@ -116,9 +120,9 @@ export function AuditTable() {
           );
         },
       }),
-      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} /> }),
+      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} dateTime={units.dateTime} /> }),
     ],
-    [],
+    [units.dateTime],
   );
 
   return (

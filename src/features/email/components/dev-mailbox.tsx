@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
 import { emailQueries, useClearDevMail } from '../api';
+import { DateText } from '../../units/components/date-text';
 
 /** Links in a text part, so a message's verify/reset/unsubscribe link is one click away. */
 const linksIn = (text: string | null) => [...new Set(text?.match(/https?:\/\/[^\s<>"]+/g) ?? [])];
@@ -29,7 +30,7 @@ function MessageView({ id }: { id: number }) {
       <header>
         <h2 className="text-lg font-semibold text-fig-900">{m.subject || '(no subject)'}</h2>
         <p className="text-sm text-ink/70">
-          From {m.from} to {m.to} · {new Date(m.receivedAt).toLocaleString()}
+          From {m.from} to {m.to} · <DateText iso={m.receivedAt} withTime />
         </p>
       </header>
       <div role="tablist" className="flex gap-1">
@@ -104,7 +105,7 @@ export function DevMailbox() {
                 >
                   <span className="block truncate text-sm font-medium">{m.subject || '(no subject)'}</span>
                   <span className="block truncate text-xs text-ink/70">
-                    to {m.to} · {new Date(m.receivedAt).toLocaleTimeString()}
+                    to {m.to} · <DateText iso={m.receivedAt} withTime />
                   </span>
                 </button>
               </li>

@@ -4,8 +4,13 @@ import { GROWING_FORMS, LABELS, type GrowingForm } from '@shared/domain/codes';
 import { Button } from '../../../components/button';
 import { useCurrentUser } from '../../auth/api';
 import { placeSearchQueries, savedPlaceQueries } from '../../places/api';
+import { useUnits } from '../../units/use-units';
 
-export const RADII_KM = [25, 50, 100, 200, 300] as const;
+/** The grower's round radius choices, plus the current one when it is not among them (a link, or the other unit). */
+export function radiusOptions(choices: { km: number; label: string }[], currentKm: number, format: (km: number) => string) {
+  const list = choices.some((c) => Math.abs(c.km - currentKm) < 0.01) ? choices : [...choices, { km: currentKm, label: format(currentKm) }];
+  return list.sort((a, b) => a.km - b.km);
+}
 
 export interface PickedPoint {
   lat: number;
@@ -41,6 +46,7 @@ export function PlacePicker({
 }) {
   const id = useId();
   const { user } = useCurrentUser();
+  const units = useUnits();
   const [q, setQ] = useState('');
   const debounced = useDebounced(q.trim(), 250);
   const search = useQuery(placeSearchQueries.search(debounced));
@@ -156,9 +162,9 @@ export function PlacePicker({
             Look within
           </label>
           <select id={`${id}-radius`} value={radiusKm} onChange={(e) => onRadius(Number(e.target.value))} className={selectClass}>
-            {[...new Set([...RADII_KM, radiusKm])].sort((a, b) => a - b).map((r) => (
-              <option key={r} value={r}>
-                {r} km
+            {radiusOptions(units.radiusChoices, radiusKm, units.distance).map((r) => (
+              <option key={r.km} value={r.km}>
+                {r.label}
               </option>
             ))}
           </select>

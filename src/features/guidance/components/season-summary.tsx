@@ -1,11 +1,13 @@
 import type { NearResponse } from '@shared/schemas/atlas';
-import { doyLabel } from '@shared/domain/guidance';
 import { MethodNote } from '../../../components/method-note';
+import { useUnits } from '../../units/use-units';
+import { plural } from '@shared/domain/units';
 
 const days = (v: number | null) => (v === null ? '—' : `${Math.round(v)} days`);
 
 /** The frost-free season at the point and the wasp's status, with what the numbers rest on. */
 export function SeasonSummary({ near }: { near: NearResponse }) {
+  const units = useUnits();
   const { season, wasp } = near;
   const noData = season.days50 === null;
   return (
@@ -16,7 +18,7 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
         </h2>
         {noData ? (
           <p className="mt-2 text-ink/80">
-            <strong className="font-medium">No season data within {near.radiusKm} km.</strong> No climate station and no grower’s frost dates lie in range, so we do not guess. Try a
+            <strong className="font-medium">No season data within {units.distance(near.radiusKm)}.</strong> No climate station and no grower’s frost dates lie in range, so we do not guess. Try a
             larger radius.
           </p>
         ) : (
@@ -44,19 +46,19 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
               </div>
             </dl>
             <p className="mt-2 text-sm text-ink/80">
-              At {season.thresholdF} °F.
+              At {units.temperature(season.thresholdF)}.
               {season.lastSpringDoy50 !== null && season.firstFallDoy50 !== null && (
                 <>
                   {' '}
-                  Typical last spring frost {doyLabel(season.lastSpringDoy50)}, first fall frost {doyLabel(season.firstFallDoy50)}.
+                  Typical last spring frost {units.dayOfYear(season.lastSpringDoy50)}, first fall frost {units.dayOfYear(season.firstFallDoy50)}.
                 </>
               )}
             </p>
           </>
         )}
         <MethodNote className="mt-2" method={season.method}>
-          Rests on {season.stationCount} station{season.stationCount === 1 ? '' : 's'} and {season.reportFrostCount} grower frost report{season.reportFrostCount === 1 ? '' : 's'}
-          {season.nearestStationKm !== null ? `; nearest station ${Math.round(season.nearestStationKm)} km away` : ''}.
+          Rests on {plural(season.stationCount, 'station')} and {plural(season.reportFrostCount, 'grower frost report')}
+          {season.nearestStationKm !== null ? `; nearest station ${units.distance(season.nearestStationKm)} away` : ''}.
         </MethodNote>
       </div>
       <div className={`rounded-lg border p-4 ${wasp.established ? 'border-leaf-300 bg-leaf-100/50' : 'border-fig-100 bg-white'}`}>
@@ -70,7 +72,7 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
           <ul className="mt-2 text-xs text-ink/70">
             {wasp.areas.map((a) => (
               <li key={a.id}>
-                {a.name} (observed {a.observedOn}; {a.source})
+                {a.name} (observed {units.date(a.observedOn)}; {a.source})
               </li>
             ))}
           </ul>

@@ -1,8 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { doyLabel } from '@shared/domain/guidance';
 import { MethodNote } from '../../../components/method-note';
 import { stationQueries } from '../../stations/api';
+import { useUnits } from '../../units/use-units';
 
 /** The same words as the season cards above the chart. */
 const YEAR_LABEL: Record<number, string> = { 10: 'Short year', 50: 'Typical year', 90: 'Long year' };
@@ -12,6 +12,8 @@ const YEAR_LABEL: Record<number, string> = { 10: 'Short year', 50: 'Typical year
  * last spring freeze to the first fall freeze (the frost-free span), drawn on a day-of-year axis.
  */
 export function StationFrostChart({ stationId, distanceKm }: { stationId: number; distanceKm: number }) {
+  const units = useUnits();
+  const doyLabel = units.dayOfYear;
   const { data, error, isLoading } = useQuery(stationQueries.detail(stationId));
   if (isLoading) return <p className="text-sm text-ink/70">Loading the station…</p>;
   if (error) return <p className="text-sm text-red-700">{error.message}</p>;
@@ -49,12 +51,12 @@ export function StationFrostChart({ stationId, distanceKm }: { stationId: number
         <MethodNote
           method={
             <>
-              Frost-free span at 32 °F, as in national climate normals: in the short year (10 %) a freeze after the spring date, or before the fall date, comes in only 1 year of 10
+              Frost-free span at {units.temperature(32)}, as in national climate normals: in the short year (10 %) a freeze after the spring date, or before the fall date, comes in only 1 year of 10
               (a safe span); in the typical year (50 %) in half the years; in the long year (90 %) in 9 years of 10.
             </>
           }
         >
-          Nearest station: {data.station.name}, {Math.round(distanceKm)} km away. Each bar runs from the last spring freeze to the first fall freeze:{' '}
+          Nearest station: {data.station.name}, {units.distance(distanceKm)} away. Each bar runs from the last spring freeze to the first fall freeze:{' '}
           {rows.map((r) => `${r.level.toLowerCase()} ${r.spring} to ${r.fall}`).join('; ')}.
         </MethodNote>
       </figcaption>

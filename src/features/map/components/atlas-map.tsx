@@ -22,6 +22,7 @@ import {
 import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
 import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
+import { useUnits } from '../../units/use-units';
 
 export interface AtlasMapHandle {
   flyTo: (view: MapView) => void;
@@ -56,6 +57,7 @@ function viewportOf(map: MapLibreMap): Viewport {
  * switchable wasp-area and frost-free-season layers. Clicks open popups; a cluster zooms in.
  */
 export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange }, ref) {
+  const units = useUnits();
   const mapRef = useRef<MapRef>(null);
   const [viewport, setViewport] = useState<Viewport | null>(null);
   const [popup, setPopup] = useState<PopupState | null>(null);
@@ -186,7 +188,7 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         style={{ position: 'absolute', inset: 0 }}
       >
         <NavigationControl position="top-right" showCompass={false} />
-        <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
+        <ScaleControl position="bottom-right" unit={units.prefs.distance === 'mi' ? 'imperial' : 'metric'} maxWidth={110} />
 
         {/* Layer order, whichever layer is switched on first: wasp areas under the report pins,
             climate stations over them (the stations are what that layer is switched on to see). */}

@@ -6,6 +6,7 @@ import { Field } from '../../../components/form-field';
 import { exportUrl } from '../../reports/api';
 import { mapQueries } from '../api';
 import type { OverlayName } from '../url-state';
+import { useUnits } from '../../units/use-units';
 
 const FIRST_SEASON = 2015;
 const seasons = Array.from({ length: new Date().getFullYear() - FIRST_SEASON + 1 }, (_, i) => new Date().getFullYear() - i);
@@ -22,6 +23,7 @@ interface FiltersPanelProps {
 
 /** The atlas's filters and layer switches; every change lands in the URL, so the view can be shared. */
 export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange, onOverlaysChange }: FiltersPanelProps) {
+  const units = useUnits();
   const varieties = useQuery(mapQueries.varieties());
   const [copied, setCopied] = useState(false);
   const set = <K extends keyof PinFilters>(key: K, value: PinFilters[K] | undefined) => onFiltersChange({ ...filters, [key]: value });
@@ -154,7 +156,7 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           <input type="checkbox" className="mt-0.5 h-4 w-4 accent-fig-600" checked={overlays.includes('frost')} onChange={(e) => toggle('frost', e.target.checked)} />
           <span>
             Frost-free season
-            <span className="block text-xs text-ink/70">Climate stations, coloured by days between frosts (32 °F) in half the years.</span>
+            <span className="block text-xs text-ink/70">Climate stations, coloured by days between frosts ({units.temperature(32)}) in half the years.</span>
           </span>
         </label>
       </fieldset>

@@ -2,12 +2,14 @@ import { useState } from 'react';
 import { FROST_BANDS } from '../frost-bands';
 import { MAP_COLORS as C } from '../palette';
 import type { OverlayName } from '../url-state';
+import { useUnits } from '../../units/use-units';
 
 /**
  * What the marks on the map mean (the frost bands and wasp areas only when their layer is on), and
  * whose data the base map is drawn from. Folds away on a phone.
  */
 export function MapLegend({ overlays, openAtStart }: { overlays: OverlayName[]; openAtStart: boolean }) {
+  const units = useUnits();
   const [open, setOpen] = useState(openAtStart);
   return (
     <section aria-label="Map legend" className="pointer-events-auto max-w-[15rem] rounded-lg border border-fig-100 bg-paper/95 text-xs text-ink shadow-sm backdrop-blur">
@@ -39,7 +41,7 @@ export function MapLegend({ overlays, openAtStart }: { overlays: OverlayName[]; 
           </ul>
           {overlays.includes('frost') && (
             <div className="mt-2 border-t border-fig-100 pt-2">
-              <p className="font-medium">Frost-free days (32 °F, half the years)</p>
+              <p className="font-medium">Frost-free days ({units.temperature(32)}, half the years)</p>
               <ul className="mt-1 grid grid-cols-1 gap-0.5">
                 {FROST_BANDS.map((b) => (
                   <li key={b.from} className="flex items-center gap-2">

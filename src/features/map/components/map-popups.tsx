@@ -4,6 +4,9 @@ import { LABELS } from '@shared/domain/codes';
 import type { PinFilters } from '@shared/schemas/pins';
 import { mapQueries } from '../api';
 import { frostBandFor } from '../frost-bands';
+import { DateText } from '../../units/components/date-text';
+import { VarietyLink } from '../../varieties/components/variety-link';
+import { useUnits } from '../../units/use-units';
 
 const OUTCOME_TONE: Record<string, string> = {
   ripened: 'bg-leaf-100 text-leaf-700',
@@ -35,7 +38,7 @@ export function CellPopup({ lat, lon, reports, filters }: { lat: number; lon: nu
         {shown.map((r) => (
           <li key={r.id} className="rounded-md border border-fig-100 bg-white p-2">
             <div className="flex items-baseline justify-between gap-2">
-              <span className="font-medium text-fig-700">{r.varietyName}</span>
+              <VarietyLink id={r.varietyId} name={r.varietyName} className="font-medium text-fig-700" />
               <span className="text-xs text-ink/70">{r.season}</span>
             </div>
             <p className="text-xs text-ink/70">{LABELS.figType[r.figType]}</p>
@@ -71,13 +74,14 @@ export function PointPopup({ lat, lon }: { lat: number; lon: number }) {
 }
 
 export function StationPopup({ name, days50 }: { name: string; days50: number | null }) {
+  const units = useUnits();
   const band = frostBandFor(days50);
   return (
     <div className="pr-5 text-sm text-ink">
       <p className="font-medium text-fig-900">{name}</p>
       <p className="mt-1 flex items-center gap-2">
         {band && <span className="inline-block h-3 w-3 rounded-full border border-ink/30" style={{ background: band.color }} aria-hidden />}
-        {days50 === null ? 'No frost-free estimate yet' : `${days50} frost-free days in half the years (32 °F)`}
+        {days50 === null ? 'No frost-free estimate yet' : `${days50} frost-free days in half the years (${units.temperature(32)})`}
       </p>
     </div>
   );
@@ -88,7 +92,7 @@ export function WaspAreaPopup({ name, source, observedOn, lat, lon }: { name: st
     <div className="pr-5 text-sm text-ink">
       <p className="font-medium text-leaf-700">Fig wasp established: {name}</p>
       <p className="mt-1 text-xs text-ink/70">
-        Observed {observedOn}. Source: {source}
+        Observed <DateText iso={observedOn} />. Source: {source}
       </p>
       <Link to={hereLink(lat, lon)} className="mt-1 inline-block text-xs font-medium text-fig-600 underline underline-offset-2">
         What ripens here

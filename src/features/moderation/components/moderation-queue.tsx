@@ -8,6 +8,8 @@ import { Button } from '../../../components/button';
 import { Field, inputClass } from '../../../components/form-field';
 import { filterClass, Pager, type PageState } from '../../editors/components/data-table';
 import { moderationQueries, useClearFlag, useHideFromQueue, useMarkReviewed, useRestoreFromQueue } from '../api';
+import { DateText } from '../../units/components/date-text';
+import { VarietyLink } from '../../varieties/components/variety-link';
 
 const KIND_LABEL: Record<ModerationKind, string> = { all: 'Needs a look', flagged: 'Flagged by growers', suspicious: 'Picked out by the rules', hidden: 'Hidden' };
 const RULE_LABEL: Record<SuspicionRule, string> = {
@@ -98,7 +100,7 @@ function QueueCard({ item }: { item: ModerationItem }) {
     <article aria-label={`Report ${report.id}`} className="rounded-lg border border-fig-100 bg-white p-4">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h3 className="font-semibold text-fig-900">
-          {report.varietyName ?? 'Unnamed variety'} · {report.season} {report.crop === 'breba' ? 'breba' : 'main crop'} · {LABELS.outcome[report.outcome]}
+          {report.varietyId ? <VarietyLink id={report.varietyId} name={report.varietyName ?? 'Unnamed variety'} /> : (report.varietyName ?? 'Unnamed variety')} · {report.season} {report.crop === 'breba' ? 'breba' : 'main crop'} · {LABELS.outcome[report.outcome]}
         </h3>
         <span className="text-xs text-ink/70">
           <Link to={`/reports/${report.id}`} className="text-fig-700 underline">
@@ -111,7 +113,9 @@ function QueueCard({ item }: { item: ModerationItem }) {
         {dates.map(([label, value]) => (
           <div key={label} className="flex gap-1">
             <dt className="text-ink/70">{label}</dt>
-            <dd className="tabular-nums">{value ?? '—'}</dd>
+            <dd className="tabular-nums">
+              <DateText iso={value} />
+            </dd>
           </div>
         ))}
       </dl>
@@ -130,7 +134,7 @@ function QueueCard({ item }: { item: ModerationItem }) {
           {flags.map((f) => (
             <li key={f.id} className="flex flex-wrap items-center justify-between gap-2 rounded bg-fig-50 px-2 py-1">
               <span>
-                <strong>Flag</strong> from {f.flaggedBy ?? 'a former account'} ({f.createdAt.slice(0, 10)}): {f.reason}
+                <strong>Flag</strong> from {f.flaggedBy ?? 'a former account'} (<DateText iso={f.createdAt} />): {f.reason}
               </span>
               <button type="button" className="rounded px-2 py-0.5 text-fig-700 hover:bg-white" onClick={() => clear.mutate(f.id)} disabled={clear.isPending}>
                 Clear flag

@@ -8,6 +8,8 @@ import { Button } from '../../../components/button';
 import { SortableTableHead } from '../../../components/sortable-table-head';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
+import { DateText } from '../../units/components/date-text';
+import { VarietyLink } from '../../varieties/components/variety-link';
 
 const column = createColumnHelper<ReportListItem>();
 const STATUS_LABEL = { published: 'Published', draft: 'Draft', hidden: 'Hidden by an editor' } as const;
@@ -52,10 +54,10 @@ export function MyReportsTable() {
         id: 'variety',
         header: 'Variety',
         cell: ({ row, getValue }) => (
-          <Link to={`/reports/${row.original.id}`} className="font-medium text-fig-700 underline-offset-2 hover:underline">
-            {getValue()}
+          <span>
+            {row.original.varietyStatus === 'accepted' ? <VarietyLink id={row.original.varietyId} name={getValue()} /> : <span className="font-medium text-fig-700">{getValue()}</span>}
             {row.original.varietyStatus === 'proposed' && <span className="ml-1 text-xs font-normal text-ink/70">(proposed)</span>}
-          </Link>
+          </span>
         ),
       }),
       column.accessor('treeLabel', { header: 'Tree', enableSorting: false, cell: ({ getValue }) => getValue() ?? '' }),
@@ -64,7 +66,7 @@ export function MyReportsTable() {
       column.accessor('outcome', { header: 'Outcome', cell: ({ getValue }) => LABELS.outcome[getValue()] }),
       column.accessor('form', { header: 'Form', cell: ({ getValue }) => LABELS.growingForm[getValue()] }),
       column.accessor('status', { header: 'Status', cell: ({ getValue }) => <span className={getValue() === 'published' ? 'text-leaf-700' : 'text-fig-700'}>{STATUS_LABEL[getValue()]}</span> }),
-      column.accessor('updatedAt', { header: 'Changed', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
+      column.accessor('updatedAt', { header: 'Changed', cell: ({ getValue }) => <DateText iso={getValue()} className="whitespace-nowrap" /> }),
       column.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
@@ -75,6 +77,9 @@ export function MyReportsTable() {
                 Publish
               </button>
             )}
+            <Link to={`/reports/${row.original.id}`} className="text-sm text-fig-700 underline" aria-label={`Open the report of ${row.original.varietyName}, ${row.original.season}`}>
+              Open
+            </Link>
             <Link to={`/reports/${row.original.id}/edit`} className="text-sm text-fig-700 underline">
               Edit
             </Link>

@@ -9,16 +9,19 @@ import { useDeleteReport, useFlagReport, useHideReport, usePublishReport, useRes
 import { inputClass } from '../../../components/form-field';
 import { NearbyEvidence } from './nearby-evidence';
 import { ReportMapSnippet } from './report-map-snippet';
+import { useUnits } from '../../units/use-units';
+import { VarietyLink } from '../../varieties/components/variety-link';
 
 const MiniMap = lazy(() => import('./mini-map'));
 
-const formatDate = (iso: string | null) => (iso ? new Date(`${iso}T12:00:00Z`).toLocaleDateString(undefined, { month: 'long', day: 'numeric' }) : null);
 
 export const reportTitle = (report: Pick<Report, 'variety' | 'proposedVarietyName'>) => report.variety?.name ?? report.proposedVarietyName ?? 'Unnamed variety';
 
 /** One report's page: photos, place on the grid, the facts, and what the viewer may do with it. */
 export function ReportDetails({ report }: { report: Report }) {
   const { viewer } = report;
+  const units = useUnits();
+  const formatDate = (iso: string | null) => (iso ? units.date(iso) : null);
   const facts: [string, string | null][] = [
     ['Season', `${report.season} · ${LABELS.crop[report.crop]}`],
     ['Outcome', LABELS.outcome[report.outcome]],
@@ -47,7 +50,8 @@ export function ReportDetails({ report }: { report: Report }) {
           {report.treeLabel && ` · tree “${report.treeLabel}”`}
         </p>
         <h1 className="text-2xl font-semibold tracking-tight text-fig-900">
-          {reportTitle(report)} <span className="font-normal text-ink/70">in {report.season}</span>
+          {report.variety && report.variety.status === 'accepted' ? <VarietyLink id={report.variety.id} name={report.variety.name} /> : reportTitle(report)}{' '}
+          <span className="font-normal text-ink/70">in {report.season}</span>
         </h1>
         {report.variety?.status === 'proposed' && <p className="mt-1 text-sm text-ink/70">A proposed name, waiting for an editor’s review.</p>}
       </header>
@@ -103,8 +107,7 @@ export function ReportDetails({ report }: { report: Report }) {
 
       <Actions report={report} />
       <p className="text-xs text-ink/70">
-        Posted {new Date(report.createdAt).toLocaleDateString(undefined, { dateStyle: 'medium' })} · last changed{' '}
-        {new Date(report.updatedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
+        Posted {units.date(report.createdAt)} · last changed {units.dateTime(report.updatedAt)}
       </p>
     </article>
   );

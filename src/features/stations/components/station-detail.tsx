@@ -4,7 +4,8 @@ import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContai
 import { FREEZE_THRESHOLDS_F, PROBABILITY_LEVELS } from '@shared/domain/codes';
 import type { StationDetail } from '@shared/schemas/stations';
 import { stationQueries } from '../api';
-import { formatDoy, thresholdLabel } from './doy';
+import { useStationLabels } from './doy';
+import { DateText } from '../../units/components/date-text';
 
 /** A station's computed frost picture: the 10/50/90 % summary, a chart of every year, and the table. */
 export function StationDetailView({ id }: { id: number }) {
@@ -22,7 +23,7 @@ export function StationDetailView({ id }: { id: number }) {
         <p className="text-sm text-ink/70">
           {station.code ? `${station.code} · ` : ''}
           {station.lat.toFixed(4)}, {station.lon.toFixed(4)}
-          {station.elevationM !== null ? ` · ${station.elevationM} m` : ''} · {station.dayCount.toLocaleString()} days from {station.firstDate ?? '—'} to {station.lastDate ?? '—'}
+          {station.elevationM !== null ? ` · ${station.elevationM} m` : ''} · {station.dayCount.toLocaleString()} days from <DateText iso={station.firstDate} /> to <DateText iso={station.lastDate} />
         </p>
       </header>
       <SummaryTable summaries={data.summaries} />
@@ -33,6 +34,7 @@ export function StationDetailView({ id }: { id: number }) {
 }
 
 function SummaryTable({ summaries }: { summaries: StationDetail['summaries'] }) {
+  const { formatDoy, thresholdLabel } = useStationLabels();
   const at = (t: number, p: number) => summaries.find((s) => s.thresholdF === t && s.probability === p);
   return (
     <div>
@@ -76,6 +78,7 @@ function SummaryTable({ summaries }: { summaries: StationDetail['summaries'] }) 
 }
 
 function FreezeChart({ detail }: { detail: StationDetail }) {
+  const { formatDoy, thresholdLabel } = useStationLabels();
   const [thresholdF, setThresholdF] = useState<number>(32);
   const rows = useMemo(
     () => detail.freezeYears.filter((y) => y.thresholdF === thresholdF).map((y) => ({ year: y.year, spring: y.lastSpringDoy, fall: y.firstFallDoy })),
@@ -117,6 +120,7 @@ function FreezeChart({ detail }: { detail: StationDetail }) {
 }
 
 function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYears'] }) {
+  const { formatDoy, thresholdLabel } = useStationLabels();
   const years = useMemo(() => {
     const byYear = new Map<number, Map<number, StationDetail['freezeYears'][number]>>();
     for (const row of freezeYears) {

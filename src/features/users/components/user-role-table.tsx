@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { LABELS, ROLES, type Role } from '@shared/domain/codes';
 import { useCurrentUser } from '../../auth/api';
 import { useChangeRole, userQueries } from '../api';
+import { DateText } from '../../units/components/date-text';
 
 /** Admins see every account and change its role. */
 export function UserRoleTable() {
@@ -28,7 +29,7 @@ export function UserRoleTable() {
             <tr key={user.id} className="border-t border-fig-100">
               <td className="px-3 py-2">{user.displayName}</td>
               <td className="px-3 py-2 text-ink/80">{user.email}</td>
-              <td className="px-3 py-2 text-ink/80">{new Date(user.createdAt).toLocaleDateString()}</td>
+              <td className="px-3 py-2 text-ink/80"><DateText iso={user.createdAt} /></td>
               <td className="px-3 py-2">
                 <select
                   aria-label={`Role of ${user.displayName}`}

@@ -5,6 +5,7 @@ import { FIG_TYPES, LABELS, VARIETY_STATUSES, type FigType, type VarietyStatus }
 import { CATALOGUE_SORTS, type CatalogueEntry } from '@shared/schemas/varieties';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { varietyQueries } from '../api';
+import { VarietyLink } from './variety-link';
 
 const STATUS_STYLE: Record<VarietyStatus, string> = {
   accepted: 'bg-leaf-100 text-leaf-700',
@@ -43,7 +44,8 @@ export function CatalogueTable({ status, onStatusChange, actions }: { status: Va
         cell: (c) => (
           <div>
             <div className="font-medium text-fig-900">
-              {c.getValue()} {c.row.original.isFictional && <span className="text-xs font-normal text-ink/70">(fictional)</span>}
+              {c.row.original.status === 'accepted' ? <VarietyLink id={c.row.original.id} name={c.getValue()} /> : c.getValue()}{' '}
+              {c.row.original.isFictional && <span className="text-xs font-normal text-ink/70">(fictional)</span>}
             </div>
             {c.row.original.synonyms.length > 0 && <div className="text-xs text-ink/70">also {c.row.original.synonyms.join(', ')}</div>}
           </div>

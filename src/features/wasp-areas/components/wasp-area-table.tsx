@@ -5,6 +5,7 @@ import { WASP_AREA_STATUSES, type WaspAreaStatus } from '@shared/domain/codes';
 import type { WaspAreaRecord } from '@shared/schemas/wasp-areas';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { useRetireWaspArea, waspAreaQueries } from '../api';
+import { DateText } from '../../units/components/date-text';
 
 const column = createColumnHelper<WaspAreaRecord>();
 
@@ -35,7 +36,7 @@ export function WaspAreaTable({ selectedId, onSelect, onEdit }: { selectedId: nu
             <span className="text-xs text-ink/70">Retired {c.row.original.retiredAt?.slice(0, 10)}</span>
           ),
       }),
-      column.accessor('observedOn', { header: 'Observed' }),
+      column.accessor('observedOn', { header: 'Observed', cell: (c) => <DateText iso={c.getValue()} className="whitespace-nowrap" /> }),
       column.accessor('source', { header: 'Source', enableSorting: false, cell: (c) => <span className="line-clamp-2 max-w-xs text-ink/80">{c.getValue()}</span> }),
       column.accessor('areaKm2', { header: 'Size', cell: (c) => <span className="whitespace-nowrap tabular-nums">{Math.round(c.getValue()).toLocaleString()} km²</span> }),
       column.accessor('vertexCount', { header: 'Corners', cell: (c) => <span className="tabular-nums">{c.getValue()}</span> }),
