@@ -1,5 +1,6 @@
 import { setImmediate as nextTurn } from 'node:timers/promises';
 import { LABELS } from '../../shared/domain/codes';
+import { DIGEST_RADIUS_KM } from '../../shared/schemas/email';
 import type { MailDeps } from './mailer';
 import { dueSubscriptions, findHomePlace, markDigestSent, nearbyRipenedReports, type NearbyRipening } from './digest.repo';
 import { describePlace } from './digest-wording';
@@ -39,12 +40,14 @@ export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise
     const home = findHomePlace(deps.db, sub.userId);
     if (!home) continue;
     const since = sub.lastSentAt ?? weekAgo;
-    const reports = nearbyRipenedReports(deps.db, home, sub.radiusKm, since, nowIso, sub.userId);
+    // A radius saved before the public-grid minimum existed is read as that minimum.
+    const radiusKm = Math.max(sub.radiusKm, DIGEST_RADIUS_KM.min);
+    const reports = nearbyRipenedReports(deps.db, home, radiusKm, since, nowIso, sub.userId);
     if (reports.length) {
       const message = digestMessage({
         displayName,
         homeName: home.name,
-        radiusKm: sub.radiusKm,
+        radiusKm,
         since: longDate(since),
         items: reports.map((r) => toItem(r, home)),
         atlasUrl: `${deps.appUrl}/?lat=${home.lat.toFixed(3)}&lon=${home.lon.toFixed(3)}&zoom=9`,
