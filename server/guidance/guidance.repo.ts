@@ -1,4 +1,4 @@
-import { eq, inArray, sql } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 import { distanceKm } from '../../shared/domain/geo';
 import { dayOfYear, seasonDaysFromFrostDates, type SeasonReport } from '../../shared/domain/guidance';
 import type { Crop, FigType, GrowingForm } from '../../shared/domain/codes';
@@ -13,10 +13,6 @@ import { currentStationSnapshot, stationSeasonsInBoxes } from '../stations/stati
  * snapshot (server/stations/station-snapshot.ts). The computation itself lives in
  * shared/domain/guidance.ts.
  */
-
-export function findVarietyBrief(db: Db, id: number): { id: number; name: string; figType: FigType } | undefined {
-  return db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType }).from(varieties).where(eq(varieties.id, id)).get();
-}
 
 /**
  * First-ripe days of year of one variety's ripened reports whose public position (grid cell
