@@ -21,7 +21,7 @@ const REPLAYED_TRIGGERS = new Set([
   'reports_rtree_insert', 'reports_rtree_update', 'reports_rtree_delete',
   // drizzle/0003: publication time of a row inserted as non-draft without one
   'reports_published_at_insert',
-  // drizzle/0008 (replacing 0004): the tree's rows in tree_evidence (refilled below)
+  // drizzle/0012 (replacing 0008 and 0004): the tree's rows in tree_evidence, on its public grid cell (refilled below)
   'reports_tree_evidence_insert', 'reports_tree_evidence_update', 'reports_tree_evidence_update_old_tree', 'reports_tree_evidence_delete',
   // drizzle/0005: the atlas data version (moved once below)
   'reports_atlas_version_insert', 'reports_atlas_version_update', 'reports_atlas_version_delete',
@@ -29,11 +29,11 @@ const REPLAYED_TRIGGERS = new Set([
   'stations_stations_version_insert', 'stations_stations_version_update', 'stations_stations_version_delete',
 ]);
 
-/** The statement drizzle/0008 ends with: fill tree_evidence from its source view in one pass. */
+/** The statement drizzle/0012 ends with: fill tree_evidence from its source view in one pass. */
 function treeEvidenceFill(): string {
   const folder = path.resolve(import.meta.dirname, '../drizzle');
-  const file = fs.readdirSync(folder).find((name) => name.endsWith('_tree-evidence-clustered.sql'));
-  if (!file) throw new Error('bulkLoad: the tree-evidence migration (drizzle/*_tree-evidence-clustered.sql) is missing');
+  const file = fs.readdirSync(folder).find((name) => name.endsWith('_tree-evidence-public-cell.sql'));
+  if (!file) throw new Error('bulkLoad: the tree-evidence migration (drizzle/*_tree-evidence-public-cell.sql) is missing');
   return fs.readFileSync(path.join(folder, file), 'utf8').split('--> statement-breakpoint').at(-1)!;
 }
 

@@ -8,7 +8,9 @@ import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 
 /*
  * Every tree row of the atlas (table tree_evidence, kept by triggers on reports) held in memory as
- * typed-array columns with a k-d tree over their places (kdbush). A radius query is then a box
+ * typed-array columns with a k-d tree over their places (kdbush). A row's place is its public grid
+ * cell's centre (drizzle/0012; shared/domain/public-grid.ts publicPosition): every answer built
+ * from the snapshot is public, so no exact place is ever read into it. A radius query is then a box
  * query on the k-d tree plus the exact great-circle distance, and reads no database page: at
  * 200 km on a million reports it takes a fraction of a millisecond, where fetching the same rows
  * from SQLite took several. A snapshot holds the rows of one atlas data version, with each
@@ -34,6 +36,7 @@ export interface TreeColumns {
   varietyId: Int32Array;
   /** Index into GROWING_FORMS. */
   form: Uint8Array;
+  /** The tree's public position (its grid cell's centre, publicPosition), never its exact place. */
   lat: Float64Array;
   lon: Float64Array;
   reports: Int32Array;
@@ -70,7 +73,7 @@ export interface TreeSnapshot {
 const FORM_CODE = new Map<string, number>(GROWING_FORMS.map((form, i) => [form, i]));
 
 const ROWS_SQL = `
-  SELECT tree_id, user_id, variety_id, form, lat, lon, reports, ripened, breba_reports, breba_ripened,
+  SELECT tree_id, user_id, variety_id, form, grid_lat, grid_lon, reports, ripened, breba_reports, breba_ripened,
          first_ripe_doys, frost_to_ripe_days, frost_seasons
     FROM tree_evidence ORDER BY id`;
 
@@ -222,7 +225,10 @@ function treeAt(c: TreeColumns, i: number, distance: number): NearTree {
   };
 }
 
-/** Tree rows within `radiusKm` of the point (exact great-circle distance), from published reports. */
+/**
+ * Tree rows whose public position (grid cell centre) lies within `radiusKm` of the point (exact
+ * great-circle distance to the cell centre), from published reports.
+ */
 export function treesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: number): NearTree[] {
   const c = snapshot.columns;
   if (c.count === 0) return [];

@@ -20,8 +20,10 @@ import { DISTANCE_UNITS, TEMPERATURE_UNITS } from '../../shared/domain/units';
  * One file for the whole schema: drizzle.config.ts points here and `npm run db:generate` writes
  * migrations to drizzle/. Keys are camelCase in TypeScript, columns snake_case in SQLite.
  * Timestamps are ISO-8601 text in UTC; calendar dates are 'YYYY-MM-DD' text.
- * Reports are found by place through an R*Tree virtual table (reports_rtree) kept in step by
- * triggers in a custom migration, since drizzle-kit does not model virtual tables. Stations are
+ * Reports have an R*Tree virtual table on their exact place (reports_rtree) kept in step by
+ * triggers in a custom migration, since drizzle-kit does not model virtual tables; public code
+ * never reads it (nor lat/lon): it finds reports by their grid cell (reports_grid_idx,
+ * server/reports/public-position.ts). Stations are
  * found through the in-memory station snapshot (server/stations/station-snapshot.ts); their
  * R*Tree was dropped by drizzle/0011.
  */

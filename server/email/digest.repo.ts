@@ -1,9 +1,10 @@
 import { randomBytes } from 'node:crypto';
 import { and, desc, eq, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { boundingBox, distanceKm, type LatLon } from '../../shared/domain/geo';
+import type { LatLon } from '../../shared/domain/geo';
 import type { Crop, GrowingForm } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
 import { digestSubscriptions, savedPlaces, users } from '../db/schema';
+import { publicDistanceKm, publicPositionInCircleBoxes } from '../reports/public-position';
 
 export type DigestSubscriptionRow = typeof digestSubscriptions.$inferSelect;
 
@@ -84,31 +85,24 @@ export interface NearbyRipening {
 }
 
 /**
- * Published 'ripened' reports that became public in (since, until] within radiusKm of a point,
- * other growers' only: the R*Tree narrows to bounding boxes, then the exact great-circle distance
- * decides. Publication time, not creation time: a draft written before the last digest and
- * published after it is news in the next one, and a report restored after hiding keeps its first
- * publication time, so it is never announced twice.
+ * Published 'ripened' reports that became public in (since, until] whose public position (grid
+ * cell centre) lies within radiusKm of a point, other growers' only: membership and distance are
+ * the grid cell's, never the exact place's (shared/domain/public-grid.ts), so a subscriber cannot
+ * learn more than the cell by moving their home or radius. Publication time, not creation time: a
+ * draft written before the last digest and published after it is news in the next one, and a
+ * report restored after hiding keeps its first publication time, so it is never announced twice.
  */
 export function nearbyRipenedReports(db: Db, centre: LatLon, radiusKm: number, since: string, until: string, excludeUserId: number): NearbyRipening[] {
-  const boxes = boundingBox(centre, radiusKm);
-  const inBox = sql.join(
-    boxes.map((b) => sql`(t.min_lat >= ${b.minLat} AND t.max_lat <= ${b.maxLat} AND t.min_lon >= ${b.minLon} AND t.max_lon <= ${b.maxLon})`),
-    sql` OR `,
-  );
-  const rows = db.all<Omit<NearbyRipening, 'distanceKm'> & { lat: number; lon: number }>(sql`
-    SELECT r.id, r.lat, r.lon, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.season, r.crop, r.form,
+  const rows = db.all<Omit<NearbyRipening, 'distanceKm'>>(sql`
+    SELECT r.id, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.season, r.crop, r.form,
            r.first_ripe_date AS firstRipeDate, r.published_at AS publishedAt,
            v.name AS varietyName, r.proposed_variety_name AS proposedVarietyName
-    FROM reports_rtree t
-    JOIN reports r ON r.id = t.id
+    FROM reports r
     LEFT JOIN varieties v ON v.id = r.variety_id
-    WHERE (${inBox})
+    WHERE ${publicPositionInCircleBoxes('r', centre, radiusKm)}
       AND r.status = 'published' AND r.outcome = 'ripened'
       AND r.published_at > ${since} AND r.published_at <= ${until}
       AND r.user_id <> ${excludeUserId}
     ORDER BY r.published_at, r.id`);
-  return rows
-    .map(({ lat, lon, ...row }) => ({ ...row, distanceKm: distanceKm(centre, { lat, lon }) }))
-    .filter((row) => row.distanceKm <= radiusKm);
+  return rows.map((row) => ({ ...row, distanceKm: publicDistanceKm(centre, row) })).filter((row) => row.distanceKm <= radiusKm);
 }

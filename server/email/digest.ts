@@ -3,6 +3,7 @@ import { LABELS } from '../../shared/domain/codes';
 import { formatDate, formatDistance, type UnitPrefs } from '../../shared/domain/units';
 import { findUnitPrefs } from '../account/units.repo';
 import { followedNews, hasNews } from '../follows/follows-digest';
+import { DIGEST_RADIUS_KM } from '../../shared/schemas/email';
 import type { MailDeps } from './mailer';
 import { dueSubscriptions, findHomePlace, markDigestSent, nearbyRipenedReports, type NearbyRipening } from './digest.repo';
 import { describePlace } from './digest-wording';
@@ -45,14 +46,16 @@ export async function runNearbyDigest(deps: MailDeps, now = new Date()): Promise
     const home = findHomePlace(deps.db, sub.userId);
     if (!home) continue;
     const since = sub.lastSentAt ?? weekAgo;
-    const reports = nearbyRipenedReports(deps.db, home, sub.radiusKm, since, nowIso, sub.userId);
+    // A radius saved before the public-grid minimum existed is read as that minimum.
+    const radiusKm = Math.max(sub.radiusKm, DIGEST_RADIUS_KM.min);
+    const reports = nearbyRipenedReports(deps.db, home, radiusKm, since, nowIso, sub.userId);
     const units = findUnitPrefs(deps.db, sub.userId) ?? EMAIL_DEFAULT_UNITS;
-    const followed = followedNews(deps.db, sub.userId, since, nowIso, sub.radiusKm);
+    const followed = followedNews(deps.db, sub.userId, since, nowIso, radiusKm);
     if (reports.length || hasNews(followed)) {
       const message = digestMessage({
         displayName,
         homeName: home.name,
-        radius: formatDistance(sub.radiusKm, units),
+        radius: formatDistance(radiusKm, units),
         since: formatDate(since, units.locale),
         items: reports.map((r) => toItem(r, home, units)),
         followed,

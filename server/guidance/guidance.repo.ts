@@ -1,52 +1,40 @@
-import { eq, inArray } from 'drizzle-orm';
-import { boundingBox, distanceKm, type BoundingBox } from '../../shared/domain/geo';
+import { inArray, sql } from 'drizzle-orm';
+import { distanceKm } from '../../shared/domain/geo';
 import { dayOfYear, seasonDaysFromFrostDates, type SeasonReport } from '../../shared/domain/guidance';
 import type { Crop, FigType, GrowingForm } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
 import { varieties } from '../db/schema';
+import { publicDistanceKm, publicPositionInCircleBoxes } from '../reports/public-position';
 import { currentStationSnapshot, stationSeasonsInBoxes } from '../stations/station-snapshot';
 
 /*
- * Row gathering for the guidance charts. Reports are found through their R*Tree (reports_rtree;
- * drizzle/0001_spatial-index.sql), stations through the in-memory station snapshot
- * (server/stations/station-snapshot.ts), then an exact great-circle distance. The computation
- * itself lives in shared/domain/guidance.ts.
+ * Row gathering for the guidance charts (public: every report is placed by its grid cell, never
+ * its exact place; server/reports/public-position.ts). Stations come from the in-memory station
+ * snapshot (server/stations/station-snapshot.ts). The computation itself lives in
+ * shared/domain/guidance.ts.
  */
 
-/** Half the diagonal of a public grid cell (0.05 deg), rounded up: the box is padded by it. */
-const GRID_PAD_KM = 5;
-
-export function findVarietyBrief(db: Db, id: number): { id: number; name: string; figType: FigType } | undefined {
-  return db.select({ id: varieties.id, name: varieties.name, figType: varieties.figType }).from(varieties).where(eq(varieties.id, id)).get();
-}
-
-const boxWhere = (alias: string) => `${alias}.max_lat >= ? AND ${alias}.min_lat <= ? AND ${alias}.max_lon >= ? AND ${alias}.min_lon <= ?`;
-const boxParams = (b: BoundingBox) => [b.minLat, b.maxLat, b.minLon, b.maxLon];
-
 /**
- * First-ripe days of year of one variety's ripened reports within the radius. The distance is
- * measured to each report's public grid point, not its exact place, so that narrowing the radius
- * cannot be used to find where a grower lives.
+ * First-ripe days of year of one variety's ripened reports whose public position (grid cell
+ * centre) lies within the radius: never the exact place, so that narrowing the radius or moving
+ * the point cannot find where a grower lives (shared/domain/public-grid.ts).
  */
 export function ripeDatesNear(db: Db, q: { varietyId: number; lat: number; lon: number; radiusKm: number; crop: Crop }): { doys: number[]; trees: number } {
   const centre = { lat: q.lat, lon: q.lon };
-  const stmt = db.sqlite.prepare(
-    `SELECT r.tree_id AS treeId, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.first_ripe_date AS firstRipeDate
-       FROM reports_rtree t JOIN reports r ON r.id = t.id
-      WHERE ${boxWhere('t')}
-        AND r.variety_id = ? AND r.status = 'published' AND r.crop = ? AND r.outcome = 'ripened' AND r.first_ripe_date IS NOT NULL`,
-  );
+  const rows = db.all<{ treeId: number; gridLat: number; gridLon: number; firstRipeDate: string }>(sql`
+    SELECT r.tree_id AS treeId, r.grid_lat AS gridLat, r.grid_lon AS gridLon, r.first_ripe_date AS firstRipeDate
+      FROM reports r
+     WHERE ${publicPositionInCircleBoxes('r', centre, q.radiusKm)}
+       AND r.variety_id = ${q.varietyId} AND r.status = 'published' AND r.crop = ${q.crop} AND r.outcome = 'ripened' AND r.first_ripe_date IS NOT NULL
+     ORDER BY r.id`);
   const doys: number[] = [];
   const trees = new Set<number>();
-  for (const box of boundingBox(centre, q.radiusKm + GRID_PAD_KM)) {
-    const rows = stmt.all(...boxParams(box), q.varietyId, q.crop) as { treeId: number; gridLat: number; gridLon: number; firstRipeDate: string }[];
-    for (const row of rows) {
-      if (distanceKm(centre, { lat: row.gridLat, lon: row.gridLon }) > q.radiusKm) continue;
-      const doy = dayOfYear(row.firstRipeDate);
-      if (doy === null) continue;
-      doys.push(doy);
-      trees.add(row.treeId);
-    }
+  for (const row of rows) {
+    if (publicDistanceKm(centre, row) > q.radiusKm) continue;
+    const doy = dayOfYear(row.firstRipeDate);
+    if (doy === null) continue;
+    doys.push(doy);
+    trees.add(row.treeId);
   }
   return { doys, trees: trees.size };
 }

@@ -10,7 +10,8 @@ import {
 } from '../../shared/schemas/guidance';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
-import { findVarietyBrief, reportsWithSeason, ripeDatesNear, STATION_SEARCH_KM, varietyBriefs } from './guidance.repo';
+import { findVisibleVariety } from '../varieties/varieties.repo';
+import { reportsWithSeason, ripeDatesNear, STATION_SEARCH_KM, varietyBriefs } from './guidance.repo';
 
 const SEASON_METHOD =
   `Each report’s frost-free season is the span between the grower’s own last spring and first fall frost dates for that season; ` +
@@ -23,8 +24,10 @@ export function createGuidanceRouter({ db }: { db: Db }): Router {
 
   router.get('/ripe-dates', (req, res) => {
     const q = ripeDatesQuerySchema.parse(req.query);
-    const variety = findVarietyBrief(db, q.varietyId);
-    if (!variety) throw notFound('Variety');
+    // A grower's proposed name is shown only once a published report carries it (drafts stay private).
+    const found = findVisibleVariety(db, q.varietyId, req.user);
+    if (!found) throw notFound('Variety');
+    const variety = { id: found.id, name: found.name, figType: found.figType };
     const { doys, trees } = ripeDatesNear(db, q);
     const mid = median(doys);
     res.json(

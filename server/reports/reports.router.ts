@@ -6,9 +6,9 @@ import { z } from 'zod';
 import {
   columnForField,
   csvRowToCandidate,
-  EXPORT_COLUMNS,
   IMPORT_MAX_ROWS,
   importTemplateCsv,
+  publicRowsToCsv,
   publicRowsToGeoJson,
   unknownColumns,
   type CsvCellError,
@@ -152,8 +152,7 @@ export function createReportsRouter({ db, config, photoUploadLimit = PHOTO_UPLOA
 
   router.get('/export.csv', (req, res) => {
     const rows = exportPublicRows(db, reportFilterSchema.parse(req.query));
-    const csv = Papa.unparse({ fields: EXPORT_COLUMNS, data: rows.map((row) => EXPORT_COLUMNS.map((column) => row[column])) }, { escapeFormulae: true });
-    res.type('text/csv; charset=utf-8').attachment('syconium-reports.csv').send(`${csv}\n`);
+    res.type('text/csv; charset=utf-8').attachment('syconium-reports.csv').send(publicRowsToCsv(rows));
   });
 
   router.get('/export.geojson', (req, res) => {

@@ -3,22 +3,22 @@ import { z } from 'zod';
 import { varietyListQuerySchema, varietyListSchema, varietyResponseSchema } from '../../shared/schemas/varieties';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
-import { findVariety, listVarieties } from './varieties.repo';
 import { cellsOf, daysNeededOf } from '../../shared/domain/variety-page';
 import { dayOfYear, median, weeklyHistogram } from '../../shared/domain/guidance';
 import { varietyPageSchema } from '../../shared/schemas/variety-page';
 import { isFollowingVariety } from '../follows/follows.repo';
 import { publishedPhotosOfVariety, publishedReportsOfVariety } from './variety-page.repo';
+import { findVariety, findVisibleVariety, listVarieties } from './varieties.repo';
 
 export const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 
-/** The variety catalogue: public reads. */
+/** The variety catalogue: public reads (a grower's proposed name only once a published report carries it). */
 export function createVarietiesRouter({ db }: { db: Db }): Router {
   const router = Router();
 
   router.get('/', (req, res) => {
     const query = varietyListQuerySchema.parse(req.query);
-    res.json(varietyListSchema.parse({ varieties: listVarieties(db, query) }));
+    res.json(varietyListSchema.parse({ varieties: listVarieties(db, query, req.user) }));
   });
 
   // A variety's own page: public figures from published reports, placed by grid cell.
@@ -58,7 +58,7 @@ export function createVarietiesRouter({ db }: { db: Db }): Router {
 
   router.get('/:id', (req, res) => {
     const { id } = idParamsSchema.parse(req.params);
-    const variety = findVariety(db, id);
+    const variety = findVisibleVariety(db, id, req.user);
     if (!variety) throw notFound('Variety');
     res.json(varietyResponseSchema.parse({ variety }));
   });

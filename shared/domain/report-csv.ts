@@ -5,10 +5,13 @@
  */
 import { decimalNumber } from '../schemas/text-number';
 import type { Crop, FigType, GrowingForm, Outcome, PlantOrigin } from './codes';
+import { toSpreadsheetCsv, type CsvColumnKind } from './spreadsheet-csv';
 
 export interface CsvColumn {
   name: string;
   required: boolean;
+  /** How the template writes its example (numbers stay numbers; text is formula-safe). */
+  kind: CsvColumnKind;
   /** What to write, in plain words (shown in the README and on the import page). */
   help: string;
   example: string;
@@ -16,35 +19,35 @@ export interface CsvColumn {
 
 /** Import columns, in template order. Names are the API's field names where one exists. */
 export const IMPORT_COLUMNS: CsvColumn[] = [
-  { name: 'tree', required: false, help: 'Your label for the tree. Rows with the same label are one tree across seasons; a label you already use adds to that tree. Empty: a new tree named after the variety.', example: 'Back fence fig' },
-  { name: 'variety', required: false, help: 'A catalogue variety name or synonym. Leave empty when you fill proposedVarietyName.', example: 'Lantern Amber' },
-  { name: 'proposedVarietyName', required: false, help: 'A name not in the catalogue yet; editors review it.', example: '' },
-  { name: 'lat', required: true, help: 'Latitude of the tree in decimal degrees (stays private; others see a 5 km grid).', example: '42.6526' },
-  { name: 'lon', required: true, help: 'Longitude in decimal degrees, negative west of Greenwich.', example: '-73.7562' },
-  { name: 'form', required: true, help: 'ground, container, wall or greenhouse.', example: 'ground' },
-  { name: 'origin', required: false, help: 'cutting, air-layer, graft, tissue-culture, seedling or unknown (default).', example: 'cutting' },
-  { name: 'yearPlanted', required: false, help: 'Year the tree was planted where it grows now.', example: '2020' },
-  { name: 'season', required: true, help: 'The season year this row describes.', example: '2025' },
-  { name: 'crop', required: true, help: 'breba or main.', example: 'main' },
-  { name: 'outcome', required: true, help: 'no-fruit, dropped, unripe or ripened.', example: 'ripened' },
-  { name: 'firstRipeDate', required: false, help: 'YYYY-MM-DD, only when the crop ripened.', example: '2025-09-02' },
-  { name: 'lastHarvestDate', required: false, help: 'YYYY-MM-DD, on or after the first ripe date.', example: '2025-10-05' },
-  { name: 'springFrostDate', required: false, help: 'YYYY-MM-DD of the last spring frost you saw at the tree.', example: '2025-04-28' },
-  { name: 'fallFrostDate', required: false, help: 'YYYY-MM-DD of the first fall frost; the latest of the four dates.', example: '2025-10-14' },
-  { name: 'pinched', required: false, help: 'yes or no: did you pinch the growing tips?', example: 'yes' },
-  { name: 'pinchedDate', required: false, help: 'YYYY-MM-DD when you pinched.', example: '2025-06-20' },
-  { name: 'winterProtection', required: false, help: 'Free text, up to 300 characters.', example: 'Wrapped in burlap' },
-  { name: 'feeding', required: false, help: 'Free text, up to 300 characters.', example: '' },
-  { name: 'watering', required: false, help: 'Free text, up to 300 characters.', example: 'Weekly in July' },
-  { name: 'notes', required: false, help: 'Free text, up to 2000 characters.', example: '' },
+  { name: 'tree', kind: 'text', required: false, help: 'Your label for the tree. Rows with the same label are one tree across seasons; a label you already use adds to that tree. Empty: a new tree named after the variety.', example: 'Back fence fig' },
+  { name: 'variety', kind: 'text', required: false, help: 'A catalogue variety name or synonym. Leave empty when you fill proposedVarietyName.', example: 'Lantern Amber' },
+  { name: 'proposedVarietyName', kind: 'text', required: false, help: 'A name not in the catalogue yet; editors review it.', example: '' },
+  { name: 'lat', kind: 'number', required: true, help: 'Latitude of the tree in decimal degrees (stays private; others see a 5 km grid).', example: '42.6526' },
+  { name: 'lon', kind: 'number', required: true, help: 'Longitude in decimal degrees, negative west of Greenwich.', example: '-73.7562' },
+  { name: 'form', kind: 'text', required: true, help: 'ground, container, wall or greenhouse.', example: 'ground' },
+  { name: 'origin', kind: 'text', required: false, help: 'cutting, air-layer, graft, tissue-culture, seedling or unknown (default).', example: 'cutting' },
+  { name: 'yearPlanted', kind: 'number', required: false, help: 'Year the tree was planted where it grows now.', example: '2020' },
+  { name: 'season', kind: 'number', required: true, help: 'The season year this row describes.', example: '2025' },
+  { name: 'crop', kind: 'text', required: true, help: 'breba or main.', example: 'main' },
+  { name: 'outcome', kind: 'text', required: true, help: 'no-fruit, dropped, unripe or ripened.', example: 'ripened' },
+  { name: 'firstRipeDate', kind: 'text', required: false, help: 'YYYY-MM-DD, only when the crop ripened.', example: '2025-09-02' },
+  { name: 'lastHarvestDate', kind: 'text', required: false, help: 'YYYY-MM-DD, on or after the first ripe date.', example: '2025-10-05' },
+  { name: 'springFrostDate', kind: 'text', required: false, help: 'YYYY-MM-DD of the last spring frost you saw at the tree.', example: '2025-04-28' },
+  { name: 'fallFrostDate', kind: 'text', required: false, help: 'YYYY-MM-DD of the first fall frost; the latest of the four dates.', example: '2025-10-14' },
+  { name: 'pinched', kind: 'text', required: false, help: 'yes or no: did you pinch the growing tips?', example: 'yes' },
+  { name: 'pinchedDate', kind: 'text', required: false, help: 'YYYY-MM-DD when you pinched.', example: '2025-06-20' },
+  { name: 'winterProtection', kind: 'text', required: false, help: 'Free text, up to 300 characters.', example: 'Wrapped in burlap' },
+  { name: 'feeding', kind: 'text', required: false, help: 'Free text, up to 300 characters.', example: '' },
+  { name: 'watering', kind: 'text', required: false, help: 'Free text, up to 300 characters.', example: 'Weekly in July' },
+  { name: 'notes', kind: 'text', required: false, help: 'Free text, up to 2000 characters.', example: '' },
 ];
 
 export const IMPORT_MAX_ROWS = 1000;
 
 /** A small template with the header and one example row. */
 export function importTemplateCsv(): string {
-  const quote = (value: string) => (/[",\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
-  return `${IMPORT_COLUMNS.map((c) => c.name).join(',')}\n${IMPORT_COLUMNS.map((c) => quote(c.example)).join(',')}\n`;
+  const example = IMPORT_COLUMNS.map((c) => (c.kind === 'number' ? (c.example === '' ? null : Number(c.example)) : c.example));
+  return toSpreadsheetCsv(IMPORT_COLUMNS, [example]);
 }
 
 /** One problem in one cell (or row, when column is '_'); line numbers count the header as line 1. */
@@ -132,10 +135,21 @@ export interface PublicReportRow {
   pinched: boolean;
 }
 
-export const EXPORT_COLUMNS: (keyof PublicReportRow)[] = [
-  'reportId', 'treeId', 'variety', 'varietyStatus', 'figType', 'season', 'crop', 'outcome', 'form', 'origin', 'yearPlanted',
-  'gridLat', 'gridLon', 'firstRipeDate', 'lastHarvestDate', 'springFrostDate', 'fallFrostDate', 'pinched',
-];
+/** The public export's columns, in order, each with its kind (numbers stay numbers in a spreadsheet). */
+const EXPORT_COLUMN_KINDS: { [K in keyof PublicReportRow]: CsvColumnKind } = {
+  reportId: 'number', treeId: 'number', variety: 'text', varietyStatus: 'text', figType: 'text', season: 'number', crop: 'text', outcome: 'text',
+  form: 'text', origin: 'text', yearPlanted: 'number', gridLat: 'number', gridLon: 'number', firstRipeDate: 'text', lastHarvestDate: 'text',
+  springFrostDate: 'text', fallFrostDate: 'text', pinched: 'boolean',
+};
+export const EXPORT_COLUMNS = Object.keys(EXPORT_COLUMN_KINDS) as (keyof PublicReportRow)[];
+
+/** Public rows as the CSV download (shared/domain/spreadsheet-csv.ts: formula-safe text, numbers as numbers). */
+export function publicRowsToCsv(rows: PublicReportRow[]): string {
+  return toSpreadsheetCsv(
+    EXPORT_COLUMNS.map((name) => ({ name, kind: EXPORT_COLUMN_KINDS[name] })),
+    rows.map((row) => EXPORT_COLUMNS.map((column) => row[column])),
+  );
+}
 
 /** Public rows as a GeoJSON FeatureCollection of points at the grid cell centres (lon, lat order). */
 export function publicRowsToGeoJson(rows: PublicReportRow[]) {

@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { decimalNumber } from '../schemas/text-number';
+import { restoreNeutralisedText, toSpreadsheetCsv, type CsvColumnKind } from './spreadsheet-csv';
 import { CATALOGUE_CSV_COLUMNS, varietyInputSchema, type Variety, type VarietyInput } from '../schemas/varieties';
 
 /** One problem of an import, in words an editor can act on. Row numbers count the header as row 1. */
@@ -12,20 +13,19 @@ export interface CsvProblem {
 const TRUE = new Set(['true', 'yes', 'y', '1']);
 const FALSE = new Set(['false', 'no', 'n', '0', '']);
 
-/** Cells a spreadsheet would run as a formula; the export prefixes them with ' (OWASP "CSV injection"). */
-const FORMULA_START = /^[=+\-@\t\r]/;
+const COLUMN_KINDS: Record<(typeof CATALOGUE_CSV_COLUMNS)[number], CsvColumnKind> = {
+  name: 'text', synonyms: 'text', figType: 'text', bearsBreba: 'boolean', bearsMain: 'boolean', ripeningClass: 'text', typicalDaysToRipen: 'number', notes: 'text', sources: 'text',
+};
 
-/** Undo the export's formula guard, so an exported file imports unchanged. */
-function unguard(value: string): string {
-  return value.startsWith("'") && FORMULA_START.test(value.slice(1)) ? value.slice(1) : value;
-}
-
-/** The catalogue as CSV (RFC 4180 quoting by papaparse), one row per variety; formula-like cells are guarded. */
+/**
+ * The catalogue as CSV, one row per variety, through the one formula-safe writer
+ * (shared/domain/spreadsheet-csv.ts); the import below reads its neutralised cells back unchanged.
+ */
 export function catalogueToCsv(varieties: Pick<Variety, (typeof CATALOGUE_CSV_COLUMNS)[number]>[]): string {
-  return Papa.unparse({
-    fields: [...CATALOGUE_CSV_COLUMNS],
-    data: varieties.map((v) => [v.name, v.synonyms.join('; '), v.figType, v.bearsBreba, v.bearsMain, v.ripeningClass ?? '', v.typicalDaysToRipen ?? '', v.notes, v.sources]),
-  }, { escapeFormulae: FORMULA_START });
+  return toSpreadsheetCsv(
+    CATALOGUE_CSV_COLUMNS.map((name) => ({ name, kind: COLUMN_KINDS[name] })),
+    varieties.map((v) => [v.name, v.synonyms.join('; '), v.figType, v.bearsBreba, v.bearsMain, v.ripeningClass, v.typicalDaysToRipen, v.notes, v.sources]),
+  );
 }
 
 /**
@@ -33,7 +33,7 @@ export function catalogueToCsv(varieties: Pick<Variety, (typeof CATALOGUE_CSV_CO
  * come back, only the list of problems (row, column, message).
  */
 export function parseCatalogueCsv(text: string): { ok: true; rows: VarietyInput[] } | { ok: false; problems: CsvProblem[] } {
-  const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim(), transform: unguard });
+  const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: (h) => h.trim(), transform: restoreNeutralisedText });
   const problems: CsvProblem[] = [];
   const header = parsed.meta.fields ?? [];
   for (const column of ['name', 'figType', 'bearsBreba', 'bearsMain'] as const) {

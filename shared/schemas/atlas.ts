@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS, RIPENING_CLASSES, SEASON_FIT_VERDICTS } from '../domain/codes';
 import { chanceSchema } from './chance';
+import { MIN_PUBLIC_RADIUS_KM } from '../domain/public-grid';
 import { numberFromText } from './text-number';
 
 /*
@@ -12,10 +13,22 @@ import { numberFromText } from './text-number';
 export const latSchema = numberFromText(z.coerce.number({ message: 'lat must be a number' }).min(-90, { message: 'lat must be between -90 and 90' }).max(90, { message: 'lat must be between -90 and 90' }));
 export const lonSchema = numberFromText(z.coerce.number({ message: 'lon must be a number' }).min(-180, { message: 'lon must be between -180 and 180' }).max(180, { message: 'lon must be between -180 and 180' }));
 
+/**
+ * The radius of every public radius query: at least one public grid cell (MIN_PUBLIC_RADIUS_KM,
+ * 8 km), since answers are per cell and a narrower circle only invites probing below it.
+ */
+export const publicRadiusKmSchema = numberFromText(
+  z.coerce
+    .number({ message: 'radiusKm must be a number' })
+    .min(MIN_PUBLIC_RADIUS_KM, { message: `radiusKm must be at least ${MIN_PUBLIC_RADIUS_KM} km (the public grid cell: no answer is finer than that)` })
+    .max(500, { message: 'radiusKm must be at most 500' })
+    .default(100),
+);
+
 export const nearQuerySchema = z.object({
   lat: latSchema,
   lon: lonSchema,
-  radiusKm: numberFromText(z.coerce.number({ message: 'radiusKm must be a number' }).gt(0, { message: 'radiusKm must be more than 0' }).max(500, { message: 'radiusKm must be at most 500' }).default(100)),
+  radiusKm: publicRadiusKmSchema,
   /** Rank for this growing form (season fit and ranking); all forms are counted either way. */
   form: z.enum(GROWING_FORMS).optional(),
 });

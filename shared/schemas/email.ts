@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { currentUserSchema, emailSchema, passwordSchema } from './auth';
+import { MIN_PUBLIC_RADIUS_KM } from '../domain/public-grid';
 
 /** A token from an e-mailed link (random, base64url). */
 export const emailTokenSchema = z.string().trim().min(16, { message: 'This link is incomplete' }).max(200, { message: 'This link is not valid' });
@@ -18,7 +19,8 @@ export type ResetInput = z.infer<typeof resetInputSchema>;
 /** A plain acknowledgement with a sentence to show. */
 export const messageResponseSchema = z.object({ message: z.string() });
 
-export const DIGEST_RADIUS_KM = { min: 5, max: 200, default: 50 } as const;
+/** The digest's radius: at least the public grid cell, like every public radius query. */
+export const DIGEST_RADIUS_KM = { min: MIN_PUBLIC_RADIUS_KM, max: 200, default: 50 } as const;
 
 /** GET /api/email/digest (signed in): the grower's digest settings and the home place it is centred on. */
 export const digestSettingsSchema = z.object({
@@ -34,7 +36,7 @@ export const digestSettingsInputSchema = z.object({
   active: z.boolean(),
   radiusKm: z.coerce
     .number({ message: 'Enter a distance in km' })
-    .min(DIGEST_RADIUS_KM.min, { message: `Use at least ${DIGEST_RADIUS_KM.min} km` })
+    .min(DIGEST_RADIUS_KM.min, { message: `Use at least ${DIGEST_RADIUS_KM.min} km (the public grid cell)` })
     .max(DIGEST_RADIUS_KM.max, { message: `Use at most ${DIGEST_RADIUS_KM.max} km` }),
 });
 export type DigestSettingsInput = z.infer<typeof digestSettingsInputSchema>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { CROPS, FIG_TYPES, GROWING_FORMS } from '../domain/codes';
-import { latSchema, lonSchema } from './atlas';
+import { latSchema, lonSchema, publicRadiusKmSchema } from './atlas';
 import { numberFromText } from './text-number';
 
 /* Wire shapes of the guidance charts and the short-season filter (GET /api/guidance/...). */
@@ -11,7 +11,7 @@ export const ripeDatesQuerySchema = z.object({
   varietyId: numberFromText(z.coerce.number({ message: 'varietyId must be a number' }).int({ message: 'varietyId must be a whole number' }).positive({ message: 'varietyId must be positive' })),
   lat: latSchema,
   lon: lonSchema,
-  radiusKm: numberFromText(z.coerce.number({ message: 'radiusKm must be a number' }).min(5, { message: 'radiusKm must be at least 5' }).max(500, { message: 'radiusKm must be at most 500' }).default(100)),
+  radiusKm: publicRadiusKmSchema,
   crop: z.enum(CROPS).default('main'),
 });
 export type RipeDatesQuery = z.infer<typeof ripeDatesQuerySchema>;

@@ -100,10 +100,13 @@ describe('GET /api/atlas/near', () => {
   it('keeps exactly the reports within the radius (great-circle distance, not the bounding box)', async () => {
     const res = await near(at(P));
     const violet = res.body.varieties.find((v: { varietyId: number }) => v.varietyId === ids.violet);
-    // 49.9 km in; 50.1 km and the 55 km box corner out; the hidden tree at 1 km never counts.
+    // Distances are to each tree's public grid cell centre (shared/domain/public-grid.ts), never
+    // its exact place: the trees at 49.9 and 50.1 km stand in cells centred 47.31 and 52.86 km
+    // from P, the 55 km box corner in one 54.18 km away. 47.31 km in; 52.86 km and the box corner
+    // out; the hidden tree never counts.
     expect(violet.all).toMatchObject({ trees: 1, reports: 1, share: 1 });
-    // With 51 km the tree at 50.1 km joins.
-    const wider = await near(at(P, 51));
+    // With 53 km the tree in the cell 52.86 km away joins (the box corner, 54.18 km, does not).
+    const wider = await near(at(P, 53));
     expect(wider.body.varieties.find((v: { varietyId: number }) => v.varietyId === ids.violet).all.trees).toBe(2);
   });
 
@@ -175,6 +178,7 @@ describe('GET /api/atlas/near', () => {
       ['lat=0&lon=-181', 'lon'],
       ['lat=0&lon=x', 'lon'],
       ['lat=0&lon=0&radiusKm=0', 'radiusKm'],
+      ['lat=0&lon=0&radiusKm=7.9', 'radiusKm'],
       ['lat=0&lon=0&radiusKm=501', 'radiusKm'],
       ['lat=0&lon=0&radiusKm=far', 'radiusKm'],
       ['lat=0&lon=0&form=roof', 'form'],

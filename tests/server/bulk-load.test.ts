@@ -62,8 +62,8 @@ function contents(sqlite: Database.Database) {
     // An evidence row's id is its place cell (high bits) and a counter within the cell that
     // depends on the order rows were written: compare the cell, not the counter.
     treeEvidence: (
-      all(`SELECT id >> 30 AS cell, tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened, first_ripe_doys, frost_to_ripe_days, frost_seasons
-             FROM tree_evidence ORDER BY tree_id, variety_id, form, lat, lon`) as Record<string, string | number | null>[]
+      all(`SELECT id >> 30 AS cell, tree_id, user_id, variety_id, grid_lat, grid_lon, form, reports, ripened, breba_reports, breba_ripened, first_ripe_doys, frost_to_ripe_days, frost_seasons
+             FROM tree_evidence ORDER BY tree_id, variety_id, form, grid_lat, grid_lon`) as Record<string, string | number | null>[]
     ).map((row) => ({ ...row, first_ripe_doys: sortedList(row.first_ripe_doys as string | null), frost_to_ripe_days: sortedList(row.frost_to_ripe_days as string | null), frost_seasons: sortedList(row.frost_seasons as string | null) })),
     triggers: all("SELECT name, tbl_name, sql FROM sqlite_master WHERE type = 'trigger' ORDER BY name"),
   };

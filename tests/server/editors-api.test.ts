@@ -185,8 +185,9 @@ describe('variety catalogue', () => {
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     const lines = res.text.split('\r\n');
     expect(lines[0]).toBe('name,synonyms,figType,bearsBreba,bearsMain,ripeningClass,typicalDaysToRipen,notes,sources');
-    expect(res.text).toContain('Lantern Amber,Amber Lantern; Amber Lanterne,common');
-    expect(res.text).not.toContain('\nAmber Lanterne,');
+    // Text cells are quoted, booleans bare (shared/domain/spreadsheet-csv.ts).
+    expect(res.text).toContain('"Lantern Amber","Amber Lantern; Amber Lanterne","common",');
+    expect(res.text).not.toContain('\n"Amber Lanterne",');
   });
 });
 

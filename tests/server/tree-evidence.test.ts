@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type EvidenceReport, type TreeEvidence, groupTreeEvidence, varietyOverall } from '../../shared/domain/ripening-stats';
 import { readTreeSnapshot } from '../../server/atlas/tree-snapshot';
 import { createTestDb } from '../helpers/test-app';
+import { toPublicPoint } from '../../shared/domain/public-grid';
 import type { Db } from '../../server/db/client';
 
 /*
@@ -13,11 +14,12 @@ import type { Db } from '../../server/db/client';
 
 let db: Db;
 let cleanup: () => void;
+/** Public grid cell centres (shared/domain/public-grid.ts); each report lies somewhere inside one. */
 const PLACES = [
-  { lat: 42.65, lon: -73.75 },
-  { lat: 42.7, lon: -73.8 },
+  { lat: 42.675, lon: -73.775 },
+  { lat: 42.725, lon: -73.825 },
   // Southern hemisphere: a season from spring frost in September to a first fig in February.
-  { lat: -37.8, lon: 144.96 },
+  { lat: -37.825, lon: 144.975 },
 ];
 
 beforeAll(() => {
@@ -45,6 +47,8 @@ type ReportRow = {
   variety_id: number | null;
   lat: number;
   lon: number;
+  grid_lat: number;
+  grid_lon: number;
   form: EvidenceReport['form'];
   crop: EvidenceReport['crop'];
   outcome: EvidenceReport['outcome'];
@@ -70,14 +74,14 @@ function expected(): string[] {
     outcome: r.outcome,
     season: r.season,
     // groupTreeEvidence keys a place by its distance; here every place has its own number.
-    distanceKm: placeIndex(r.lat, r.lon),
+    distanceKm: placeIndex(r.grid_lat, r.grid_lon),
     firstRipeDoy: r.first_ripe_date ? dayOfYear(r.first_ripe_date) : null,
     springFrostDoy: r.spring_frost_date ? dayOfYear(r.spring_frost_date) : null,
   }));
   const frostSeasons = new Map<string, string[]>();
   for (const r of reports) {
     if (!r.spring_frost_date || !r.fall_frost_date) continue;
-    const key = `${r.tree_id}|${r.user_id}|${r.variety_id}|${placeIndex(r.lat, r.lon)}|${r.form}`;
+    const key = `${r.tree_id}|${r.user_id}|${r.variety_id}|${placeIndex(r.grid_lat, r.grid_lon)}|${r.form}`;
     const days = Math.round((Date.parse(r.fall_frost_date) - Date.parse(r.spring_frost_date)) / 86_400_000) - 1;
     frostSeasons.set(key, [...(frostSeasons.get(key) ?? []), `${r.season}:${days}`]);
   }
@@ -93,7 +97,7 @@ function stored(): string[] {
   const rows = db.sqlite.prepare('SELECT * FROM tree_evidence').all() as Record<string, number | string | null>[];
   return rows
     .map((e) => {
-      const key = `${e.tree_id}|${e.user_id}|${e.variety_id}|${placeIndex(e.lat as number, e.lon as number)}|${e.form}`;
+      const key = `${e.tree_id}|${e.user_id}|${e.variety_id}|${placeIndex(e.grid_lat as number, e.grid_lon as number)}|${e.form}`;
       const list = (v: unknown) => (v === null ? [] : String(v).split(',').map(Number));
       return [key, e.reports, e.ripened, e.breba_reports, e.breba_ripened, sorted(list(e.first_ripe_doys)), sorted(list(e.frost_to_ripe_days)), sortedText(e.frost_seasons === null ? [] : String(e.frost_seasons).split(','))].join(' ');
     })
@@ -107,6 +111,8 @@ const arbReport = fc.record({
   tree: fc.integer({ min: 0, max: 3 }),
   variety: fc.constantFrom(1, 2, null),
   place: fc.integer({ min: 0, max: PLACES.length - 1 }),
+  /** Where in its cell the tree stands: tree_evidence must not depend on it. */
+  inCell: fc.tuple(fc.double({ min: -0.0249, max: 0.0249, noNaN: true }), fc.double({ min: -0.0249, max: 0.0249, noNaN: true })),
   form: fc.constantFrom('ground' as const, 'container' as const),
   crop: fc.constantFrom('breba' as const, 'main' as const),
   outcome: fc.constantFrom('no-fruit' as const, 'dropped' as const, 'unripe' as const, 'ripened' as const),
@@ -131,16 +137,18 @@ type ArbReport = typeof arbReport extends fc.Arbitrary<infer T> ? T : never;
 function columns(r: ArbReport, trees: { id: number; userId: number }[]) {
   const tree = trees[r.tree % trees.length]!;
   const place = PLACES[r.place]!;
+  const exact = { lat: place.lat + r.inCell[0], lon: place.lon + r.inCell[1] };
+  const grid = toPublicPoint(exact.lat, exact.lon);
   const spring = r.springDay === null ? null : isoDay(r.season, r.springDay);
   return {
     tree_id: tree.id,
     user_id: tree.userId,
     variety_id: r.variety,
     proposed_variety_name: r.variety === null ? 'Proposed (fictional)' : null,
-    lat: place.lat,
-    lon: place.lon,
-    grid_lat: place.lat,
-    grid_lon: place.lon,
+    lat: exact.lat,
+    lon: exact.lon,
+    grid_lat: grid.lat,
+    grid_lon: grid.lon,
     form: r.form,
     crop: r.crop,
     outcome: r.outcome,
@@ -211,8 +219,8 @@ describe('tree_evidence (kept by triggers) and the overall figures read from it'
           if (expected.share === null) expect(got.share).toBeNull();
           else expect(got.share).toBeCloseTo(expected.share, 12);
         }
-        // Ids follow the place: the high part is the row's 0.1-degree cell (drizzle/0008_tree-evidence-clustered.sql).
-        for (const e of sqlite.prepare('SELECT id, lat, lon FROM tree_evidence').all() as { id: number; lat: number; lon: number }[]) {
+        // Ids follow the public place: the high part is the row's 0.1-degree cell (drizzle/0012_tree-evidence-public-cell.sql).
+        for (const e of sqlite.prepare('SELECT id, grid_lat AS lat, grid_lon AS lon FROM tree_evidence').all() as { id: number; lat: number; lon: number }[]) {
           const cell = Math.floor((e.lat + 90) * 10) * 3601 + Math.floor((e.lon + 180) * 10);
           expect(Math.floor(e.id / 2 ** 30)).toBe(cell);
           expect(Number.isSafeInteger(e.id)).toBe(true);
@@ -220,5 +228,29 @@ describe('tree_evidence (kept by triggers) and the overall figures read from it'
       }),
       { numRuns: 60 },
     );
+  });
+
+  it('holds each tree on its public grid cell: moving a report inside its cell changes no row, not even its id', () => {
+    const { sqlite } = db;
+    sqlite.exec('DELETE FROM reports; DELETE FROM trees; DELETE FROM users;');
+    const userId = Number(sqlite.prepare("INSERT INTO users (email, display_name, password_hash) VALUES ('cell@example.com', 'Grower', 'x')").run().lastInsertRowid);
+    const treeIds = [0, 1].map(() => Number(sqlite.prepare("INSERT INTO trees (user_id, label) VALUES (?, 'tree')").run(userId).lastInsertRowid));
+    const insert = sqlite.prepare(
+      "INSERT INTO reports (tree_id, user_id, variety_id, lat, lon, grid_lat, grid_lon, form, crop, outcome, season, status) VALUES (?, ?, 1, ?, ?, 42.675, -73.775, 'ground', 'main', 'ripened', ?, 'published')",
+    );
+    // Two seasons of one tree at two exact spots of one cell: one row, on the cell's centre.
+    insert.run(treeIds[0], userId, 42.6512, -73.7561, 2024);
+    insert.run(treeIds[0], userId, 42.6988, -73.7993, 2025);
+    insert.run(treeIds[1], userId, 42.66, -73.78, 2025);
+    const rows = () => sqlite.prepare('SELECT * FROM tree_evidence ORDER BY id').all();
+    const before = rows();
+    expect(before).toHaveLength(2);
+    expect(before).toEqual(expect.arrayContaining([expect.objectContaining({ tree_id: treeIds[0], grid_lat: 42.675, grid_lon: -73.775, reports: 2 })]));
+    expect(Object.keys(before[0] as object)).not.toContain('lat');
+    // An edit that rewrites every column the triggers watch, with a new exact place in the same cell.
+    sqlite
+      .prepare("UPDATE reports SET lat = 42.6801, lon = -73.7502, grid_lat = 42.675, grid_lon = -73.775, form = 'ground', crop = 'main', outcome = 'ripened', status = 'published' WHERE tree_id = ?")
+      .run(treeIds[1]);
+    expect(rows()).toEqual(before);
   });
 });

@@ -28,7 +28,7 @@ afterAll(async () => {
 
 /** Tree rows written straight into tree_evidence (the triggers' output), `ripened` of each 1 report. */
 function addTrees(count: number, ripened: 0 | 1, firstTreeId: number): void {
-  const insert = db.sqlite.prepare("INSERT INTO tree_evidence (tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened) VALUES (?, 1, 1, 40, -100, 'ground', 1, ?, 0, 0)");
+  const insert = db.sqlite.prepare("INSERT INTO tree_evidence (tree_id, user_id, variety_id, grid_lat, grid_lon, form, reports, ripened, breba_reports, breba_ripened) VALUES (?, 1, 1, 40, -100, 'ground', 1, ?, 0, 0)");
   db.sqlite.transaction(() => {
     for (let i = 0; i < count; i++) insert.run(firstTreeId + i, ripened);
   })();
@@ -58,7 +58,7 @@ describe('tree snapshot cache', () => {
     const cache = cacheFor(grown);
     expect((await cache.get()).columns.count).toBe(0);
     expect(cache.offThread()).toBe(false);
-    const insert = grown.sqlite.prepare("INSERT INTO tree_evidence (tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened) VALUES (?, 1, 1, 40, -100, 'ground', 1, 1, 0, 0)");
+    const insert = grown.sqlite.prepare("INSERT INTO tree_evidence (tree_id, user_id, variety_id, grid_lat, grid_lon, form, reports, ripened, breba_reports, breba_ripened) VALUES (?, 1, 1, 40, -100, 'ground', 1, 1, 0, 0)");
     grown.sqlite.transaction(() => {
       for (let i = 0; i < LARGE_ATLAS_TREES; i++) insert.run(i + 1);
     })();

@@ -54,7 +54,7 @@ function store(rows: Row[]): void {
   const { sqlite } = db;
   sqlite.exec('DELETE FROM tree_evidence');
   const insert = sqlite.prepare(
-    `INSERT INTO tree_evidence (tree_id, user_id, variety_id, lat, lon, form, reports, ripened, breba_reports, breba_ripened, first_ripe_doys, frost_to_ripe_days, frost_seasons)
+    `INSERT INTO tree_evidence (tree_id, user_id, variety_id, grid_lat, grid_lon, form, reports, ripened, breba_reports, breba_ripened, first_ripe_doys, frost_to_ripe_days, frost_seasons)
      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
   );
   for (const r of rows) {

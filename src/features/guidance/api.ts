@@ -1,5 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { GrowingForm } from '@shared/domain/codes';
+import { MIN_PUBLIC_RADIUS_KM } from '@shared/domain/public-grid';
 import { fitResponseSchema, nearResponseSchema } from '@shared/schemas/atlas';
 import { ripeDatesResponseSchema, seasonSuccessResponseSchema, shortSeasonResponseSchema } from '@shared/schemas/guidance';
 import { varietyListSchema } from '@shared/schemas/varieties';
@@ -24,7 +25,7 @@ export const guidanceQueries = {
   ripeDates: (varietyId: number, q: { lat: number; lon: number; radiusKm: number }) =>
     queryOptions({
       queryKey: [...guidanceQueries.all, 'ripe-dates', varietyId, q],
-      queryFn: () => apiFetch(`/api/guidance/ripe-dates?${qs({ varietyId, ...q, radiusKm: Math.max(5, q.radiusKm) })}`, ripeDatesResponseSchema),
+      queryFn: () => apiFetch(`/api/guidance/ripe-dates?${qs({ varietyId, ...q, radiusKm: Math.max(MIN_PUBLIC_RADIUS_KM, q.radiusKm) })}`, ripeDatesResponseSchema),
     }),
   seasonSuccess: (form?: GrowingForm) =>
     queryOptions({ queryKey: [...guidanceQueries.all, 'season-success', form ?? 'all'], queryFn: () => apiFetch(`/api/guidance/season-success?${qs({ form })}`, seasonSuccessResponseSchema), staleTime: 5 * 60_000 }),
