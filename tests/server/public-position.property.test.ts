@@ -162,6 +162,9 @@ const PARAMETERS: Record<string, { paths: Paths; note?: string }> = {
   'GET /api/reports/export.geojson': { paths: () => ['/api/reports/export.geojson', '/api/reports/export.geojson?form=container'] },
   'GET /api/stations/:id': { paths: () => stations.map((id) => `/api/stations/${id}`) },
   'GET /api/places': { paths: () => ['/api/places?q=Albany'] },
+  'GET /api/places/nearest': { paths: () => POINTS.map((p) => `/api/places/nearest?lat=${p.lat}&lon=${p.lon}`) },
+  'GET /api/varieties/:id/page': { paths: () => [...varieties, proposedVariety].map((id) => `/api/varieties/${id}/page`) },
+  'GET /api/support/checkout/:sessionId': { paths: () => [], note: 'a checkout holds an amount and a state, no place' },
   'GET /tiles/*': { paths: () => ['/tiles/base/6/18/23.pbf'] },
   'GET /uploads/reports/:name': { paths: () => [], note: 'the random reports have no photos; a photo file holds no place (EXIF is stripped on upload)' },
 };
