@@ -11,6 +11,7 @@ import { seedDemoSavedPlaces } from '../saved-places/saved-places.seed';
 import { seedEditorsDemo } from '../moderation/editors-demo.seed';
 import { seedDemoDigest } from '../email/digest.seed';
 import { seedDemoStations } from './demo-stations';
+import { loadShippedNormals } from '../normals/normals.repo';
 import { seedDemoAtlas } from './demo-atlas-seed';
 import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
@@ -25,8 +26,14 @@ export async function seedDatabase(
     uploadsDir?: string;
     /** The demo atlas's several hundred growers (default: yes). Tests that need only the story skip them to stay quick. */
     demoAtlas?: boolean;
+    /** NOAA's climate normals, reference data on every install (default: yes). Tests of station arithmetic skip them. */
+    referenceClimate?: boolean;
   },
 ): Promise<void> {
+  if (config.referenceClimate !== false) {
+    const loaded = loadShippedNormals(db);
+    if (loaded) console.log(`Climate normals ${loaded.release}: ${loaded.added.length} stations added, ${loaded.replaced.length} replaced in ${Math.round(loaded.ms)} ms`);
+  }
   if (config.adminEmail && config.adminPassword && !findUserByEmail(db, config.adminEmail)) {
     insertUser(db, {
       email: config.adminEmail,

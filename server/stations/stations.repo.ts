@@ -153,7 +153,10 @@ export function deleteStation(db: Db, id: number, actorId: number | null): boole
   });
 }
 
-type StationSeasonTuple = [number, string, number, number, number | null, number | null, number | null, number | null, number | null];
+type StationSeasonTuple = [number, string, number, number, number | null, number | null, number | null, number | null, number | null, string | null, string | null, string | null, number | null, number | null, number | null];
+
+/** A daily station's figures with the complete years behind its 50 % summary (the snapshot prefers it over normals from MIN_DAILY_YEARS). */
+export type DailyStationSeason = StationSeason & { years: number };
 
 /**
  * Every station that has summaries at the threshold, with its season length at 10, 50 and 90 % and
@@ -162,10 +165,11 @@ type StationSeasonTuple = [number, string, number, number, number | null, number
  * through that snapshot; one row per station keeps that read short (~15 ms for 5,000 stations, a
  * third of the time one row per summary took).
  */
-export function allStationSeasons(db: Db, thresholdF = 32): StationSeason[] {
+export function allStationSeasons(db: Db, thresholdF = 32): DailyStationSeason[] {
   const rows = db.sqlite
     .prepare(
-      `SELECT s.id, s.name, s.lat, s.lon, m10.season_days, m50.season_days, m90.season_days, m50.last_spring_doy, m50.first_fall_doy
+      `SELECT s.id, s.name, s.lat, s.lon, m10.season_days, m50.season_days, m90.season_days, m50.last_spring_doy, m50.first_fall_doy,
+              s.code, s.first_date, s.last_date, m50.years, s.gdd50_f, s.extreme_min_c
          FROM stations s
          LEFT JOIN station_summaries m10 ON m10.station_id = s.id AND m10.threshold_f = @thresholdF AND m10.probability = 10
          LEFT JOIN station_summaries m50 ON m50.station_id = s.id AND m50.threshold_f = @thresholdF AND m50.probability = 50
@@ -174,5 +178,22 @@ export function allStationSeasons(db: Db, thresholdF = 32): StationSeason[] {
     )
     .raw()
     .all({ thresholdF }) as StationSeasonTuple[];
-  return rows.map(([id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50]) => ({ id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50 }));
+  return rows.map(([id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50, code, firstDate, lastDate, years, gdd50F, extremeMinC]) => ({
+    id,
+    name,
+    lat,
+    lon,
+    days10,
+    days50,
+    days90,
+    lastSpringDoy50,
+    firstFallDoy50,
+    code,
+    source: 'daily' as const,
+    period: firstDate && lastDate ? `${firstDate.slice(0, 4)}-${lastDate.slice(0, 4)}` : null,
+    freezeNote: null,
+    gdd50F,
+    extremeMinC,
+    years: years ?? 0,
+  }));
 }

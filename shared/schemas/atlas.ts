@@ -51,9 +51,38 @@ export const seasonEstimateSchema = z.object({
   stationCount: z.number().int(),
   reportFrostCount: z.number().int(),
   nearestStationKm: z.number().nullable(),
+  /**
+   * "never": every station in range is frost-free all year (NOAA -6666): no frost date is given.
+   * "any-month": a freeze can come in any month at every station in range (-4444): no season.
+   */
+  freezeNote: z.enum(['never', 'any-month']).nullable(),
+  /** Growing degree days base 50 °F (10 °C) in a typical year, °F-days; null when no station in range gives heat. */
+  gdd50F: z.number().nullable(),
+  heatStationCount: z.number().int(),
+  /** Average annual extreme minimum (°F) and its USDA-style half-zone, from daily records in range. */
+  extremeMinF: z.number().nullable(),
+  hardinessZone: z.string().nullable(),
+  coldStationCount: z.number().int(),
+  /** The kinds of station the figures rest on, with their periods. */
+  sources: z.array(z.object({ source: z.enum(['daily', 'normals']), period: z.string().nullable(), stations: z.number().int() })),
   /** Plain words: how the number was made, or why there is none. */
   method: z.string(),
-  stations: z.array(z.object({ id: z.number().int(), name: z.string(), distanceKm: z.number(), days50: z.number().nullable(), weight: z.number() })),
+  stations: z.array(
+    z.object({
+      id: z.number().int(),
+      name: z.string(),
+      /** The station's own id (GHCN for NOAA stations). */
+      code: z.string().nullable(),
+      /** "daily": computed from its daily record (has a detail page); "normals": NOAA's published normals. */
+      source: z.enum(['daily', 'normals']),
+      period: z.string().nullable(),
+      freezeNote: z.enum(['never', 'any-month']).nullable(),
+      distanceKm: z.number(),
+      days50: z.number().nullable(),
+      gdd50F: z.number().nullable(),
+      weight: z.number(),
+    }),
+  ),
 });
 export type SeasonEstimate = z.infer<typeof seasonEstimateSchema>;
 
