@@ -19,10 +19,19 @@ export interface StationMeta {
   elevationM: number | null;
 }
 
+export interface StationClimate {
+  gdd50F: number | null;
+  gddYears: number;
+  extremeMinC: number | null;
+  extremeMinWinters: number;
+}
+
 export interface StationData {
   days: StationDayRow[];
   freezeYears: StationDetail['freezeYears'];
   summaries: StationDetail['summaries'];
+  /** Heat and winter cold from the record (absent in data cached before they were computed). */
+  climate?: StationClimate;
 }
 
 const listColumns = {
@@ -62,6 +71,7 @@ export function findStationDetail(db: Db, id: number): StationDetail | undefined
       lastSpringDoy: stationFreezeYears.lastSpringDoy,
       firstFallDoy: stationFreezeYears.firstFallDoy,
       seasonDays: stationFreezeYears.seasonDays,
+      leftOutReason: stationFreezeYears.leftOutReason,
     })
     .from(stationFreezeYears)
     .where(eq(stationFreezeYears.stationId, id))
@@ -97,7 +107,7 @@ export function writeStation(db: Db, meta: StationMeta, data: StationData): { id
     if (firstDate === null || date < firstDate) firstDate = date;
     if (lastDate === null || date > lastDate) lastDate = date;
   }
-  const span = { firstDate, lastDate, dayCount: data.days.length };
+  const span = { firstDate, lastDate, dayCount: data.days.length, ...(data.climate ?? { gdd50F: null, gddYears: 0, extremeMinC: null, extremeMinWinters: 0 }) };
   let id: number;
   if (existingId) {
     id = existingId;
@@ -116,8 +126,8 @@ export function writeStation(db: Db, meta: StationMeta, data: StationData): { id
   sqlite
     .prepare("INSERT INTO station_days (station_id, date, tmin_c, tmax_c) SELECT ?, value ->> 0, value ->> 1, value ->> 2 FROM json_each(?)")
     .run(id, JSON.stringify(data.days.map((d) => [d.date, d.tminC, d.tmaxC])));
-  const insertYear = sqlite.prepare('INSERT INTO station_freeze_years (station_id, threshold_f, year, last_spring_doy, first_fall_doy, season_days) VALUES (?, ?, ?, ?, ?, ?)');
-  for (const y of data.freezeYears) insertYear.run(id, y.thresholdF, y.year, y.lastSpringDoy, y.firstFallDoy, y.seasonDays);
+  const insertYear = sqlite.prepare('INSERT INTO station_freeze_years (station_id, threshold_f, year, last_spring_doy, first_fall_doy, season_days, left_out_reason) VALUES (?, ?, ?, ?, ?, ?, ?)');
+  for (const y of data.freezeYears) insertYear.run(id, y.thresholdF, y.year, y.lastSpringDoy, y.firstFallDoy, y.seasonDays, y.leftOutReason ?? null);
   const insertSummary = sqlite.prepare('INSERT INTO station_summaries (station_id, threshold_f, probability, last_spring_doy, first_fall_doy, season_days, years) VALUES (?, ?, ?, ?, ?, ?, ?)');
   for (const s of data.summaries) insertSummary.run(id, s.thresholdF, s.probability, s.lastSpringDoy, s.firstFallDoy, s.seasonDays, s.years);
   return { id, before };

@@ -49,6 +49,8 @@ export const stationFreezeYearSchema = z.object({
   lastSpringDoy: z.number().int().nullable(),
   firstFallDoy: z.number().int().nullable(),
   seasonDays: z.number().int().nullable(),
+  /** Why the year is left out of the summaries (missing days); null when it counts. */
+  leftOutReason: z.string().nullable().default(null),
 });
 export type StationFreezeYear = z.infer<typeof stationFreezeYearSchema>;
 
