@@ -13,6 +13,7 @@ import { seedDemoDigest } from '../email/digest.seed';
 import { seedDemoStations } from './demo-stations';
 import { loadShippedNormals } from '../normals/normals.repo';
 import { seedDemoAtlas } from './demo-atlas-seed';
+import { DEMO_COOL_COAST_EMAIL_DOMAIN, seedDemoCoolCoast } from './demo-cool-coast';
 import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
@@ -47,6 +48,7 @@ export async function seedDatabase(
   await seedDemoAccounts(db);
   seedDemoVarieties(db);
   seedDemoReports(db);
+  seedDemoCoolCoast(db);
   if (config.demoAtlas !== false) seedDemoAtlas(db);
   if (config.uploadsDir) await seedDemoPhotos(db, config.uploadsDir);
   seedDemoWaspAreas(db);
@@ -87,7 +89,7 @@ function seedDemoVarieties(db: Db): void {
 
 function seedDemoReports(db: Db): void {
   if (db.select({ n: count() }).from(reports).get()!.n > 0) return;
-  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@') && !u.email.endsWith(`@${DEMO_ATLAS_EMAIL_DOMAIN}`));
+  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@') && !u.email.endsWith(`@${DEMO_ATLAS_EMAIL_DOMAIN}`) && !u.email.endsWith(`@${DEMO_COOL_COAST_EMAIL_DOMAIN}`));
   const varietyIds = new Map(db.select({ id: varieties.id, name: varieties.name }).from(varieties).all().map((v) => [v.name, v.id]));
   const demoReports = buildDemoReports(demoGrowers.length, DEMO_VARIETIES);
   db.transaction(() => {

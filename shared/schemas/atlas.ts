@@ -111,6 +111,15 @@ export const seasonFitSchema = z.object({
   /** The assumed head start of this form over a tree in the ground (adjustable assumption). */
   headStartDays: z.number(),
   marginDays: z.number().nullable(),
+  /** Typical yearly heat here, growing degree days base 50 °F (10 °C); null when no station in range gives it. */
+  localHeatF: z.number().nullable(),
+  /** Heat from the last spring frost to the first ripe main-crop fig the variety needs. */
+  neededHeatF: z.number().nullable(),
+  neededHeatFrom: z.enum(['reports', 'catalogue', 'none']),
+  /** Heat here (with the form's warmth) minus the need; null when either is unknown. */
+  heatMarginF: z.number().nullable(),
+  /** What holds the verdict down: too few frost-free days, too little heat, both; null when likely or unknown. */
+  limitedBy: z.enum(['days', 'heat', 'both']).nullable(),
   explanation: z.string(),
 });
 export type SeasonFit = z.infer<typeof seasonFitSchema>;
