@@ -35,17 +35,22 @@ export interface StationSnapshot {
  */
 export const MIN_DAILY_YEARS = 20;
 
-/** A normals row as a station season: its 90 % length is the short year, its 50 % the typical one. */
+/**
+ * A normals row as a station season: its 90 % length is the short year, its 50 % the typical one.
+ * Where a freeze can come in any month (-4444) no frost-free season is defined: the answer says so
+ * in words and takes no length from the station, although NCEI publishes one.
+ */
 export function normalsSeason(n: NormalsSnapshotRow): StationSeason {
   const wholeYear = n.freezeNote === 'never' ? 365 : null;
+  const anyMonth = n.freezeNote === 'any-month';
   return {
     // Normals stations have no row in `stations`: a negative id keeps them apart from those.
     id: -n.rowid,
     name: n.state ? `${titleCase(n.name)}, ${n.state}` : titleCase(n.name),
     lat: n.lat,
     lon: n.lon,
-    days10: n.seasonDays90,
-    days50: n.seasonDays50,
+    days10: anyMonth ? null : n.seasonDays90,
+    days50: anyMonth ? null : n.seasonDays50,
     days90: wholeYear,
     lastSpringDoy50: n.lastSpringDoy50,
     firstFallDoy50: n.firstFallDoy50,

@@ -1,7 +1,9 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { stationDetailSchema, stationListSchema, stationUploadFieldsSchema } from '../../shared/schemas/stations';
+import { freezeNoteWords } from '../../shared/domain/climate-normals';
+import { normalsReleasesSchema, normalsStationSchema, stationDetailSchema, stationListSchema, stationUploadFieldsSchema } from '../../shared/schemas/stations';
+import { findNormalsStation, listNormalsReleases } from '../normals/normals.repo';
 import type { Db } from '../db/client';
 import { HttpError, notFound } from '../lib/http-error';
 import { refuseLargeUpload } from '../middleware/refuse-large-body';
@@ -10,6 +12,7 @@ import { computeStationData } from './station-import';
 import { deleteStation, findStationDetail, listStations, saveStation } from './stations.repo';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+const normalsCodeSchema = z.object({ code: z.string().regex(/^[A-Z0-9]{1,20}$/, { message: 'code must be a station id such as USW00014735' }) });
 
 /** A century of daily rows is about 4 MB of CSV; leave room for wide files. */
 export const STATION_FILE_LIMIT_BYTES = 25 * 1024 * 1024;
@@ -45,6 +48,18 @@ export function createStationsRouter({ db }: { db: Db }): Router {
 
   router.get('/', (_req, res) => {
     res.json(stationListSchema.parse({ stations: listStations(db) }));
+  });
+
+  // Reference climate (NOAA normals), kept apart from the stations computed from daily records.
+  router.get('/normals', (_req, res) => {
+    res.json(normalsReleasesSchema.parse({ releases: listNormalsReleases(db) }));
+  });
+
+  router.get('/normals/:code', (req, res) => {
+    const { code } = normalsCodeSchema.parse(req.params);
+    const station = findNormalsStation(db, code);
+    if (!station) throw notFound('Normals station');
+    res.json(normalsStationSchema.parse({ ...station, freezeWords: freezeNoteWords(station.freezeNote) }));
   });
 
   router.get('/:id', (req, res) => {

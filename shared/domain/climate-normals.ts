@@ -129,7 +129,7 @@ const valueOf = (v: NormalsValue | undefined) => (v?.kind === 'value' ? v.value 
 /**
  * Combine a station's values into its record. A -6666 anywhere among the freeze figures means the
  * station never freezes (the season is the whole year, no dates); a -4444 that a freeze can come in
- * any month (no season, no dates). Neither ever becomes a date.
+ * any month (no dates; the published length is kept as it is). Neither ever becomes a date.
  */
 export function normalsStationFrom(entry: InventoryEntry, v: Partial<Record<Exclude<NormalsFileKey, 'inventory'>, NormalsValue>>): NormalsStation {
   const freezeValues = [v.lastSpring50, v.lastSpring90, v.firstFall50, v.firstFall90, v.season50, v.season90];
@@ -142,8 +142,10 @@ export function normalsStationFrom(entry: InventoryEntry, v: Partial<Record<Excl
     lastSpringDoy90: dates ? valueOf(v.lastSpring90) : null,
     firstFallDoy50: dates ? valueOf(v.firstFall50) : null,
     firstFallDoy90: dates ? valueOf(v.firstFall90) : null,
-    seasonDays50: freezeNote === 'any-month' ? null : (valueOf(v.season50) ?? wholeYear),
-    seasonDays90: freezeNote === 'any-month' ? null : (valueOf(v.season90) ?? wholeYear),
+    // Kept as published: NCEI gives a length even where the dates are -4444 (Bellemont, AZ: 74
+    // days). The estimate does not use it there (server/stations/station-snapshot.ts).
+    seasonDays50: valueOf(v.season50) ?? wholeYear,
+    seasonDays90: valueOf(v.season90) ?? wholeYear,
     freezeNote,
     gdd50F: valueOf(v.gdd50),
     flag: v.season50?.kind === 'value' ? v.season50.flag : null,

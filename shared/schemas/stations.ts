@@ -72,3 +72,36 @@ export const stationDetailSchema = z.object({
   summaries: z.array(stationSummarySchema),
 });
 export type StationDetail = z.infer<typeof stationDetailSchema>;
+
+/** One NOAA climate-normals station's 32 °F figures and heat (GET /api/stations/normals/:code). */
+export const normalsStationSchema = z.object({
+  code: z.string(),
+  name: z.string(),
+  state: z.string().nullable(),
+  lat: z.number(),
+  lon: z.number(),
+  elevationM: z.number().nullable(),
+  /** Days of year (1 January = 1, a common year); null where the normals give no date. */
+  lastSpringDoy50: z.number().int().nullable(),
+  lastSpringDoy90: z.number().int().nullable(),
+  firstFallDoy50: z.number().int().nullable(),
+  firstFallDoy90: z.number().int().nullable(),
+  /** Growing-season days reached in 50 % / 90 % of years. */
+  seasonDays50: z.number().int().nullable(),
+  seasonDays90: z.number().int().nullable(),
+  /** "never": frost-free all year (-6666); "any-month": no frost-free season defined (-4444). */
+  freezeNote: z.enum(['never', 'any-month']).nullable(),
+  /** The special value in words, when there is one. */
+  freezeWords: z.string().nullable(),
+  gdd50F: z.number().nullable(),
+  flag: z.string().nullable(),
+  release: z.string(),
+  periodStart: z.number().int(),
+  periodEnd: z.number().int(),
+});
+export type NormalsStationView = z.infer<typeof normalsStationSchema>;
+
+/** The normals releases held (GET /api/stations/normals). */
+export const normalsReleasesSchema = z.object({
+  releases: z.array(z.object({ name: z.string(), periodStart: z.number().int(), periodEnd: z.number().int(), source: z.string(), stationCount: z.number().int(), loadedAt: z.string() })),
+});

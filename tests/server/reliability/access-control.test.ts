@@ -90,6 +90,9 @@ const CASES: Case[] = [
   { route: 'POST /api/wasp-areas/:id/retire', expected: editors(200), call: async (w) => ({ method: 'post', path: `/api/wasp-areas/${await w.waspArea()}/retire` }) },
   { route: 'GET /api/stations', expected: everyone(200), call: () => get('/api/stations') },
   { route: 'GET /api/stations/:id', expected: everyone(200), call: (w) => get(`/api/stations/${w.station()}`) },
+  { route: 'GET /api/stations/normals', expected: everyone(200), call: () => get('/api/stations/normals') },
+  // No normals are loaded in this test's database: a well-formed code that is not there is a 404 for everyone.
+  { route: 'GET /api/stations/normals/:code', expected: everyone(404), call: () => get('/api/stations/normals/USW00014735') },
   {
     route: 'POST /api/stations/upload',
     expected: editors(201),
