@@ -28,14 +28,15 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
   const days50 = near.season.days50;
   const shortSeason = useShortSeason(days50, query.form, shortOnly);
   const onlyIds = useMemo(() => (shortOnly && shortSeason.data ? new Set(shortSeason.data.varieties.map((v) => v.varietyId)) : null), [shortOnly, shortSeason.data]);
-  const nearest = [...near.season.stations].sort((a, b) => a.distanceKm - b.distanceKm)[0];
+  // The year-by-year chart needs a daily record; normals stations give only their summary (shown above).
+  const nearest = near.season.stations.filter((s) => s.source === 'daily').sort((a, b) => a.distanceKm - b.distanceKm)[0];
 
   return (
     <div className="flex flex-col gap-6">
       <SeasonSummary near={near} />
       {nearest && (
         <section className="rounded-lg border border-fig-100 bg-white p-4">
-          <h2 className="font-semibold text-fig-900">Frost dates at the nearest station</h2>
+          <h2 className="font-semibold text-fig-900">Frost dates at the nearest station with a daily record</h2>
           <StationFrostChart stationId={nearest.id} distanceKm={nearest.distanceKm} />
         </section>
       )}

@@ -89,6 +89,12 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
             {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (reports elsewhere)' : ''}
             {fit.headStartDays ? `, head start ${fit.headStartDays} days` : ''}
             {fit.marginDays !== null ? `, margin ${fit.marginDays > 0 ? '+' : ''}${Math.round(fit.marginDays)} days` : ''}
+            {fit.localHeatF !== null && fit.neededHeatF !== null && (
+              <span className="block" data-testid="fit-heat">
+                Heat: {fit.localHeatF.toLocaleString()} growing degree days (base 50 °F) here vs {fit.neededHeatF.toLocaleString()} needed
+                {fit.limitedBy ? ` · limited by ${fit.limitedBy === 'both' ? 'days and heat' : fit.limitedBy}` : ''}
+              </span>
+            )}
             <span className="block text-xs text-ink/70">{fit.explanation}</span>
           </dd>
         </div>
