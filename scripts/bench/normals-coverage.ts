@@ -53,7 +53,7 @@ export function randomContiguousUsPoints(count: number, seed = 2_110): { lat: nu
   return points;
 }
 
-export function normalsCoverage(): { loadMs: number; secondLoadMs: number; stations: number; share: number; points: number } {
+export function normalsCoverage(): { loadMs: number; secondLoadMs: number; stations: number; share: number; points: number; estimateMs: Record<50 | 200, number> } {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'syconium-normals-bench-'));
   const db = createDb(path.join(dir, 'fresh.db'));
   try {
@@ -71,7 +71,20 @@ export function normalsCoverage(): { loadMs: number; secondLoadMs: number; stati
       const season = estimateSeason({ point, stations: stationSeasonsInBoxes(snapshot, point, COVERAGE_RADIUS_KM), reportFrostSeasons: [], radiusKm: COVERAGE_RADIUS_KM });
       if (season.days50 !== null && season.sources.some((s) => s.period)) withSeason++;
     }
-    return { loadMs, secondLoadMs, stations: loaded.added.length, share: withSeason / points.length, points: points.length };
+    // The season estimate's own share of a near call with every normals station in memory (the
+    // station snapshot and estimateSeason), median over the same points.
+    const estimateMs = { 50: 0, 200: 0 };
+    for (const radiusKm of [50, 200] as const) {
+      const times: number[] = [];
+      for (const point of points) {
+        const t = performance.now();
+        estimateSeason({ point, stations: stationSeasonsInBoxes(currentStationSnapshot(db), point, radiusKm), reportFrostSeasons: [], radiusKm });
+        times.push(performance.now() - t);
+      }
+      times.sort((a, b) => a - b);
+      estimateMs[radiusKm] = times[Math.floor(times.length / 2)]!;
+    }
+    return { loadMs, secondLoadMs, stations: loaded.added.length, share: withSeason / points.length, points: points.length, estimateMs };
   } finally {
     db.sqlite.close();
     fs.rmSync(dir, { recursive: true, force: true });

@@ -56,3 +56,17 @@ export function yearlyHeat(days: { date: string; tminC: number; tmaxC: number | 
   }
   return { gdd50F: n > 0 ? Math.round(total / n) : null, years: n };
 }
+
+/**
+ * Heat gathered from the last spring frost to `daysAfterFrost` days later, at a place whose typical
+ * year gives `seasonHeatF` growing degree days over a frost-free season of `seasonDays` days.
+ * Assumed shape (a MODEL, no source): the season's heat comes as a half sine over the frost-free
+ * days, little just after the spring frost and before the fall one, most in midsummer, so the
+ * share gathered after t of L days is (1 - cos(pi t / L)) / 2. Used to turn a report's days from
+ * spring frost to first ripe fig into heat where no daily temperatures of the garden exist.
+ */
+export function heatFromFrost(seasonHeatF: number, seasonDays: number, daysAfterFrost: number): number {
+  if (!(seasonDays > 0) || !(daysAfterFrost > 0)) return 0;
+  const share = (1 - Math.cos(Math.PI * Math.min(1, daysAfterFrost / seasonDays))) / 2;
+  return seasonHeatF * share;
+}
