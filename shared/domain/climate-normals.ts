@@ -55,7 +55,7 @@ export type NormalsStation = {
 
 /** A value with its optional completeness flag: "04/28S", "163S", "-6666", "2649". */
 export function parseNormalsValue(text: string): NormalsValue {
-  const m = /^\s*(-?\d{1,4}(?:\/\d{1,2})?)([A-Z])?\s*$/.exec(text);
+  const m = /^\s*(-?\d{1,5}(?:\.\d+|\/\d{1,2})?)([A-Z])?\s*$/.exec(text);
   if (!m) return { kind: 'missing' };
   const raw = m[1]!;
   if (raw === String(NEVER_FREEZES)) return { kind: 'never' };
@@ -69,10 +69,10 @@ export function parseNormalsValue(text: string): NormalsValue {
   return { kind: 'value', value: Number(raw), flag: m[2] ?? null };
 }
 
-/** A date written MMDD (the 1991-2020 CSVs) or MM/DD as a day of year; special values pass through. */
+/** A date written MMDD, MM-DD or MM/DD (the 1991-2020 CSVs; the form recalled from memory) as a day of year; special values pass through. */
 export function parseNormalsDate(text: string): NormalsValue {
   const t = text.trim().replace(/^"|"$/g, '');
-  const compact = /^(\d{2})(\d{2})([A-Z])?$/.exec(t);
+  const compact = /^(\d{2})-?(\d{2})([A-Z])?$/.exec(t);
   return parseNormalsValue(compact ? `${compact[1]}/${compact[2]}${compact[3] ?? ''}` : t);
 }
 

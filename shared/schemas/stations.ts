@@ -105,3 +105,39 @@ export type NormalsStationView = z.infer<typeof normalsStationSchema>;
 export const normalsReleasesSchema = z.object({
   releases: z.array(z.object({ name: z.string(), periodStart: z.number().int(), periodEnd: z.number().int(), source: z.string(), stationCount: z.number().int(), loadedAt: z.string() })),
 });
+
+/** POST /api/stations/bulk: the form field beside the files (the release a normals set belongs to). */
+export const bulkImportFieldsSchema = z.object({
+  release: z.preprocess(blankToUndefined, z.string().trim().regex(/^\d{4}-\d{4}$/, { message: 'The release must be a period such as 1991-2020' }).optional()),
+});
+
+export const bulkStationResultSchema = z.object({
+  code: z.string(),
+  name: z.string(),
+  status: z.enum(['added', 'replaced', 'refused']),
+  reason: z.string().nullable(),
+});
+export type BulkStationResult = z.infer<typeof bulkStationResultSchema>;
+
+/** What a bulk import did: the set's layout, the normals release, counts, and each station. */
+export const bulkImportSummarySchema = z.object({
+  kind: z.enum(['normals-fixed-width', 'normals-csv', 'ghcn-daily']),
+  release: z.string().nullable(),
+  added: z.number().int(),
+  replaced: z.number().int(),
+  refused: z.number().int(),
+  stations: z.array(bulkStationResultSchema),
+});
+export type BulkImportSummary = z.infer<typeof bulkImportSummarySchema>;
+
+/**
+ * The answer to a bulk import is a stream of JSON lines (application/x-ndjson): one `progress` line
+ * per station as it is read and computed, then one `summary` (written) or `failed` (nothing
+ * written, with every problem) line.
+ */
+export const bulkImportLineSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('progress'), code: z.string(), index: z.number().int(), total: z.number().int(), status: z.enum(['read', 'refused']), message: z.string().optional() }),
+  z.object({ type: z.literal('summary'), summary: bulkImportSummarySchema }),
+  z.object({ type: z.literal('failed'), status: z.number().int(), message: z.string(), problems: z.array(z.string()) }),
+]);
+export type BulkImportLine = z.infer<typeof bulkImportLineSchema>;

@@ -25,7 +25,7 @@ describe('NOAA normals shipped with the app', () => {
     ctx = createTestContext();
     const loaded = loadShippedNormals(ctx.db)!;
     firstLoadMs = loaded.ms;
-  });
+  }, 60_000);
   afterAll(() => ctx.db.sqlite.close());
 
   it('loads every normals station in seconds, once', () => {
@@ -124,5 +124,5 @@ describe('a newer normals release', () => {
     expect(again.refused).toEqual([{ code: 'USW00014735', reason: expect.stringContaining('newer normals release') }]);
     expect(ctx.db.sqlite.prepare("SELECT season_days50 FROM normals_stations WHERE code = 'USW00014735'").pluck().get()).toBe(169);
     ctx.db.sqlite.close();
-  });
+  }, 60_000);
 });
