@@ -3,6 +3,8 @@ import { useNavigate, useParams } from 'react-router';
 import { StationDetailView } from '../features/stations/components/station-detail';
 import { StationList } from '../features/stations/components/station-list';
 import { StationUploadForm } from '../features/stations/components/station-upload-form';
+import { BulkImportForm } from '../features/stations/components/bulk-import-form';
+import { NormalsReleases } from '../features/stations/components/normals-releases';
 
 /** Editors' Stations tab: the list, the upload form, and the selected station's frost dates. */
 export default function EditorsStationsRoute() {
@@ -33,6 +35,11 @@ export default function EditorsStationsRoute() {
             Upload a station
           </h2>
           <StationUploadForm onUploaded={(id) => navigate(`/editors/stations/${id}`)} />
+          <h2 id="stations-bulk-title" className="mt-6 mb-2 font-medium text-fig-900">
+            Import a whole set
+          </h2>
+          <BulkImportForm />
+          <NormalsReleases />
         </section>
       </div>
       <div ref={detailRef} className="mt-10 scroll-mt-4">
