@@ -78,7 +78,8 @@ export function writeNormalsRelease(db: Db, release: NormalsRelease, stations: N
     const drop = sqlite.prepare('DELETE FROM normals_stations WHERE code = ?');
     for (const [code, h] of held) if (h.releaseId === releaseId && !inSet.has(code)) drop.run(code);
   }
-  sqlite.prepare('UPDATE normals_releases SET station_count = (SELECT count(*) FROM normals_stations WHERE release_id = ?) WHERE id = ?').run(releaseId, releaseId);
+  // Every release's count: stations this one took over leave the older release.
+  sqlite.prepare('UPDATE normals_releases SET station_count = (SELECT count(*) FROM normals_stations s WHERE s.release_id = normals_releases.id)').run();
   return summary;
 }
 

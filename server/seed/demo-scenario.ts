@@ -81,7 +81,8 @@ export const DEMO_TOWNS: DemoTown[] = [
 /**
  * The demo's cool-summer coastal town: invented growers on the north coast of California, where
  * NOAA's normals give a frost-free season of about 300 days and barely 1,450 growing degree days.
- * Early figs ripen; late ones stay hard however long the season is.
+ * Late figs stay hard however long the season is; early ones ripen mostly in pots, on warm walls
+ * or under cover.
  */
 export const DEMO_COOL_COAST_TOWN: DemoTown = { name: 'Eureka, CA', lat: 40.8, lon: -124.16, seasonDays: 306, springFrostDoy: 46, heatF: 1444, waspEstablished: false };
 export const DEMO_COOL_COAST_GROWERS = ['Ansel Moravec', 'Petra Lindgren', 'Caspar Ngata', 'Oriel Fane', 'Brisa Ocampo', 'Tomas Weller'] as const;

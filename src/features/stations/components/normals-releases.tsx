@@ -11,7 +11,7 @@ export function NormalsReleases() {
       <ul className="mt-1 list-disc pl-5">
         {data.releases.map((r) => (
           <li key={r.name}>
-            {r.name}: {r.stationCount.toLocaleString()} stations, loaded {r.loadedAt.slice(0, 10)} ({r.source})
+            {r.name}: {r.stationCount.toLocaleString()} station{r.stationCount === 1 ? '' : 's'}, loaded {r.loadedAt.slice(0, 10)} ({r.source})
           </li>
         ))}
       </ul>
