@@ -4,7 +4,7 @@ import { zipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SHIPPED_NORMALS_DIR } from '../../server/normals/normals.repo';
 import { dayOfYear } from '../../shared/domain/frost';
-import { bulkImportLineSchema, normalsStationSchema, type BulkImportLine } from '../../shared/schemas/stations';
+import { bulkImportLineSchema, normalsStationSchema, stationDetailSchema, type BulkImportLine } from '../../shared/schemas/stations';
 import { createTestContext, type TestAgent, type TestContext } from '../helpers/test-app';
 
 /*
@@ -75,8 +75,15 @@ describe('bulk imports of stations', () => {
     const all = lines(res.text);
     expect(all[0]).toMatchObject({ type: 'progress', code: 'USW00014735', index: 1, total: 1, status: 'read' });
     expect(all.at(-1)).toMatchObject({ type: 'summary', summary: { kind: 'ghcn-daily', added: 1, replaced: 0, refused: 0 } });
-    const list = (await ctx.agent().get('/api/stations')).body.stations as { code: string; name: string; firstDate: string }[];
-    expect(list.find((s) => s.code === 'USW00014735')).toMatchObject({ name: 'ALBANY INTL AP, NY', firstDate: '2000-01-01' });
+    const list = (await ctx.agent().get('/api/stations')).body.stations as { id: number; code: string; name: string; firstDate: string }[];
+    const station = list.find((s) => s.code === 'USW00014735')!;
+    expect(station).toMatchObject({ name: 'ALBANY INTL AP, NY', firstDate: '2000-01-01' });
+    // The record stops on 2018-04-25: 2018 is left out of the summaries, and its row says why.
+    const detail = stationDetailSchema.parse((await ctx.agent().get(`/api/stations/${station.id}`)).body);
+    const y2018 = detail.freezeYears.find((y) => y.year === 2018 && y.thresholdF === 32)!;
+    expect(y2018.leftOutReason).toMatch(/^\d+ days missing in spring after the last freeze and \d+ days missing in fall/);
+    expect(detail.freezeYears.find((y) => y.year === 2010 && y.thresholdF === 32)!.leftOutReason).toBeNull();
+    expect(detail.summaries.find((s) => s.thresholdF === 32 && s.probability === 50)!.years).toBe(18);
   }, 60_000);
 
   it('writes nothing when one file of the set is bad, and names it', async () => {
