@@ -6,7 +6,7 @@ import { heatFromFrost } from '../../shared/domain/gdd';
 import { heatNeedByVariety, overallByVariety, type OverallRow, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
 import { estimateSeason } from '../../shared/domain/season-estimate';
 import type { Db } from '../db/client';
-import { readStationSnapshot, stationSeasonsInBoxes, type StationSnapshot } from '../stations/station-snapshot';
+import { currentStationSnapshot, stationSeasonsInBoxes, type StationSnapshot } from '../stations/station-snapshot';
 import { atlasDataVersion } from '../db/data-version';
 import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 
@@ -167,7 +167,7 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
   c.frostSeasonDays = Int16Array.from(seasonDays);
   c.index = index.data as ArrayBuffer;
   const overall = overallByVariety(overallRows(c));
-  for (const [varietyId, heat] of heatNeedByVariety(heatRows(c, readStationSnapshot({ sqlite } as Db)))) {
+  for (const [varietyId, heat] of heatNeedByVariety(heatRows(c, stationsFor(sqlite)))) {
     const o = overall.get(varietyId);
     if (o) Object.assign(o, heat);
   }
@@ -179,6 +179,15 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
 /** The snapshot from what a read handed over (the index wraps its buffer; nothing is copied). */
 export function treeSnapshotFrom(data: TreeSnapshotData): TreeSnapshot {
   return { version: data.version, columns: data.columns, index: KDBush.from(data.columns.index), overall: new Map(data.overall) };
+}
+
+const wrappers = new WeakMap<Database.Database, Db>();
+
+/** The station snapshot over this connection, kept while the stations do not change (one per connection). */
+function stationsFor(sqlite: Database.Database): StationSnapshot {
+  let db = wrappers.get(sqlite);
+  if (!db) wrappers.set(sqlite, (db = { sqlite } as Db));
+  return currentStationSnapshot(db);
 }
 
 /** How far to look for stations when turning a tree's days into heat (the near answer's default radius). */
