@@ -203,7 +203,7 @@ function describe(e: SeasonEstimate, radiusKm: number): string {
     return `No frost-free season defined: at the ${e.stationCount === 1 ? 'station' : `${e.stationCount} stations`} within ${radiusKm} km a freeze ${at} can come in any month (${sourcesWords(e.sources)}).`;
   }
   if (e.days50 === null) {
-    return `${e.stationCount} station(s) within ${radiusKm} km, but none has enough complete years for a season length ${at}.`;
+    return `${e.stationCount} station(s) within ${radiusKm} km, but none gives a season length ${at} (too few complete years, or only heat figures).`;
   }
   const parts: string[] = [];
   if (e.stationCount > 0) {
