@@ -1,5 +1,6 @@
 // Bench of GET /api/atlas/near: 1,000,000 synthetic reports clustered around a few thousand grower
-// places and 5,000 stations in a temporary database; at 50 km and 200 km it prints the endpoint's
+// places and 5,000 stations in a temporary database, plus the shipped NOAA normals (7,501 stations; their
+// load time and how much of the contiguous US they cover are printed first); at 50 km and 200 km it prints the endpoint's
 // median and p95 latency over HTTP, the same aggregation as one raw indexed SQL query (the floor),
 // and a brute-force scan of every row. `NEAR_BENCH_REPORTS=100000 npm run bench -- near` for a quick run.
 import fs from 'node:fs';
@@ -15,6 +16,8 @@ import { boundingBox } from '../../shared/domain/geo';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import { CROPS, GROWING_FORMS, OUTCOMES } from '../../shared/domain/codes';
 import { bulkLoad } from '../bulk-load';
+import { loadShippedNormals } from '../../server/normals/normals.repo';
+import { COVERAGE_RADIUS_KM, normalsCoverage } from './normals-coverage';
 
 const REPORTS = Number(process.env.NEAR_BENCH_REPORTS ?? 1_000_000);
 const CLUSTERS = 3_000;
@@ -151,6 +154,15 @@ async function main() {
       ({ centres } = build(db));
       console.log(`Built ${REPORTS.toLocaleString()} reports (${GROWERS.toLocaleString()} growers around ${CLUSTERS.toLocaleString()} places) and ${STATIONS.toLocaleString()} stations in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
     }
+
+    // The shipped NOAA normals (7,501 stations) join the bench's stations, as on every install.
+    const normals = normalsCoverage();
+    console.log(
+      `Reference climate: the shipped NOAA 1981-2010 normals (${normals.stations.toLocaleString()} stations) load into a fresh database in ${(normals.loadMs / 1000).toFixed(2)} s (target < 5 s), ` +
+        `${normals.secondLoadMs.toFixed(0)} ms on a later start (already loaded); ${(normals.share * 100).toFixed(1)} % of ${normals.points.toLocaleString()} random points in the contiguous US get a season with its source (a station within ${COVERAGE_RADIUS_KM} km); ` +
+        `the season estimate over them takes ${normals.estimateMs[50].toFixed(3)} ms at 50 km and ${normals.estimateMs[200].toFixed(3)} ms at 200 km (median, in process).`,
+    );
+    loadShippedNormals(db);
 
     const app = createApp({ db, config: { ...readConfig({ NODE_ENV: 'test' }), seedDemo: false } });
     const server = app.listen(0, '127.0.0.1');

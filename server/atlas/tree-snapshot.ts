@@ -2,7 +2,11 @@ import type Database from 'better-sqlite3';
 import KDBush from 'kdbush';
 import { GROWING_FORMS, type GrowingForm } from '../../shared/domain/codes';
 import { distanceKm, type LatLon } from '../../shared/domain/geo';
-import { overallByVariety, type OverallRow, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
+import { heatFromFrost } from '../../shared/domain/gdd';
+import { heatNeedByVariety, overallByVariety, type OverallRow, type TreeEvidence, type VarietyOverall } from '../../shared/domain/ripening-stats';
+import { estimateSeason } from '../../shared/domain/season-estimate';
+import type { Db } from '../db/client';
+import { currentStationSnapshot, stationSeasonsInBoxes, type StationSnapshot } from '../stations/station-snapshot';
 import { atlasDataVersion } from '../db/data-version';
 import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 
@@ -165,7 +169,12 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
   c.frostSeasonYears = Int16Array.from(seasonYears);
   c.frostSeasonDays = Int16Array.from(seasonDays);
   c.index = index.data as ArrayBuffer;
-  const data: TreeSnapshotData = { version, columns: c, overall: [...overallByVariety(overallRows(c))] };
+  const overall = overallByVariety(overallRows(c));
+  for (const [varietyId, heat] of heatNeedByVariety(heatRows(c, stationsFor(sqlite)))) {
+    const o = overall.get(varietyId);
+    if (o) Object.assign(o, heat);
+  }
+  const data: TreeSnapshotData = { version, columns: c, overall: [...overall] };
   const transfer = Object.values(c).filter((v): v is ArrayBuffer | ArrayBufferView => typeof v === 'object').map((v) => (ArrayBuffer.isView(v) ? (v.buffer as ArrayBuffer) : v));
   return { data, transfer };
 }
@@ -173,6 +182,47 @@ export function readTreeSnapshot(sqlite: Database.Database): { data: TreeSnapsho
 /** The snapshot from what a read handed over (the index wraps its buffer; nothing is copied). */
 export function treeSnapshotFrom(data: TreeSnapshotData): TreeSnapshot {
   return { version: data.version, columns: data.columns, index: KDBush.from(data.columns.index), overall: new Map(data.overall) };
+}
+
+const wrappers = new WeakMap<Database.Database, Db>();
+
+/** The station snapshot over this connection, kept while the stations do not change (one per connection). */
+function stationsFor(sqlite: Database.Database): StationSnapshot {
+  let db = wrappers.get(sqlite);
+  if (!db) wrappers.set(sqlite, (db = { sqlite } as Db));
+  return currentStationSnapshot(db);
+}
+
+/**
+ * How far to look for stations when turning a tree's days into heat: half the near answer's default
+ * radius, near enough for the garden's summer, and about a quarter of the cost of 100 km with the normals loaded.
+ */
+const HEAT_STATION_KM = 50;
+
+/**
+ * Each tree row in the ground with its main-crop heat figures: days from spring frost to first ripe
+ * fig turned into heat at the row's place (heatFromFrost) with the typical season and heat the
+ * stations give there, one estimate per place. Rows where no station gives heat are left out. The
+ * stations are read with the tree rows, so the heat need follows the atlas data version (a station
+ * change shows in it with the next report).
+ */
+function* heatRows(c: TreeColumns, stations: StationSnapshot): Generator<{ treeId: number; varietyId: number; heats: number[] }> {
+  const places = new Map<string, { heat: number; days: number } | null>();
+  const groundCode = FORM_CODE.get('ground');
+  for (let i = 0; i < c.count; i++) {
+    if (c.form[i] !== groundCode || c.frostToRipeStart[i + 1] === c.frostToRipeStart[i]) continue;
+    const point = { lat: c.lat[i]!, lon: c.lon[i]! };
+    const key = `${point.lat.toFixed(2)},${point.lon.toFixed(2)}`;
+    let place = places.get(key);
+    if (place === undefined) {
+      const season = estimateSeason({ point, stations: stationSeasonsInBoxes(stations, point, HEAT_STATION_KM), reportFrostSeasons: [], radiusKm: HEAT_STATION_KM });
+      place = season.gdd50F !== null && season.days50 !== null ? { heat: season.gdd50F, days: season.days50 } : null;
+      places.set(key, place);
+    }
+    if (!place) continue;
+    const heats = slice(c.frostToRipeDays, c.frostToRipeStart, i).map((d) => Math.round(heatFromFrost(place.heat, place.days, d)));
+    yield { treeId: c.treeId[i]!, varietyId: c.varietyId[i]!, heats };
+  }
 }
 
 /** The columns as the rows the overall figures read, one at a time. */

@@ -284,6 +284,12 @@ export const stations = sqliteTable('stations', {
   firstDate: text('first_date'),
   lastDate: text('last_date'),
   dayCount: integer('day_count').notNull().default(0),
+  /** Mean yearly growing degree days base 50 °F over `gddYears` years with maxima and minima. */
+  gdd50F: real('gdd50_f'),
+  gddYears: integer('gdd_years').notNull().default(0),
+  /** Average annual extreme minimum (°C) over `extremeMinWinters` winters: the hardiness zone's basis. */
+  extremeMinC: real('extreme_min_c'),
+  extremeMinWinters: integer('extreme_min_winters').notNull().default(0),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -314,8 +320,51 @@ export const stationFreezeYears = sqliteTable(
     lastSpringDoy: integer('last_spring_doy'),
     firstFallDoy: integer('first_fall_doy'),
     seasonDays: integer('season_days'),
+    /** Why the year is left out of the summaries (missing days); null when it counts. */
+    leftOutReason: text('left_out_reason'),
   },
   (t) => [primaryKey({ columns: [t.stationId, t.thresholdF, t.year] })],
+);
+
+/** A release of NOAA's climate normals (reference data, shipped and loaded on every start). */
+export const normalsReleases = sqliteTable('normals_releases', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  /** "1981-2010", "1991-2020". */
+  name: text('name').notNull().unique(),
+  periodStart: integer('period_start').notNull(),
+  periodEnd: integer('period_end').notNull(),
+  source: text('source').notNull(),
+  /** SHA-256 of the files the release was read from: the same files are not loaded twice. */
+  fingerprint: text('fingerprint'),
+  stationCount: integer('station_count').notNull().default(0),
+  loadedAt: text('loaded_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+});
+
+/** One normals station's 32 °F figures and heat, from the release named by releaseId. */
+export const normalsStations = sqliteTable(
+  'normals_stations',
+  {
+    code: text('code').primaryKey(),
+    releaseId: integer('release_id')
+      .notNull()
+      .references(() => normalsReleases.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    state: text('state'),
+    lat: real('lat').notNull(),
+    lon: real('lon').notNull(),
+    elevationM: real('elevation_m'),
+    lastSpringDoy50: integer('last_spring_doy50'),
+    lastSpringDoy90: integer('last_spring_doy90'),
+    firstFallDoy50: integer('first_fall_doy50'),
+    firstFallDoy90: integer('first_fall_doy90'),
+    seasonDays50: integer('season_days50'),
+    seasonDays90: integer('season_days90'),
+    /** 'never' (-6666: frost-free all year) or 'any-month' (-4444: no season defined). */
+    freezeNote: text('freeze_note', { enum: ['never', 'any-month'] }),
+    gdd50F: real('gdd50_f'),
+    flag: text('flag'),
+  },
+  (t) => [index('normals_stations_release_idx').on(t.releaseId)],
 );
 
 /** Across-years summary of a station: dates and lengths at 10/50/90 % probability. */

@@ -15,7 +15,7 @@ import {
   WATERING,
   WINTER_PROTECTION,
 } from './demo-atlas-scenario';
-import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_SEASONS, DEMO_TOWNS, DEMO_VARIETIES, DEMO_WASP_AREAS, type DemoVariety } from './demo-scenario';
+import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_SEASONS, DEMO_TOWNS, DEMO_VARIETIES, DEMO_WASP_AREAS, storyHeatChance, type DemoVariety } from './demo-scenario';
 import { round5, type DemoReport } from './demo-reports';
 import { pick, seededRandom } from './random';
 
@@ -72,6 +72,8 @@ interface AtlasTown {
   lon: number;
   seasonDays: number;
   springFrostDoy: number;
+  /** Heat in a typical year (GDD base 50 °F) where the story gives one. */
+  heatF?: number;
   weight: number;
 }
 
@@ -295,7 +297,9 @@ export function buildDemoAtlas(options: { growers?: number; seed?: number; now?:
         else if (random() < 0.04) outcome = 'dropped'; // a dry July, or roots standing in water
         else {
           const available = seasonDays + start + gauss() * 6;
-          outcome = random() < clamp((available - (need - 5)) / 20, 0, 1) ? 'ripened' : 'unripe';
+          // Days and, where the town has a heat figure, heat: a long cool season is not enough.
+          const chance = Math.min(clamp((available - (need - 5)) / 20, 0, 1), storyHeatChance(town, variety, form, gauss()));
+          outcome = random() < chance ? 'ripened' : 'unripe';
         }
         let ripe: number | null = null;
         let harvest: number | null = null;

@@ -1,6 +1,6 @@
 import type { Crop, GrowingForm, Outcome, PlantOrigin } from '../../shared/domain/codes';
 import { toPublicPoint } from '../../shared/domain/public-grid';
-import { DEMO_SEASONS, DEMO_TOWNS, type DemoTown, type DemoVariety } from './demo-scenario';
+import { DEMO_SEASONS, DEMO_TOWNS, storyHeatChance, type DemoTown, type DemoVariety } from './demo-scenario';
 import { pick, seededRandom } from './random';
 
 export interface DemoReport {
@@ -38,15 +38,16 @@ function isoDate(year: number, dayOfYear: number): string {
  * The demo story: each invented grower lives near one town and keeps one to four trees; each tree
  * gets a report per season (and per crop where the variety bears a breba). The outcome follows the
  * story's own rules: young seedlings bear nothing, pollination-dependent crops drop where the wasp
- * is absent, and a crop ripens when the season (plus a container's head start) covers its days.
+ * is absent, and a crop ripens when the season (plus a container's head start) covers its days
+ * and, where the town has a heat figure, the summer gives the variety its heat.
  */
-export function buildDemoReports(growerCount: number, varieties: DemoVariety[], seed = 20261202): DemoReport[] {
+export function buildDemoReports(growerCount: number, varieties: DemoVariety[], seed = 20261202, towns: DemoTown[] = DEMO_TOWNS): DemoReport[] {
   const random = seededRandom(seed);
   const eatingVarieties = varieties.filter((v) => v.figType !== 'caprifig');
   const reports: DemoReport[] = [];
 
   for (let grower = 0; grower < growerCount; grower++) {
-    const town: DemoTown = DEMO_TOWNS[grower % DEMO_TOWNS.length]!;
+    const town: DemoTown = towns[grower % towns.length]!;
     // A private spot within about 25 km of the town centre.
     const lat = town.lat + (random() - 0.5) * 0.45;
     const lon = town.lon + (random() - 0.5) * 0.6;
@@ -119,7 +120,9 @@ function storyOutcome(input: {
   if (crop === 'breba') return random() < 0.85 ? 'ripened' : 'dropped';
   const need = variety.typicalDaysToRipen ?? 170;
   const available = seasonDays + FORM_HEAD_START[form] + (pinched ? 8 : 0) + Math.round((random() - 0.5) * 20);
-  return available >= need + 10 ? 'ripened' : available >= need - 10 && random() < 0.5 ? 'ripened' : 'unripe';
+  const onDays = available >= need + 10 ? 'ripened' : available >= need - 10 && random() < 0.5 ? 'ripened' : 'unripe';
+  if (onDays === 'unripe' || town.heatF === undefined) return onDays;
+  return random() < storyHeatChance(town, variety, form, random() - 0.5) ? 'ripened' : 'unripe';
 }
 
 /** A coordinate to 5 decimals (about a metre), as the demo stores places. */

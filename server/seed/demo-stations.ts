@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { freezeSummary, freezeYears } from '../../shared/domain/frost';
+import { freezeSummary, freezeYears, type FreezeComparison } from '../../shared/domain/frost';
 import { parseStationCsv } from '../../shared/domain/station-csv';
 import type { Db } from '../db/client';
 import { computeFreezeTables } from '../stations/station-import';
@@ -14,8 +14,12 @@ import { seededRandom } from './random';
 /** Years of synthetic record for the invented stations (kept short so seeding stays quick). */
 const SYNTHETIC_YEARS = { first: 2011, last: 2020 };
 
-/** Towns that have a real station in the demo instead of a synthetic one. */
-const TOWNS_WITH_REAL_STATIONS = new Set(['Albany, NY', 'Milwaukee, WI']);
+/**
+ * Towns with no real climate data within 50 km (no NOAA daily record in the demo, no NOAA normals
+ * station): only these keep an invented station. Every other demo town is covered by the shipped
+ * normals (server/normals) or, for Albany and Milwaukee, a real daily record.
+ */
+export const TOWNS_WITHOUT_REAL_DATA = new Set(['Toronto, ON', 'London, UK']);
 
 function isoDate(epochDay: number): string {
   return new Date(epochDay * 86_400_000).toISOString().slice(0, 10);
@@ -67,7 +71,7 @@ export const demoStationCode = (town: DemoTown) => `DEMO-${town.name.toUpperCase
 
 /** The invented stations: one a few km from each demo town that has no real station. */
 export function syntheticStationMetas(): { town: DemoTown; meta: StationMeta }[] {
-  return DEMO_TOWNS.filter((town) => !TOWNS_WITH_REAL_STATIONS.has(town.name)).map((town, i) => ({
+  return DEMO_TOWNS.filter((town) => TOWNS_WITHOUT_REAL_DATA.has(town.name)).map((town, i) => ({
     town,
     meta: {
       name: `${town.name} (demo, synthetic)`,
@@ -100,20 +104,32 @@ export const REAL_DEMO_STATIONS: { file: string; meta: StationMeta }[] = [
 
 /** A real station's days from `REAL_STATIONS_FROM` on, read by the same parser as an editor's upload. */
 export function readRealStationDays(file: string): StationDayRow[] {
+  return readRealStation(file).days;
+}
+
+/** The days and how to compare them with the thresholds (GHCN-Daily files: at 0.1 °C; see frost.ts). */
+function readRealStation(file: string): { days: StationDayRow[]; comparison: FreezeComparison } {
   // Both files start each row with the year: drop the older rows before parsing (quicker startup).
   const [header, ...lines] = fs.readFileSync(path.join(DATA_DIR, file), 'utf8').split(/\r?\n/);
   const fromYear = REAL_STATIONS_FROM.slice(0, 4);
   const text = [header, ...lines.filter((line) => line.slice(0, 4) >= fromYear)].join('\n');
   const parsed = parseStationCsv(text);
   if (parsed.errors.length > 0) throw new Error(`${file}: ${parsed.errors.length} bad rows, first: ${JSON.stringify(parsed.errors[0])}`);
-  return parsed.days.filter((d) => d.date >= REAL_STATIONS_FROM);
+  return { days: parsed.days.filter((d) => d.date >= REAL_STATIONS_FROM), comparison: parsed.format === 'ghcn' ? 'ghcn-tenths' : 'exact' };
 }
 
 /**
- * Demo climate stations: Albany and Milwaukee from NOAA records, and a synthetic one near each other
- * demo town. Idempotent: a station whose code is already there is left alone.
+ * Demo climate stations: Albany and Milwaukee from NOAA records, and a synthetic one near each demo
+ * town that no real data covers. Idempotent: a station whose code is already there is left alone;
+ * the synthetic stations earlier versions made for towns that the normals now cover are removed.
  */
 export function seedDemoStations(db: Db): void {
+  const kept = new Set(syntheticStationMetas().map(({ meta }) => meta.code!));
+  const retired = DEMO_TOWNS.map(demoStationCode).filter((code) => !kept.has(code));
+  db.transaction(() => {
+    const drop = db.sqlite.prepare('DELETE FROM stations WHERE code = ?');
+    for (const code of retired) drop.run(code);
+  });
   const missing = new Set(
     [...REAL_DEMO_STATIONS.map(({ meta }) => meta.code!), ...syntheticStationMetas().map(({ meta }) => meta.code!)].filter((code) => findStationIdByCode(db, code) === undefined),
   );
@@ -127,9 +143,12 @@ export function seedDemoStations(db: Db): void {
 type PreparedStation = { meta: StationMeta; data: StationData };
 
 function computeDemoStationData(): PreparedStation[] {
-  const withFreezeTables = (meta: StationMeta, days: StationDayRow[]) => ({ meta, data: { days, ...computeFreezeTables(days, meta.lat) } });
+  const withFreezeTables = (meta: StationMeta, days: StationDayRow[], comparison: FreezeComparison = 'exact') => ({ meta, data: { days, ...computeFreezeTables(days, meta.lat, comparison) } });
   return [
-    ...REAL_DEMO_STATIONS.map(({ file, meta }) => withFreezeTables(meta, readRealStationDays(file))),
+    ...REAL_DEMO_STATIONS.map(({ file, meta }) => {
+      const { days, comparison } = readRealStation(file);
+      return withFreezeTables(meta, days, comparison);
+    }),
     ...syntheticStationMetas().map(({ town, meta }) => withFreezeTables(meta, calibratedSyntheticDays(town, 1991 + DEMO_TOWNS.indexOf(town)))),
   ];
 }

@@ -13,7 +13,9 @@ import { seedDemoDigest } from '../email/digest.seed';
 import { seedDemoSupporters } from '../support/support.seed';
 import { seedDemoFollows } from '../follows/follows.seed';
 import { seedDemoStations } from './demo-stations';
+import { loadShippedNormals } from '../normals/normals.repo';
 import { seedDemoAtlas } from './demo-atlas-seed';
+import { DEMO_COOL_COAST_EMAIL_DOMAIN, seedDemoCoolCoast } from './demo-cool-coast';
 import { DEMO_ATLAS_EMAIL_DOMAIN } from './demo-atlas-scenario';
 import { DEMO_ACCOUNTS, DEMO_GROWER_NAMES, DEMO_PASSWORD, DEMO_VARIETIES, DEMO_WASP_AREAS } from './demo-scenario';
 
@@ -27,8 +29,14 @@ export async function seedDatabase(
     uploadsDir?: string;
     /** The demo atlas's several hundred growers (default: yes). Tests that need only the story skip them to stay quick. */
     demoAtlas?: boolean;
+    /** NOAA's climate normals, reference data on every install (default: yes). Tests of station arithmetic skip them. */
+    referenceClimate?: boolean;
   },
 ): Promise<void> {
+  if (config.referenceClimate !== false) {
+    const loaded = loadShippedNormals(db);
+    if (loaded) console.log(`Climate normals ${loaded.release}: ${loaded.added.length} stations added, ${loaded.replaced.length} replaced in ${Math.round(loaded.ms)} ms`);
+  }
   if (config.adminEmail && config.adminPassword && !findUserByEmail(db, config.adminEmail)) {
     insertUser(db, {
       email: config.adminEmail,
@@ -42,6 +50,7 @@ export async function seedDatabase(
   await seedDemoAccounts(db);
   seedDemoVarieties(db);
   seedDemoReports(db);
+  seedDemoCoolCoast(db);
   if (config.demoAtlas !== false) seedDemoAtlas(db);
   if (config.uploadsDir) await seedDemoPhotos(db, config.uploadsDir);
   seedDemoWaspAreas(db);
@@ -84,7 +93,7 @@ function seedDemoVarieties(db: Db): void {
 
 function seedDemoReports(db: Db): void {
   if (db.select({ n: count() }).from(reports).get()!.n > 0) return;
-  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@') && !u.email.endsWith(`@${DEMO_ATLAS_EMAIL_DOMAIN}`));
+  const demoGrowers = db.select({ id: users.id, email: users.email }).from(users).where(eq(users.isDemo, true)).all().filter((u) => !u.email.startsWith('admin@') && !u.email.startsWith('editor@') && !u.email.endsWith(`@${DEMO_ATLAS_EMAIL_DOMAIN}`) && !u.email.endsWith(`@${DEMO_COOL_COAST_EMAIL_DOMAIN}`));
   const varietyIds = new Map(db.select({ id: varieties.id, name: varieties.name }).from(varieties).all().map((v) => [v.name, v.id]));
   const demoReports = buildDemoReports(demoGrowers.length, DEMO_VARIETIES);
   db.transaction(() => {

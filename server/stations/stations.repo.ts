@@ -19,10 +19,19 @@ export interface StationMeta {
   elevationM: number | null;
 }
 
+export interface StationClimate {
+  gdd50F: number | null;
+  gddYears: number;
+  extremeMinC: number | null;
+  extremeMinWinters: number;
+}
+
 export interface StationData {
   days: StationDayRow[];
   freezeYears: StationDetail['freezeYears'];
   summaries: StationDetail['summaries'];
+  /** Heat and winter cold from the record (absent in data cached before they were computed). */
+  climate?: StationClimate;
 }
 
 const listColumns = {
@@ -62,6 +71,7 @@ export function findStationDetail(db: Db, id: number): StationDetail | undefined
       lastSpringDoy: stationFreezeYears.lastSpringDoy,
       firstFallDoy: stationFreezeYears.firstFallDoy,
       seasonDays: stationFreezeYears.seasonDays,
+      leftOutReason: stationFreezeYears.leftOutReason,
     })
     .from(stationFreezeYears)
     .where(eq(stationFreezeYears.stationId, id))
@@ -97,7 +107,7 @@ export function writeStation(db: Db, meta: StationMeta, data: StationData): { id
     if (firstDate === null || date < firstDate) firstDate = date;
     if (lastDate === null || date > lastDate) lastDate = date;
   }
-  const span = { firstDate, lastDate, dayCount: data.days.length };
+  const span = { firstDate, lastDate, dayCount: data.days.length, ...(data.climate ?? { gdd50F: null, gddYears: 0, extremeMinC: null, extremeMinWinters: 0 }) };
   let id: number;
   if (existingId) {
     id = existingId;
@@ -116,8 +126,8 @@ export function writeStation(db: Db, meta: StationMeta, data: StationData): { id
   sqlite
     .prepare("INSERT INTO station_days (station_id, date, tmin_c, tmax_c) SELECT ?, value ->> 0, value ->> 1, value ->> 2 FROM json_each(?)")
     .run(id, JSON.stringify(data.days.map((d) => [d.date, d.tminC, d.tmaxC])));
-  const insertYear = sqlite.prepare('INSERT INTO station_freeze_years (station_id, threshold_f, year, last_spring_doy, first_fall_doy, season_days) VALUES (?, ?, ?, ?, ?, ?)');
-  for (const y of data.freezeYears) insertYear.run(id, y.thresholdF, y.year, y.lastSpringDoy, y.firstFallDoy, y.seasonDays);
+  const insertYear = sqlite.prepare('INSERT INTO station_freeze_years (station_id, threshold_f, year, last_spring_doy, first_fall_doy, season_days, left_out_reason) VALUES (?, ?, ?, ?, ?, ?, ?)');
+  for (const y of data.freezeYears) insertYear.run(id, y.thresholdF, y.year, y.lastSpringDoy, y.firstFallDoy, y.seasonDays, y.leftOutReason ?? null);
   const insertSummary = sqlite.prepare('INSERT INTO station_summaries (station_id, threshold_f, probability, last_spring_doy, first_fall_doy, season_days, years) VALUES (?, ?, ?, ?, ?, ?, ?)');
   for (const s of data.summaries) insertSummary.run(id, s.thresholdF, s.probability, s.lastSpringDoy, s.firstFallDoy, s.seasonDays, s.years);
   return { id, before };
@@ -153,7 +163,10 @@ export function deleteStation(db: Db, id: number, actorId: number | null): boole
   });
 }
 
-type StationSeasonTuple = [number, string, number, number, number | null, number | null, number | null, number | null, number | null];
+type StationSeasonTuple = [number, string, number, number, number | null, number | null, number | null, number | null, number | null, string | null, string | null, string | null, number | null, number | null, number | null];
+
+/** A daily station's figures with the complete years behind its 50 % summary (the snapshot prefers it over normals from MIN_DAILY_YEARS). */
+export type DailyStationSeason = StationSeason & { years: number };
 
 /**
  * Every station that has summaries at the threshold, with its season length at 10, 50 and 90 % and
@@ -162,10 +175,11 @@ type StationSeasonTuple = [number, string, number, number, number | null, number
  * through that snapshot; one row per station keeps that read short (~15 ms for 5,000 stations, a
  * third of the time one row per summary took).
  */
-export function allStationSeasons(db: Db, thresholdF = 32): StationSeason[] {
+export function allStationSeasons(db: Db, thresholdF = 32): DailyStationSeason[] {
   const rows = db.sqlite
     .prepare(
-      `SELECT s.id, s.name, s.lat, s.lon, m10.season_days, m50.season_days, m90.season_days, m50.last_spring_doy, m50.first_fall_doy
+      `SELECT s.id, s.name, s.lat, s.lon, m10.season_days, m50.season_days, m90.season_days, m50.last_spring_doy, m50.first_fall_doy,
+              s.code, s.first_date, s.last_date, m50.years, s.gdd50_f, s.extreme_min_c
          FROM stations s
          LEFT JOIN station_summaries m10 ON m10.station_id = s.id AND m10.threshold_f = @thresholdF AND m10.probability = 10
          LEFT JOIN station_summaries m50 ON m50.station_id = s.id AND m50.threshold_f = @thresholdF AND m50.probability = 50
@@ -174,5 +188,22 @@ export function allStationSeasons(db: Db, thresholdF = 32): StationSeason[] {
     )
     .raw()
     .all({ thresholdF }) as StationSeasonTuple[];
-  return rows.map(([id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50]) => ({ id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50 }));
+  return rows.map(([id, name, lat, lon, days10, days50, days90, lastSpringDoy50, firstFallDoy50, code, firstDate, lastDate, years, gdd50F, extremeMinC]) => ({
+    id,
+    name,
+    lat,
+    lon,
+    days10,
+    days50,
+    days90,
+    lastSpringDoy50,
+    firstFallDoy50,
+    code,
+    source: 'daily' as const,
+    period: firstDate && lastDate ? `${firstDate.slice(0, 4)}-${lastDate.slice(0, 4)}` : null,
+    freezeNote: null,
+    gdd50F,
+    extremeMinC,
+    years: years ?? 0,
+  }));
 }

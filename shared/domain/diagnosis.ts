@@ -53,6 +53,9 @@ export function cropNeedsWasp(figType: FigType, crop: DiagnosisAnswers['crop']):
   return null;
 }
 
+/** Fully dormant fig wood survives to about 12-15 °F (California Rare Fruit Growers, "Fig" fruit facts): the warmer end. */
+export const DORMANT_WOOD_HARDY_F = 15;
+
 /** A season of about 150 frost-free days is short for many main crops (common practice, no source). */
 export const SHORT_SEASON_DAYS = 150;
 
@@ -67,6 +70,7 @@ const TIE_ORDER: CauseCode[] = [
   'young-tree',
   'weak-tree',
   'not-enough-heat',
+  'winter-dieback',
   'poor-nutrition',
   'too-much-nitrogen',
   'no-pinching',
@@ -86,6 +90,7 @@ const TITLES: Record<CauseCode, string> = {
   'pollination-unknown-type': 'Possibly a type that needs the wasp',
   'season-too-short': 'The season is too short for this variety and form',
   'not-enough-heat': 'Not enough summer heat',
+  'winter-dieback': 'Winter cold killed the wood the breba crop grows on',
   'no-pinching': 'Fruit set came too late in the summer',
   'variety-struggles-here': 'This variety rarely ripens near you',
   'keep-records': 'No single clear cause',
@@ -239,7 +244,8 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
     const seasonWords = local.seasonDays50 !== null ? `about ${Math.round(local.seasonDays50)} frost-free days in a typical year` : null;
     const needWords = local.neededDays !== null ? `; this variety needed about ${Math.round(local.neededDays)} days in reports elsewhere` : '';
     let score = 1.5;
-    if (fit === 'unlikely') score = 4;
+    if (local.limitedBy === 'heat') score = 0.5; // days enough; heat is the limit (below)
+    else if (fit === 'unlikely') score = 4;
     else if (fit === 'marginal') score = 3;
     else if (fit === 'likely') score = 0.5;
     else if (shortLocalSeason) score = 3;
@@ -258,6 +264,14 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
         : 'Figs left hard and green at the first frost usually mean the season ran out before the crop could finish.',
       tryNext,
     );
+    if (local.limitedBy === 'heat' || local.limitedBy === 'both') {
+      add(
+        'not-enough-heat',
+        fit === 'unlikely' ? 4 : 3,
+        `The frost-free season here is long enough, but the summer is cool: about ${local.heatF !== null ? Math.round(local.heatF).toLocaleString('en-US') : 'too few'} growing degree days (base 50 °F) in a typical year, less than this variety needs to ripen.`,
+        ['Grow it against a sunny wall or under cover, where it gathers more heat.', 'Or choose an early variety with a smaller heat need.'],
+      );
+    }
     if (a.sun !== 'full' || (!a.warmSpot && (shortLocalSeason || fit === 'marginal' || fit === 'unlikely'))) {
       add(
         'not-enough-heat',
@@ -278,6 +292,20 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
         ['latex'],
       );
     }
+  }
+
+  // --- Winter dieback takes the breba crop ---
+  // The breba crop forms on last year's wood. Fully dormant fig wood is hardy to about 12-15 °F
+  // (California Rare Fruit Growers, "Fig" fruit facts; shared/CHECKS.md): where the average coldest
+  // night of the year is below that, the wood dies back most winters and the brebas with it.
+  const brebaInQuestion = a.crop === 'breba' || a.crop === 'both' || (a.crop === 'unsure' && (a.symptom === 'no-fruit' || a.symptom === 'dropped'));
+  if (brebaInQuestion && local.extremeMinF !== null && local.extremeMinF < DORMANT_WOOD_HARDY_F && a.form !== 'greenhouse' && a.form !== 'container') {
+    add(
+      'winter-dieback',
+      a.crop === 'breba' ? 3.5 : a.crop === 'both' ? 2.5 : 1.5,
+      `The coldest night of an average winter here is about ${Math.round(local.extremeMinF)} °F${local.hardinessZone ? ` (hardiness zone ${local.hardinessZone})` : ''}, colder than the 12-15 °F dormant fig wood survives: the shoots that would carry the breba crop die back, so the tree fruits only on the new season's wood (the main crop).`,
+      ['Protect the tree over winter (wrap it, or bend it down and cover it) to keep last year’s wood alive.', 'Grow it in a container you move into an unheated shelter for winter.', 'Rely on the main crop: choose a variety whose main crop ripens near you.'],
+    );
   }
 
   // --- How the variety did nearby (regional engine) ---
@@ -336,5 +364,9 @@ export function localDataFrom(near: NearResponse | null | undefined, fit: FitRes
     seasonFit: seasonFit?.verdict ?? null,
     neededDays: seasonFit?.neededDays ?? null,
     headStartDays: seasonFit?.headStartDays ?? null,
+    limitedBy: seasonFit?.limitedBy ?? null,
+    heatF: season?.gdd50F ?? null,
+    extremeMinF: season?.extremeMinF ?? null,
+    hardinessZone: season?.hardinessZone ?? null,
   };
 }

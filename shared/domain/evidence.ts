@@ -37,7 +37,7 @@ export type VarietyEvidenceInput = {
  */
 export function buildVarietyEvidence(
   input: VarietyEvidenceInput,
-  context: { localSeasonDays: number | null; waspEstablished: boolean; form: GrowingForm; headStartDays?: number; bandwidthKm?: number },
+  context: { localSeasonDays: number | null; localHeatF?: number | null; waspEstablished: boolean; form: GrowingForm; headStartDays?: number; bandwidthKm?: number },
 ): RankInput {
   const { variety, overall } = input;
   const tally = tallyEvidence(input.localTrees, overall.share, { bandwidthKm: context.bandwidthKm });
@@ -58,8 +58,11 @@ export function buildVarietyEvidence(
     pollination: pollinationChecks(variety.figType, context.waspEstablished),
     seasonFit: seasonFit({
       localSeasonDays: context.localSeasonDays,
+      localHeatF: context.localHeatF ?? null,
       neededDaysFromReports: overall.neededDays,
       reportsBehindNeed: overall.treesBehindNeed,
+      neededHeatFromReports: overall.neededHeatF ?? null,
+      reportsBehindHeatNeed: overall.treesBehindHeatNeed ?? 0,
       ripeningClass: variety.ripeningClass,
       typicalDaysToRipen: variety.typicalDaysToRipen,
       form: context.form,
@@ -89,7 +92,7 @@ export function buildNearResponse(input: {
 }): NearResponse {
   const form = input.form ?? 'ground';
   const bandwidthKm = input.bandwidthKm ?? bandwidthForRadius(input.radiusKm);
-  const context = { localSeasonDays: input.season.days50, waspEstablished: input.wasp.established, form, bandwidthKm };
+  const context = { localSeasonDays: input.season.days50, localHeatF: input.season.gdd50F, waspEstablished: input.wasp.established, form, bandwidthKm };
   const trees = new Set<number>();
   const growers = new Set<number>();
   let reports = 0;
@@ -161,8 +164,11 @@ export function buildFitResponse(input: {
     season: input.season,
     seasonFit: seasonFit({
       localSeasonDays: input.season.days50,
+      localHeatF: input.season.gdd50F,
       neededDaysFromReports: input.overall.neededDays,
       reportsBehindNeed: input.overall.treesBehindNeed,
+      neededHeatFromReports: input.overall.neededHeatF ?? null,
+      reportsBehindHeatNeed: input.overall.treesBehindHeatNeed ?? 0,
       ripeningClass: variety.ripeningClass,
       typicalDaysToRipen: variety.typicalDaysToRipen,
       form: input.form,

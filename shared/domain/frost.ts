@@ -4,8 +4,14 @@
  * Method (after NOAA NCEI's U.S. Climate Normals freeze products, PRBLST / PRBFST / PRBGSL, and NCDC
  * Climatography of the U.S. No. 20, freeze/frost supplement):
  *
- * - A **freeze** at a threshold is a day whose minimum is at or below it. Readings are compared at
- *   0.1 °C, the precision GHCN-Daily stores (28 °F = -2.22 °C, stored as -2.2, still counts).
+ * - A **freeze** at a threshold is a day whose minimum is at or below it, compared exactly as
+ *   recorded (`comparison: 'exact'`, the default): a reading in °C or in decimal °F counts only at
+ *   or below the threshold, to the 0.01 °C at which the atlas stores readings (station-csv.ts):
+ *   28.0 °F is stored as -2.22 °C and meets 28 °F (-2.222 °C); 28.1 °F (-2.17) and -2.2 °C do not. GHCN-Daily stores U.S. stations' whole-°F readings as tenths of °C: 28 °F becomes
+ *   -2.2 °C, a hair above -2.22 °C. For such data only (`comparison: 'ghcn-tenths'`, chosen when
+ *   the file is in the GHCN-Daily layout) readings are compared at 0.1 °C, so the stored -2.2 still
+ *   counts at 28 °F (the next whole degree, 29 °F, is stored as -1.7 and does not). This tolerance
+ *   would be wrong for a decimal reading of -2.2 °C, so it is never applied to other data.
  * - **Season-year.** Northern hemisphere: the calendar year, split on 1 August; the last spring
  *   freeze is the last freeze from 1 January to 31 July, the first fall freeze the first freeze from
  *   1 August to 31 December (the NCEI/NCDC split, as we understand it; the split itself is recalled
@@ -42,7 +48,15 @@ export type FreezeYear = {
   seasonDays: number | null;
   /** False when too many days that could change a date are missing; such years are not summarized. */
   complete: boolean;
+  /** Why an incomplete year is left out, in words ("14 days missing in spring after the last freeze"); null when complete. */
+  leftOutReason?: string | null;
 };
+
+/**
+ * 'exact': compare the reading with the threshold as recorded. 'ghcn-tenths': whole-°F readings
+ * stored at 0.1 °C (GHCN-Daily), compared at that precision (see the module comment).
+ */
+export type FreezeComparison = 'exact' | 'ghcn-tenths';
 
 export type Hemisphere = 'north' | 'south';
 
@@ -118,11 +132,13 @@ function seasonBounds(year: number, hemisphere: Hemisphere) {
 export function freezeYears(
   days: DailyMin[],
   thresholdC: number,
-  options: { hemisphere?: Hemisphere; maxMissingDays?: number } = {},
+  options: { hemisphere?: Hemisphere; maxMissingDays?: number; comparison?: FreezeComparison } = {},
 ): FreezeYear[] {
   const hemisphere = options.hemisphere ?? 'north';
   const maxMissing = options.maxMissingDays ?? DEFAULT_MAX_MISSING_DAYS;
   const limitTenths = Math.round(thresholdC * 10);
+  const limitHundredths = Math.round(thresholdC * 100);
+  const isFreeze = options.comparison === 'ghcn-tenths' ? (t: number) => Math.round(t * 10) <= limitTenths : (t: number) => Math.round(t * 100) <= limitHundredths;
 
   const byDay = new Map<number, number>();
   let first = Infinity;
@@ -153,7 +169,7 @@ export function freezeYears(
       const t = byDay.get(e);
       if (t === undefined) continue;
       observed++;
-      if (Math.round(t * 10) <= limitTenths) {
+      if (isFreeze(t)) {
         freezes++;
         if (e < split) lastSpring = e;
         else if (firstFall === null) firstFall = e;
@@ -166,9 +182,14 @@ export function freezeYears(
     let fallMissing = 0;
     for (let e = split; e < (firstFall ?? end + 1); e++) if (!byDay.has(e)) fallMissing++;
     const complete = springMissing <= maxMissing && fallMissing <= maxMissing;
+    const reasons: string[] = [];
+    const half = lastSpring === null ? 'in spring' : 'in spring after the last freeze';
+    if (springMissing > maxMissing) reasons.push(`${springMissing} days missing ${half}`);
+    if (fallMissing > maxMissing) reasons.push(`${fallMissing} days missing ${firstFall === null ? 'in fall' : 'in fall before the first freeze'}`);
+    const leftOutReason = complete ? null : `${reasons.join(' and ')} (more than ${maxMissing} could move a date)`;
 
     if (freezes <= 1) {
-      result.push({ year, lastSpringDoy: null, firstFallDoy: null, seasonDays: length, complete });
+      result.push({ year, lastSpringDoy: null, firstFallDoy: null, seasonDays: length, complete, ...(leftOutReason ? { leftOutReason } : {}) });
       continue;
     }
     const from = lastSpring ?? start - 1;
@@ -179,6 +200,7 @@ export function freezeYears(
       firstFallDoy: firstFall === null ? null : doyOfEpochDay(firstFall),
       seasonDays: to - from - 1,
       complete,
+      ...(leftOutReason ? { leftOutReason } : {}),
     });
   }
   return result;
@@ -263,7 +285,7 @@ export function hemisphereOf(lat: number): Hemisphere {
  */
 export function stationFreezeTables(
   days: DailyMin[],
-  options: { hemisphere?: Hemisphere; thresholdsF?: readonly number[]; probabilities?: number[]; maxMissingDays?: number } = {},
+  options: { hemisphere?: Hemisphere; thresholdsF?: readonly number[]; probabilities?: number[]; maxMissingDays?: number; comparison?: FreezeComparison } = {},
 ): {
   years: (FreezeYear & { thresholdF: number })[];
   summaries: (FreezeSummaryRow & { thresholdF: number })[];

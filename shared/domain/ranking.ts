@@ -65,8 +65,9 @@ function reasonFor(item: RankInput): string {
   if (main === 'no' && breba === 'no') parts.push('ranked down: no edible crop is expected here without the fig wasp');
   else if (main === 'no') parts.push('ranked down: only the breba crop is expected without the fig wasp');
   else if (main === 'uncertain') parts.push('fig type unknown, pollination need uncertain');
-  if (item.seasonFit.verdict === 'unlikely') parts.push('ranked down: the season looks too short for the main crop');
-  else if (item.seasonFit.verdict === 'marginal') parts.push('the season is tight for the main crop');
+  const heatOnly = item.seasonFit.limitedBy === 'heat';
+  if (item.seasonFit.verdict === 'unlikely') parts.push(heatOnly ? 'ranked down: enough days, but too little summer heat for the main crop' : 'ranked down: the season looks too short for the main crop');
+  else if (item.seasonFit.verdict === 'marginal') parts.push(heatOnly ? 'the summer heat is tight for the main crop' : 'the season is tight for the main crop');
   else if (item.seasonFit.verdict === 'likely') parts.push('the season fits');
   return `${parts.join('; ')}.`;
 }

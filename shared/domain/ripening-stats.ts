@@ -270,7 +270,38 @@ function overallFigures(rows: Iterable<OverallRow>, groupOf: (row: OverallRow) =
 }
 
 /** A variety's figures over all its trees (see varietyOverall). */
-export type VarietyOverall = { share: number | null; neededDays: number | null; treesBehindNeed: number };
+export type VarietyOverall = {
+  share: number | null;
+  neededDays: number | null;
+  treesBehindNeed: number;
+  /** Heat from spring frost to first ripe fig (GDD base 50 °F) over trees in the ground, and the trees behind it (heatNeedByVariety). */
+  neededHeatF?: number | null;
+  treesBehindHeatNeed?: number;
+};
+
+/**
+ * Each variety's heat need from reports: per tree in the ground, the median of its main-crop heat
+ * figures (heat from the last spring frost to the first ripe fig at the tree's place), then the
+ * median over trees, each tree counting once (as neededDays).
+ */
+export function heatNeedByVariety(rows: Iterable<{ treeId: number; varietyId: number; heats: number[] }>): Map<number, { neededHeatF: number | null; treesBehindHeatNeed: number }> {
+  const byVariety = new Map<number, Map<number, number[]>>();
+  for (const row of rows) {
+    if (row.heats.length === 0) continue;
+    let trees = byVariety.get(row.varietyId);
+    if (!trees) byVariety.set(row.varietyId, (trees = new Map()));
+    const list = trees.get(row.treeId);
+    if (list) list.push(...row.heats);
+    else trees.set(row.treeId, [...row.heats]);
+  }
+  const out = new Map<number, { neededHeatF: number | null; treesBehindHeatNeed: number }>();
+  for (const [varietyId, trees] of byVariety) {
+    const perTree = [...trees.values()].map((list) => median(list) as number);
+    const m = median(perTree);
+    out.set(varietyId, { neededHeatF: m === null ? null : Math.round(m), treesBehindHeatNeed: perTree.length });
+  }
+  return out;
+}
 
 /**
  * The overall figures from their parts, as the server gathers them in SQL: the share (mean over trees

@@ -64,9 +64,38 @@ export const seasonEstimateSchema = z.object({
   stationCount: z.number().int(),
   reportFrostCount: z.number().int(),
   nearestStationKm: z.number().nullable(),
+  /**
+   * "never": every station in range is frost-free all year (NOAA -6666): no frost date is given.
+   * "any-month": a freeze can come in any month at every station in range (-4444): no season.
+   */
+  freezeNote: z.enum(['never', 'any-month']).nullable().default(null),
+  /** Growing degree days base 50 °F (10 °C) in a typical year, °F-days; null when no station in range gives heat. */
+  gdd50F: z.number().nullable().default(null),
+  heatStationCount: z.number().int().default(0),
+  /** Average annual extreme minimum (°F) and its USDA-style half-zone, from daily records in range. */
+  extremeMinF: z.number().nullable().default(null),
+  hardinessZone: z.string().nullable().default(null),
+  coldStationCount: z.number().int().default(0),
+  /** The kinds of station the figures rest on, with their periods. */
+  sources: z.array(z.object({ source: z.enum(['daily', 'normals']), period: z.string().nullable(), stations: z.number().int() })).default([]),
   /** Plain words: how the number was made, or why there is none. */
   method: z.string(),
-  stations: z.array(z.object({ id: z.number().int(), name: z.string(), distanceKm: z.number(), days50: z.number().nullable(), weight: z.number() })),
+  stations: z.array(
+    z.object({
+      id: z.number().int(),
+      name: z.string(),
+      /** The station's own id (GHCN for NOAA stations). */
+      code: z.string().nullable().default(null),
+      /** "daily": computed from its daily record (has a detail page); "normals": NOAA's published normals. */
+      source: z.enum(['daily', 'normals']).default('daily'),
+      period: z.string().nullable().default(null),
+      freezeNote: z.enum(['never', 'any-month']).nullable().default(null),
+      distanceKm: z.number(),
+      days50: z.number().nullable(),
+      gdd50F: z.number().nullable().default(null),
+      weight: z.number(),
+    }),
+  ),
 });
 export type SeasonEstimate = z.infer<typeof seasonEstimateSchema>;
 
@@ -95,6 +124,15 @@ export const seasonFitSchema = z.object({
   /** The assumed head start of this form over a tree in the ground (adjustable assumption). */
   headStartDays: z.number(),
   marginDays: z.number().nullable(),
+  /** Typical yearly heat here, growing degree days base 50 °F (10 °C); null when no station in range gives it. */
+  localHeatF: z.number().nullable().default(null),
+  /** Heat from the last spring frost to the first ripe main-crop fig the variety needs. */
+  neededHeatF: z.number().nullable().default(null),
+  neededHeatFrom: z.enum(['reports', 'catalogue', 'none']).default('none'),
+  /** Heat here (with the form's warmth) minus the need; null when either is unknown. */
+  heatMarginF: z.number().nullable().default(null),
+  /** What holds the verdict down: too few frost-free days, too little heat, both; null when likely or unknown. */
+  limitedBy: z.enum(['days', 'heat', 'both']).nullable().default(null),
   explanation: z.string(),
 });
 export type SeasonFit = z.infer<typeof seasonFitSchema>;

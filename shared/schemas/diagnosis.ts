@@ -50,6 +50,13 @@ export const diagnosisLocalDataSchema = z.object({
   seasonFit: z.enum(SEASON_FIT_VERDICTS).nullable().default(null),
   neededDays: z.number().nullable().default(null),
   headStartDays: z.number().nullable().default(null),
+  /** What limits the fit: too few days, too little heat, or both (the engine's `limitedBy`). */
+  limitedBy: z.enum(['days', 'heat', 'both']).nullable().default(null),
+  /** Typical yearly heat here (growing degree days base 50 °F). */
+  heatF: z.number().nullable().default(null),
+  /** Average annual extreme minimum (°F) and its USDA-style half-zone, from stations in range. */
+  extremeMinF: z.number().nullable().default(null),
+  hardinessZone: z.string().nullable().default(null),
 });
 export type DiagnosisLocalData = z.infer<typeof diagnosisLocalDataSchema>;
 export type DiagnosisLocalDataInput = z.input<typeof diagnosisLocalDataSchema>;
@@ -65,6 +72,7 @@ export const CAUSE_CODES = [
   'pollination-unknown-type',
   'season-too-short',
   'not-enough-heat',
+  'winter-dieback',
   'no-pinching',
   'variety-struggles-here',
   'keep-records',

@@ -49,6 +49,8 @@ export const stationFreezeYearSchema = z.object({
   lastSpringDoy: z.number().int().nullable(),
   firstFallDoy: z.number().int().nullable(),
   seasonDays: z.number().int().nullable(),
+  /** Why the year is left out of the summaries (missing days); null when it counts. */
+  leftOutReason: z.string().nullable().default(null),
 });
 export type StationFreezeYear = z.infer<typeof stationFreezeYearSchema>;
 
@@ -70,3 +72,72 @@ export const stationDetailSchema = z.object({
   summaries: z.array(stationSummarySchema),
 });
 export type StationDetail = z.infer<typeof stationDetailSchema>;
+
+/** One NOAA climate-normals station's 32 °F figures and heat (GET /api/stations/normals/:code). */
+export const normalsStationSchema = z.object({
+  code: z.string(),
+  name: z.string(),
+  state: z.string().nullable(),
+  lat: z.number(),
+  lon: z.number(),
+  elevationM: z.number().nullable(),
+  /** Days of year (1 January = 1, a common year); null where the normals give no date. */
+  lastSpringDoy50: z.number().int().nullable(),
+  lastSpringDoy90: z.number().int().nullable(),
+  firstFallDoy50: z.number().int().nullable(),
+  firstFallDoy90: z.number().int().nullable(),
+  /** Growing-season days reached in 50 % / 90 % of years. */
+  seasonDays50: z.number().int().nullable(),
+  seasonDays90: z.number().int().nullable(),
+  /** "never": frost-free all year (-6666); "any-month": no frost-free season defined (-4444). */
+  freezeNote: z.enum(['never', 'any-month']).nullable(),
+  /** The special value in words, when there is one. */
+  freezeWords: z.string().nullable(),
+  gdd50F: z.number().nullable(),
+  flag: z.string().nullable(),
+  release: z.string(),
+  periodStart: z.number().int(),
+  periodEnd: z.number().int(),
+});
+export type NormalsStationView = z.infer<typeof normalsStationSchema>;
+
+/** The normals releases held (GET /api/stations/normals). */
+export const normalsReleasesSchema = z.object({
+  releases: z.array(z.object({ name: z.string(), periodStart: z.number().int(), periodEnd: z.number().int(), source: z.string(), stationCount: z.number().int(), loadedAt: z.string() })),
+});
+
+/** POST /api/stations/bulk: the form field beside the files (the release a normals set belongs to). */
+export const bulkImportFieldsSchema = z.object({
+  release: z.preprocess(blankToUndefined, z.string().trim().regex(/^\d{4}-\d{4}$/, { message: 'The release must be a period such as 1991-2020' }).optional()),
+});
+
+export const bulkStationResultSchema = z.object({
+  code: z.string(),
+  name: z.string(),
+  status: z.enum(['added', 'replaced', 'refused']),
+  reason: z.string().nullable(),
+});
+export type BulkStationResult = z.infer<typeof bulkStationResultSchema>;
+
+/** What a bulk import did: the set's layout, the normals release, counts, and each station. */
+export const bulkImportSummarySchema = z.object({
+  kind: z.enum(['normals-fixed-width', 'normals-csv', 'ghcn-daily']),
+  release: z.string().nullable(),
+  added: z.number().int(),
+  replaced: z.number().int(),
+  refused: z.number().int(),
+  stations: z.array(bulkStationResultSchema),
+});
+export type BulkImportSummary = z.infer<typeof bulkImportSummarySchema>;
+
+/**
+ * The answer to a bulk import is a stream of JSON lines (application/x-ndjson): one `progress` line
+ * per station as it is read and computed, then one `summary` (written) or `failed` (nothing
+ * written, with every problem) line.
+ */
+export const bulkImportLineSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('progress'), code: z.string(), index: z.number().int(), total: z.number().int(), status: z.enum(['read', 'refused']), message: z.string().optional() }),
+  z.object({ type: z.literal('summary'), summary: bulkImportSummarySchema }),
+  z.object({ type: z.literal('failed'), status: z.number().int(), message: z.string(), problems: z.array(z.string()) }),
+]);
+export type BulkImportLine = z.infer<typeof bulkImportLineSchema>;

@@ -50,7 +50,7 @@ async function toApiError(response: Response): Promise<ApiError> {
 }
 
 /** The server's error answer as ApiError, or a plain one naming the status when it is not ours. */
-function errorFromBody(status: number, body: unknown): ApiError {
+export function errorFromBody(status: number, body: unknown): ApiError {
   const parsed = apiErrorSchema.safeParse(body);
   return parsed.success ? new ApiError(status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.fields) : new ApiError(status, 'http_error', `The server answered ${status}`);
 }

@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import { zipSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
 import { openSite, recordRequests, signIn } from './harness';
@@ -52,5 +53,35 @@ describe('editors’ climate stations in the browser', () => {
     await expect.poll(() => years.getByRole('rowheader', { name: '2005' }).isVisible()).toBe(true);
 
     expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  });
+
+  it('an editor imports a whole set: progress, the summary, and a bad set refused whole', async () => {
+    const page = await site.newPage({ viewport: { width: 390, height: 844 } });
+    const requests = recordRequests(page);
+    await signIn(page, site.url, 'editor@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/editors/stations`);
+    const form = page.getByRole('form', { name: 'Import a file set' });
+    // GHCN-Daily: NOAA's inventory line for Albany and a decade of its record, zipped (NOAA NCEI, public domain).
+    const inventory = 'USW00014735  42.7431  -73.8092   85.6 NY ALBANY INTL AP                          HCN 72518\n';
+    const zip = zipSync({ 'ghcnd-stations.txt': new TextEncoder().encode(inventory), 'USW00014735.csv': new Uint8Array(albanyDecade()) });
+    await form.locator('input[type="file"]').setInputFiles({ name: 'ghcnd.zip', mimeType: 'application/zip', buffer: Buffer.from(zip) });
+    await form.getByRole('button', { name: 'Import the set' }).click();
+    await expect.poll(() => page.getByTestId('bulk-summary').textContent(), { timeout: 60_000 }).toContain('0 added, 1 replaced, 0 refused');
+
+    // A 1991-2020 normals CSV with a latitude that is not one: nothing imported, the file and column named.
+    const bad = 'STATION,LATITUDE,LONGITUDE,NAME,ANN-TMIN-PRBGSL-T32FP50\nUSW00099999,north,-73.8,BAD,160\n';
+    await form.locator('input[type="file"]').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from(bad) });
+    await form.getByRole('button', { name: 'Import the set' }).click();
+    await expect.poll(() => page.getByRole('list', { name: 'Problems in the file set' }).textContent(), { timeout: 60_000 }).toContain('bad.csv, column LATITUDE');
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    expect(requests.filter((u) => !u.startsWith(site.url) && !u.startsWith('data:') && !u.startsWith('blob:'))).toEqual([]);
+  });
+
+  it('What ripens here on the cool coast: NOAA normals as the source, and enough days but too little heat', async () => {
+    const page = await site.newPage({ viewport: { width: 1280, height: 1000 } });
+    await page.goto(`${site.url}/here?lat=40.8&lon=-124.16&form=ground`);
+    await expect.poll(() => page.getByTestId('season-extras').textContent(), { timeout: 60_000 }).toContain('growing degree days');
+    expect(await page.getByText(/NOAA normals 1981-2010/).first().isVisible()).toBe(true);
+    await expect.poll(() => page.getByText(/Enough days, too little heat/).first().isVisible()).toBe(true);
   });
 });

@@ -23,14 +23,34 @@ import { createTestContext, createTestDb, type TestContext } from '../helpers/te
 function everyStation(db: Db): StationSeason[] {
   const rows = db.sqlite
     .prepare(
-      `SELECT s.id, s.name, s.lat, s.lon, m.probability, m.last_spring_doy AS lastSpringDoy, m.first_fall_doy AS firstFallDoy, m.season_days AS seasonDays
+      `SELECT s.id, s.name, s.lat, s.lon, s.code, s.first_date AS firstDate, s.last_date AS lastDate, s.gdd50_f AS gdd50F, s.extreme_min_c AS extremeMinC,
+              m.probability, m.last_spring_doy AS lastSpringDoy, m.first_fall_doy AS firstFallDoy, m.season_days AS seasonDays
          FROM stations s JOIN station_summaries m ON m.station_id = s.id AND m.threshold_f = 32`,
     )
-    .all() as { id: number; name: string; lat: number; lon: number; probability: number; lastSpringDoy: number | null; firstFallDoy: number | null; seasonDays: number | null }[];
+    .all() as {
+    id: number;
+    name: string;
+    lat: number;
+    lon: number;
+    code: string | null;
+    firstDate: string | null;
+    lastDate: string | null;
+    gdd50F: number | null;
+    extremeMinC: number | null;
+    probability: number;
+    lastSpringDoy: number | null;
+    firstFallDoy: number | null;
+    seasonDays: number | null;
+  }[];
   const byId = new Map<number, StationSeason>();
   for (const row of rows) {
     let s = byId.get(row.id);
-    if (!s) byId.set(row.id, (s = { id: row.id, name: row.name, lat: row.lat, lon: row.lon, days10: null, days50: null, days90: null, lastSpringDoy50: null, firstFallDoy50: null }));
+    if (!s) {
+      const period = row.firstDate && row.lastDate ? `${row.firstDate.slice(0, 4)}-${row.lastDate.slice(0, 4)}` : null;
+      const source = 'daily' as const;
+      s = { id: row.id, name: row.name, lat: row.lat, lon: row.lon, days10: null, days50: null, days90: null, lastSpringDoy50: null, firstFallDoy50: null, code: row.code, source, period, freezeNote: null, gdd50F: row.gdd50F, extremeMinC: row.extremeMinC };
+      byId.set(row.id, s);
+    }
     if (row.probability === 10) s.days10 = row.seasonDays;
     if (row.probability === 90) s.days90 = row.seasonDays;
     if (row.probability === 50) {
@@ -209,7 +229,9 @@ describe("station snapshot after editors' changes", () => {
 
     const id = saveStation(ctx.db, meta, data(200), null);
     expect(moved()).toBe(true);
-    expect(near()).toEqual([{ id, name: meta.name, lat: meta.lat, lon: meta.lon, days10: 220, days50: 200, days90: 180, lastSpringDoy50: 110, firstFallDoy50: 290 }]);
+    expect(near()).toEqual([
+      { id, name: meta.name, lat: meta.lat, lon: meta.lon, days10: 220, days50: 200, days90: 180, lastSpringDoy50: 110, firstFallDoy50: 290, code: 'SNAP1', source: 'daily', period: null, freezeNote: null, gdd50F: null, extremeMinC: null },
+    ]);
 
     // Uploaded again under the same code: the station is replaced in place.
     expect(saveStation(ctx.db, { ...meta, name: 'Renamed' }, data(180), null)).toBe(id);

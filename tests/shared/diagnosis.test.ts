@@ -158,6 +158,10 @@ describe('localDataFrom', () => {
       seasonFit: 'marginal', // the fit endpoint's answer wins over the list's
       neededDays: 160,
       headStartDays: 20,
+      limitedBy: null,
+      heatF: null,
+      extremeMinF: null,
+      hardinessZone: null,
     });
     expect(localDataFrom(null, null, null)).toMatchObject({ seasonDays50: null, waspEstablished: null, seasonFit: null });
   });
@@ -169,5 +173,23 @@ describe('cautions', () => {
     const causes = diagnose({ symptom: 'dropped', figType: 'san-pedro', crop: 'main', treeAgeYears: 6, watering: 'even', feeding: 'balanced' }, { waspEstablished: false });
     expect(causes[0]!.tryNext.join(' ')).toMatch(/pruning/);
     expect(causes[0]!.cautions).toContain('latex');
+  });
+});
+
+describe('diagnose with heat and winter cold at the place', () => {
+  it('names winter dieback for a lost breba crop where the average coldest night is below what dormant wood survives', () => {
+    // Dormant fig wood is hardy to about 12-15 F (California Rare Fruit Growers, "Fig" fruit facts; shared/CHECKS.md).
+    const causes = diagnose({ symptom: 'no-fruit', crop: 'breba', form: 'ground' }, { extremeMinF: -5, hardinessZone: '6a' });
+    expect(causes[0]).toMatchObject({ code: 'winter-dieback' });
+    expect(causes[0]!.why).toContain('zone 6a');
+    // A mild winter (20 F average minimum) or a container kept in shelter: not this cause.
+    expect(diagnose({ symptom: 'no-fruit', crop: 'breba', form: 'ground' }, { extremeMinF: 20 }).map((c) => c.code)).not.toContain('winter-dieback');
+    expect(diagnose({ symptom: 'no-fruit', crop: 'breba', form: 'container' }, { extremeMinF: -5 }).map((c) => c.code)).not.toContain('winter-dieback');
+  });
+
+  it('names too little heat where the fit is limited by heat, not days', () => {
+    const causes = diagnose({ symptom: 'unripe', crop: 'main', form: 'ground', sun: 'full', warmSpot: true, pinching: 'early-summer' }, { seasonDays50: 300, seasonFit: 'unlikely', limitedBy: 'heat', heatF: 1450 });
+    expect(causes[0]).toMatchObject({ code: 'not-enough-heat' });
+    expect(causes[0]!.why).toContain('1,450 growing degree days');
   });
 });

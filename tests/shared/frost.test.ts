@@ -84,7 +84,8 @@ describe('freezeYears and freezeSummary on Albany, NY (GHCN-Daily USW00014735), 
   });
 
   it('finds the 28 F median dates within 5 days of the NCEI normals', () => {
-    const years = inNormalsPeriod(freezeYears(days, thresholdFToC(28)));
+    // GHCN-Daily stores these whole-°F readings at 0.1 °C: compared at that precision.
+    const years = inNormalsPeriod(freezeYears(days, thresholdFToC(28), { comparison: 'ghcn-tenths' }));
     const [p10, p50, p90] = freezeSummary(years);
     // NOAA NCEI U.S. Climate Normals 1991-2020, Albany (unverified copy, shared/CHECKS.md):
     // 28 F last spring 04/28, 04/16, 04/03 at 10/50/90 %; first fall 10/11, 10/28, 11/10.
@@ -109,9 +110,27 @@ describe('freezeYears on hand-made series', () => {
     expect(years).toEqual([{ year: 2024, lastSpringDoy: 61, firstFallDoy: 305, seasonDays: 305 - 61 - 1, complete: true }]);
   });
 
-  it('compares at the 0.1 C precision of GHCN-Daily: -2.2 C counts as 28 F', () => {
-    const years = freezeYears(series('2023-01-01', '2023-12-31', { '2023-04-01': -2.2, '2023-04-20': -2.2, '2023-10-20': -2.1 , '2023-11-02': -2.2 }), thresholdFToC(28));
+  it('compares at the 0.1 C precision of GHCN-Daily only for such data: -2.2 C counts as 28 F', () => {
+    const marks = { '2023-04-01': -2.2, '2023-04-20': -2.2, '2023-10-20': -2.1, '2023-11-02': -2.2, '2023-11-20': -2.5 };
+    const years = freezeYears(series('2023-01-01', '2023-12-31', marks), thresholdFToC(28), { comparison: 'ghcn-tenths' });
     expect(years[0]).toMatchObject({ lastSpringDoy: dayOfYear('2023-04-20'), firstFallDoy: dayOfYear('2023-11-02') });
+    // The same readings taken as recorded (decimal °C): -2.2 C is 28.04 F, above 28 F, so only -2.5 C freezes.
+    // 28 F = -2.222 C (F = C * 9/5 + 32; shared/DOMAIN.md).
+    const exact = freezeYears(series('2023-01-01', '2023-12-31', marks), thresholdFToC(28));
+    expect(exact[0]).toMatchObject({ lastSpringDoy: null, firstFallDoy: null, seasonDays: 365 });
+  });
+
+  it('compares a reading made in F exactly with 28 F: 28.0 F counts, 28.1 F does not', () => {
+    const fToStoredC = (f: number) => Math.round((((f - 32) * 5) / 9) * 100) / 100; // as station-csv.ts stores a °F reading
+    const marks = { '2023-04-01': fToStoredC(28), '2023-04-20': fToStoredC(28.1), '2023-10-20': fToStoredC(28.1), '2023-11-02': fToStoredC(28) };
+    const years = freezeYears(series('2023-01-01', '2023-12-31', marks), thresholdFToC(28));
+    expect(years[0]).toMatchObject({ lastSpringDoy: dayOfYear('2023-04-01'), firstFallDoy: dayOfYear('2023-11-02') });
+  });
+
+  it('says why a year is left out', () => {
+    const days = series('2023-01-01', '2023-12-31', { '2023-03-01': -3, '2023-11-01': -3 }).filter((d) => d.date < '2023-05-01' || d.date > '2023-05-20');
+    const [year] = freezeYears(days, 0);
+    expect(year).toMatchObject({ complete: false, leftOutReason: '20 days missing in spring after the last freeze (more than 10 could move a date)' });
   });
 
   it('represents a year with one or no freezes as freeze-free (NCEI method, shared/CHECKS.md)', () => {

@@ -47,3 +47,26 @@ describe('estimateSeason', () => {
     expect(e.days50).toBe(150);
   });
 });
+
+describe('estimateSeason: heat and hardiness', () => {
+  const base = { lat: 40, lon: -100, days10: 150, days50: 170, days90: 190, lastSpringDoy50: 110, firstFallDoy50: 280 };
+  it('weights heat like the season, and gives the USDA half-zone of the average extreme minimum', () => {
+    const e = estimateSeason({
+      point: { lat: 40, lon: -100 },
+      stations: [
+        { ...base, id: 1, name: 'a', source: 'daily', gdd50F: 3000, extremeMinC: -15 },
+        { ...base, id: 2, name: 'b', lat: 40 + 10 / 111.195, source: 'normals', period: '1981-2010', gdd50F: 2000, extremeMinC: null },
+      ],
+      reportFrostSeasons: [],
+      radiusKm: 50,
+    });
+    // Station a at ~0 km weighs 1 / 1 (distance floored at 1 km), b at 10 km weighs 1 / 100.
+    expect(e.gdd50F).toBe(Math.round((3000 + 2000 / 100) / (1 + 1 / 100)));
+    // -15 C = 5 F: USDA 2023 Plant Hardiness Zone Map, 7b = 5 to 10 F (shared/CHECKS.md).
+    expect(e).toMatchObject({ extremeMinF: 5, hardinessZone: '7b', coldStationCount: 1, heatStationCount: 2 });
+    expect(e.sources).toEqual([
+      { source: 'daily', period: null, stations: 1 },
+      { source: 'normals', period: '1981-2010', stations: 1 },
+    ]);
+  });
+});

@@ -49,3 +49,28 @@ describe('seasonFit', () => {
     expect(noNeed.explanation).toMatch(/Neither reports nor the catalogue/);
   });
 });
+
+describe('seasonFit with heat', () => {
+  const late = { neededDaysFromReports: null, reportsBehindNeed: 0, ripeningClass: 'late' as const, typicalDaysToRipen: null, form: 'ground' as const };
+  it('says "enough days, too little heat" on a long cool coastal season', () => {
+    // Eureka, CA, NOAA 1981-2010 normals near the town: about 306 frost-free days, 1,444 GDD base 50 F.
+    const fit = seasonFit({ ...late, localSeasonDays: 306, localHeatF: 1444 });
+    expect(fit).toMatchObject({ verdict: 'unlikely', limitedBy: 'heat', localHeatF: 1444, neededHeatF: 2350, neededHeatFrom: 'catalogue', heatMarginF: 1444 - 2350 });
+    expect(fit.explanation).toContain('Enough days, too little heat');
+  });
+
+  it('says days limit where heat is ample, and both where both fall short', () => {
+    expect(seasonFit({ ...late, localSeasonDays: 140, localHeatF: 4000 })).toMatchObject({ verdict: 'unlikely', limitedBy: 'days' });
+    expect(seasonFit({ ...late, localSeasonDays: 140, localHeatF: 1500 })).toMatchObject({ verdict: 'unlikely', limitedBy: 'both' });
+    expect(seasonFit({ ...late, localSeasonDays: 250, localHeatF: 4000 })).toMatchObject({ verdict: 'likely', limitedBy: null });
+  });
+
+  it('judges days alone without heat here (a station without maxima still gives days)', () => {
+    expect(seasonFit({ ...late, localSeasonDays: 250, localHeatF: null })).toMatchObject({ verdict: 'likely', limitedBy: null, localHeatF: null, heatMarginF: null });
+  });
+
+  it('gives a warm wall more heat than the ground', () => {
+    // 2100 x 1.15 = 2415 >= 2350 (FORM_HEAT_FACTOR, an adjustable assumption).
+    expect(seasonFit({ ...late, localSeasonDays: 250, localHeatF: 2100, form: 'wall' })).toMatchObject({ verdict: 'marginal', limitedBy: 'heat', heatMarginF: 65 });
+  });
+});

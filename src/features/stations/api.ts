@@ -1,13 +1,14 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
 import { z } from 'zod';
-import { stationDetailSchema, stationListSchema, type StationDetail } from '@shared/schemas/stations';
+import { normalsReleasesSchema, stationDetailSchema, stationListSchema, type StationDetail } from '@shared/schemas/stations';
 import { ApiError, apiFetch, uploadWithProgress } from '../../lib/api-client';
 
 export const stationQueries = {
   all: ['stations'] as const,
   list: () => queryOptions({ queryKey: [...stationQueries.all, 'list'], queryFn: () => apiFetch('/api/stations', stationListSchema) }),
   detail: (id: number) => queryOptions({ queryKey: [...stationQueries.all, 'detail', id], queryFn: () => apiFetch(`/api/stations/${id}`, stationDetailSchema) }),
+  normals: () => queryOptions({ queryKey: [...stationQueries.all, 'normals'], queryFn: () => apiFetch('/api/stations/normals', normalsReleasesSchema) }),
 };
 
 

@@ -90,10 +90,23 @@ const CASES: Case[] = [
   { route: 'POST /api/wasp-areas/:id/retire', expected: editors(200), call: async (w) => ({ method: 'post', path: `/api/wasp-areas/${await w.waspArea()}/retire` }) },
   { route: 'GET /api/stations', expected: everyone(200), call: () => get('/api/stations') },
   { route: 'GET /api/stations/:id', expected: everyone(200), call: (w) => get(`/api/stations/${w.station()}`) },
+  { route: 'GET /api/stations/normals', expected: everyone(200), call: () => get('/api/stations/normals') },
+  // No normals are loaded in this test's database: a well-formed code that is not there is a 404 for everyone.
+  { route: 'GET /api/stations/normals/:code', expected: everyone(404), call: () => get('/api/stations/normals/USW00014735') },
   {
     route: 'POST /api/stations/upload',
     expected: editors(201),
     call: () => ({ method: 'post', path: '/api/stations/upload', fields: { name: uniqueName('Upload station'), lat: '42.7', lon: '-73.8' }, files: [{ field: 'file', content: stationCsv(), name: 'station.csv' }] }),
+  },
+  {
+    // One 1991-2020 normals CSV (its layout; invented figures at an invented code): a whole set of one station.
+    route: 'POST /api/stations/bulk',
+    expected: editors(200),
+    call: () => ({
+      method: 'post',
+      path: '/api/stations/bulk',
+      files: [{ field: 'files', name: 'ACCESS0001.csv', content: 'STATION,LATITUDE,LONGITUDE,ELEVATION,NAME,ANN-TMIN-PRBGSL-T32FP50\nACCESS0001,42.7,-73.8,100,ACCESS TEST,170\n' }],
+    }),
   },
   { route: 'DELETE /api/stations/:id', expected: editors(204), call: (w) => ({ method: 'delete', path: `/api/stations/${w.station()}` }) },
   { route: 'GET /api/reports', expected: everyone(200), call: () => get('/api/reports') },

@@ -93,6 +93,7 @@ const UPLOADS: { route: string; role: Role; path: () => string; field: string; f
   { route: 'POST /api/reports/import', role: 'owner', path: () => '/api/reports/import', field: 'file' },
   { route: 'POST /api/reports/:id/photos', role: 'owner', path: () => `/api/reports/${ids.photoReport}/photos`, field: 'photos' },
   { route: 'POST /api/stations/upload', role: 'editor', path: () => '/api/stations/upload', field: 'file', fields: () => ({ name: uniqueName('Fuzz station'), lat: '42.7', lon: '-73.8' }) },
+  { route: 'POST /api/stations/bulk', role: 'editor', path: () => '/api/stations/bulk', field: 'files' },
 ];
 
 /** Writes that take no input at all (no body, no id). */

@@ -34,7 +34,8 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
   const days50 = near.season.days50;
   const shortSeason = useShortSeason(days50, query.form, true);
   const onlyIds = useMemo(() => (shortOnly && shortSeason.data ? new Set(shortSeason.data.varieties.map((v) => v.varietyId)) : null), [shortOnly, shortSeason.data]);
-  const nearest = [...near.season.stations].sort((a, b) => a.distanceKm - b.distanceKm)[0];
+  // The year-by-year chart needs a daily record; normals stations give only their summary (shown above).
+  const nearest = near.season.stations.filter((s) => s.source === 'daily').sort((a, b) => a.distanceKm - b.distanceKm)[0];
   const compareUrl = `/here/compare?${new URLSearchParams({ a: `${query.lat},${query.lon}`, form: query.form, radiusKm: String(query.radiusKm) })}`;
 
   return (
@@ -82,7 +83,7 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
       <SeasonSummary near={near} />
       {nearest && (
         <section className="rounded-lg border border-fig-100 bg-white p-4">
-          <h2 className="font-semibold text-fig-900">Frost dates at the nearest station</h2>
+          <h2 className="font-semibold text-fig-900">Frost dates at the nearest station with a daily record</h2>
           <StationFrostChart stationId={nearest.id} distanceKm={nearest.distanceKm} />
         </section>
       )}

@@ -16,7 +16,11 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
         <h2 id="season-title" className="font-semibold text-fig-900">
           Frost-free season here
         </h2>
-        {noData ? (
+        {season.freezeNote === 'any-month' ? (
+          <p className="mt-2 text-ink/80" data-testid="season-freeze-note">
+            <strong className="font-medium">No frost-free season defined.</strong> At the stations in range a freeze can come in any month, so no frost dates are given.
+          </p>
+        ) : noData ? (
           <p className="mt-2 text-ink/80">
             <strong className="font-medium">No season data within {units.distance(near.radiusKm)}.</strong> No climate station and no grower’s frost dates lie in range, so we do not guess. Try a
             larger radius.
@@ -47,6 +51,7 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
             </dl>
             <p className="mt-2 text-sm text-ink/80">
               At {units.temperature(season.thresholdF)}.
+              {season.freezeNote === 'never' && <span data-testid="season-freeze-note"> Frost-free all year: the stations record no freeze, so no frost date is given.</span>}
               {season.lastSpringDoy50 !== null && season.firstFallDoy50 !== null && (
                 <>
                   {' '}
@@ -54,11 +59,13 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
                 </>
               )}
             </p>
+            <ClimateExtras season={season} />
           </>
         )}
         <MethodNote className="mt-2" method={season.method}>
           Rests on {plural(season.stationCount, 'station')} and {plural(season.reportFrostCount, 'grower frost report')}
-          {season.nearestStationKm !== null ? `; nearest station ${units.distance(season.nearestStationKm)} away` : ''}.
+          {season.nearestStationKm !== null ? `; nearest station ${units.distance(season.nearestStationKm)} away` : ''}
+          {season.sources.length > 0 && <> ({season.sources.map((s) => (s.source === 'normals' ? `NOAA normals ${s.period ?? ''}: ${s.stations}` : `daily records${s.period ? ` ${s.period}` : ''}: ${s.stations}`)).join('; ')})</>}.
         </MethodNote>
       </div>
       <div className={`rounded-lg border p-4 ${wasp.established ? 'border-leaf-300 bg-leaf-100/50' : 'border-fig-100 bg-white'}`}>
@@ -79,5 +86,21 @@ export function SeasonSummary({ near }: { near: NearResponse }) {
         )}
       </div>
     </section>
+  );
+}
+
+/** Heat and the hardiness zone, when stations in range give them (a line each, small). */
+function ClimateExtras({ season }: { season: NearResponse['season'] }) {
+  const units = useUnits();
+  if (season.gdd50F === null && season.hardinessZone === null) return null;
+  return (
+    <p className="mt-1 text-sm text-ink/80" data-testid="season-extras">
+      {season.gdd50F !== null && <>Heat in a typical year: about {Math.round(season.gdd50F).toLocaleString()} growing degree days (base 50 °F / 10 °C). </>}
+      {season.hardinessZone !== null && season.extremeMinF !== null && (
+        <span data-testid="hardiness-zone">
+          Hardiness zone {season.hardinessZone} (average coldest night {units.temperature(season.extremeMinF)}, from {plural(season.coldStationCount, 'station')} with a daily record).
+        </span>
+      )}
+    </p>
   );
 }

@@ -121,6 +121,12 @@ function RowDetails({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
           {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (reports elsewhere)' : ''}
           {fit.headStartDays ? `, head start ${fit.headStartDays} days` : ''}.
         </p>
+        {fit.localHeatF !== null && fit.neededHeatF !== null && (
+          <p data-testid="fit-heat">
+            Heat: {fit.localHeatF.toLocaleString()} growing degree days (base 50 °F / 10 °C) here vs {fit.neededHeatF.toLocaleString()} needed
+            {fit.limitedBy ? ` · limited by ${fit.limitedBy === 'both' ? 'days and heat' : fit.limitedBy}` : ''}
+          </p>
+        )}
         <p className="text-xs text-ink/70">{fit.explanation}</p>
       </div>
       <div>

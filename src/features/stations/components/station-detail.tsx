@@ -81,7 +81,7 @@ function FreezeChart({ detail }: { detail: StationDetail }) {
   const { formatDoy, thresholdLabel } = useStationLabels();
   const [thresholdF, setThresholdF] = useState<number>(32);
   const rows = useMemo(
-    () => detail.freezeYears.filter((y) => y.thresholdF === thresholdF).map((y) => ({ year: y.year, spring: y.lastSpringDoy, fall: y.firstFallDoy })),
+    () => detail.freezeYears.filter((y) => y.thresholdF === thresholdF && !y.leftOutReason).map((y) => ({ year: y.year, spring: y.lastSpringDoy, fall: y.firstFallDoy })),
     [detail.freezeYears, thresholdF],
   );
   const median = detail.summaries.find((s) => s.thresholdF === thresholdF && s.probability === 50);
@@ -132,7 +132,9 @@ function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYe
   return (
     <div>
       <h3 className="font-medium text-fig-900">Every year</h3>
-      <p className="mb-2 text-sm text-ink/70">“none” means no reading at or below the threshold in that half of the year; years with too many missing days are left out.</p>
+      <p className="mb-2 text-sm text-ink/70">
+        “none” means no reading at or below the threshold in that half of the year. A year with too many missing days is shown in grey with the reason, and left out of the summary and the chart.
+      </p>
       <div className="max-h-[28rem] overflow-auto rounded-lg border border-fig-100 bg-white">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">Last spring and first fall freeze and frost-free days for each year and threshold</caption>
@@ -146,6 +148,9 @@ function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYe
                   {thresholdLabel(t)}
                 </th>
               ))}
+              <th rowSpan={2} className="border-l border-fig-100 px-3 py-2 font-medium">
+                Left out
+              </th>
             </tr>
             <tr>
               {FREEZE_THRESHOLDS_F.flatMap((t) => [
@@ -163,7 +168,7 @@ function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYe
           </thead>
           <tbody>
             {years.map(([year, byThreshold]) => (
-              <tr key={year} className="border-t border-fig-100">
+              <tr key={year} className={`border-t border-fig-100 ${leftOutWords(byThreshold) ? 'text-ink/50' : ''}`}>
                 <th scope="row" className="px-3 py-1 font-medium">
                   {year}
                 </th>
@@ -181,6 +186,7 @@ function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYe
                     </td>,
                   ];
                 })}
+                <td className="border-l border-fig-100 px-3 py-1 text-xs">{leftOutWords(byThreshold)}</td>
               </tr>
             ))}
           </tbody>
@@ -188,4 +194,12 @@ function FreezeYearTable({ freezeYears }: { freezeYears: StationDetail['freezeYe
       </div>
     </div>
   );
+}
+
+/** The reasons a year is left out, once when every threshold shares it, else per threshold. */
+function leftOutWords(byThreshold: Map<number, StationDetail['freezeYears'][number]>): string {
+  const reasons = FREEZE_THRESHOLDS_F.map((t) => [t, byThreshold.get(t)?.leftOutReason ?? null] as const).filter(([, r]) => r);
+  if (reasons.length === 0) return '';
+  if (reasons.length === FREEZE_THRESHOLDS_F.length && reasons.every(([, r]) => r === reasons[0]![1])) return reasons[0]![1]!;
+  return reasons.map(([t, r]) => `${t} °F: ${r}`).join('; ');
 }
