@@ -161,6 +161,7 @@ const PARAMETERS: Record<string, { paths: Paths; note?: string }> = {
   'GET /api/reports/export.csv': { paths: () => ['/api/reports/export.csv', '/api/reports/export.csv?crop=main'] },
   'GET /api/reports/export.geojson': { paths: () => ['/api/reports/export.geojson', '/api/reports/export.geojson?form=container'] },
   'GET /api/stations/:id': { paths: () => stations.map((id) => `/api/stations/${id}`) },
+  'GET /api/stations/normals/:code': { paths: () => ['/api/stations/normals/USW00014735'], note: 'reference climate: no report enters it' },
   'GET /api/places': { paths: () => ['/api/places?q=Albany'] },
   'GET /api/places/nearest': { paths: () => POINTS.map((p) => `/api/places/nearest?lat=${p.lat}&lon=${p.lon}`) },
   'GET /api/varieties/:id/page': { paths: () => [...varieties, proposedVariety].map((id) => `/api/varieties/${id}/page`) },
