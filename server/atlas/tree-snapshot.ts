@@ -238,6 +238,26 @@ export function treesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: num
 }
 
 /**
+ * The tree rows within `radiusKm` that carry a grower's frost season: exactly the rows of
+ * treesWithin that reportFrostSeasons reads, without building the others (the season surface asks
+ * this for hundreds of points per tile).
+ */
+export function frostTreesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: number): NearTree[] {
+  const c = snapshot.columns;
+  if (c.count === 0 || c.frostSeasonDays.length === 0) return [];
+  const result: NearTree[] = [];
+  const place = { lat: 0, lon: 0 };
+  for (const i of idsInRadiusBoxes(snapshot.index, point, radiusKm)) {
+    if (c.frostSeasonStart[i + 1] === c.frostSeasonStart[i]) continue;
+    place.lat = c.lat[i]!;
+    place.lon = c.lon[i]!;
+    const distance = distanceKm(point, place);
+    if (distance <= radiusKm) result.push(treeAt(c, i, distance));
+  }
+  return result;
+}
+
+/**
  * Growers' own frost-free seasons near the point: one per grower and season (a garden's frost does
  * not count again for each of its trees and crops), at the grower's nearest tree that reported it,
  * so the answer does not depend on the order of the rows.

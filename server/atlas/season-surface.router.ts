@@ -1,0 +1,63 @@
+import type { Router } from 'express';
+import { SURFACE_CELLS, SURFACE_RADIUS_KM, nodeLat, nodeLon } from '../../shared/domain/season-surface';
+import { seasonAtQuerySchema, seasonGridParamsSchema, type SeasonAtResponse, type SeasonGrid, type SeasonGridParams } from '../../shared/schemas/season-surface';
+import type { Db } from '../db/client';
+import { stationsDataVersion } from '../db/data-version';
+import { seasonAt } from './season-at';
+import type { TreeSnapshotCache } from './tree-snapshot-cache';
+import { frostTreesWithin, type TreeSnapshot } from './tree-snapshot';
+
+/** Tiles kept ready as JSON text (about 4 KB each): a few hours of panning over a region. */
+const MAX_CACHED_TILES = 4_000;
+
+/** Every node of one tile, each through seasonAt: the same estimate as GET /api/atlas/near's season. */
+export function computeSeasonGrid(db: Db, snapshot: TreeSnapshot, { z, x, y }: SeasonGridParams, version: string): SeasonGrid {
+  const side = SURFACE_CELLS + 1;
+  const grid: SeasonGrid = { z, x, y, cells: SURFACE_CELLS, radiusKm: SURFACE_RADIUS_KM, version, days50: [], stations: [], reports: [], nearestKm: [] };
+  for (let j = 0; j < side; j++) {
+    const lat = nodeLat(z, y, j);
+    for (let i = 0; i < side; i++) {
+      const point = { lat, lon: nodeLon(z, x, i) };
+      const season = seasonAt(db, point, SURFACE_RADIUS_KM, frostTreesWithin(snapshot, point, SURFACE_RADIUS_KM));
+      grid.days50.push(season.days50);
+      grid.stations.push(season.stationCount);
+      grid.reports.push(season.reportFrostCount);
+      grid.nearestKm.push(season.nearestStationKm);
+    }
+  }
+  return grid;
+}
+
+/**
+ * GET /atlas/season-grid/:z/:x/:y and GET /atlas/season-at, added to the atlas router so they
+ * share its tree snapshot. Tiles are kept per stations and atlas data version (least recently
+ * used dropped first), so panning back is a map look-up and a change of data recomputes them.
+ */
+export function addSeasonSurfaceRoutes(router: Router, { db, snapshots }: { db: Db; snapshots: TreeSnapshotCache }): void {
+  const tiles = new Map<string, string>();
+
+  router.get('/atlas/season-grid/:z/:x/:y', async (req, res) => {
+    const tile = seasonGridParamsSchema.parse(req.params);
+    const snapshot = await snapshots.get();
+    const version = `${stationsDataVersion(db)}.${snapshot.version}`;
+    const key = `${version}/${tile.z}/${tile.x}/${tile.y}`;
+    let body = tiles.get(key);
+    if (body === undefined) {
+      body = JSON.stringify(computeSeasonGrid(db, snapshot, tile, version));
+      if (tiles.size >= MAX_CACHED_TILES) tiles.delete(tiles.keys().next().value!);
+    } else {
+      tiles.delete(key);
+    }
+    tiles.set(key, body);
+    res.setHeader('Cache-Control', 'no-cache');
+    res.type('application/json').send(body);
+  });
+
+  router.get('/atlas/season-at', async (req, res) => {
+    const point = seasonAtQuerySchema.parse(req.query);
+    const snapshot = await snapshots.get();
+    const season = seasonAt(db, point, SURFACE_RADIUS_KM, frostTreesWithin(snapshot, point, SURFACE_RADIUS_KM));
+    const body: SeasonAtResponse = { point, radiusKm: SURFACE_RADIUS_KM, season };
+    res.json(body);
+  });
+}
