@@ -16,7 +16,7 @@ const KM_PER_DEG_LAT = 111.195;
 let ctx: TestContext;
 
 // A tile at zoom 9 over central Kansas; its north-west node is where station A stands.
-const TILE = { z: 9, ...lonLatToTile(-98.5, 38.5, 9) };
+const TILE = lonLatToTile(-98.5, 38.5, 9);
 const NODE = { lat: nodeLat(TILE.z, TILE.y, 0), lon: nodeLon(TILE.z, TILE.x, 0) };
 
 function addStation(name: string, at: { lat: number; lon: number }, days50: number) {
