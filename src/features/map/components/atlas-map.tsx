@@ -1,34 +1,41 @@
 import '../worker';
 import 'maplibre-gl/dist/maplibre-gl.css';
+import '../map.css';
 import { useQuery } from '@tanstack/react-query';
 import type { Feature, FeatureCollection, Point } from 'geojson';
 import type { LngLat, Map as MapLibreMap, MapGeoJSONFeature } from 'maplibre-gl';
 import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import MapGL, { Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import MapGL, { Layer, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { snapToGrid } from '@shared/domain/public-grid';
 import type { PinFilters } from '@shared/schemas/pins';
 import { mapQueries } from '../api';
 import {
   CLICKABLE_LAYER_IDS,
   FROST_STATION_LAYER,
-  PIN_CELL_COUNT_LAYER,
   PIN_CELL_LAYER,
-  PIN_CLUSTER_COUNT_LAYER,
   PIN_CLUSTER_LAYER,
+  SEASON_SURFACE_BEFORE,
+  SEASON_SURFACE_LAYER,
   SOURCE_IDS,
   WASP_FILL_LAYER,
   WASP_OUTLINE_LAYER,
 } from '../layers';
+import { provideRingImages } from '../pin-rings';
+import { registerSeasonProtocol, SEASON_SOURCE, seasonSurfaceValueAt } from '../season-surface';
 import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
+import { MapDetails } from './map-details';
 import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
+import { NearMeButton } from './near-me-button';
+
+registerSeasonProtocol();
 
 export interface AtlasMapHandle {
   flyTo: (view: MapView) => void;
 }
 
 type PopupState =
-  | { kind: 'cell'; lat: number; lon: number; reports: number }
+  | { kind: 'cell'; lat: number; lon: number; reports: number; ripened: number; unripe: number }
   | { kind: 'point'; lat: number; lon: number }
   | { kind: 'station'; lat: number; lon: number; name: string; days50: number | null }
   | { kind: 'wasp'; lat: number; lon: number; name: string; source: string; observedOn: string };
@@ -97,9 +104,12 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
   const onLoad = useCallback(() => {
     const map = mapRef.current?.getMap();
     if (!map) return;
+    provideRingImages(map);
     setViewport(viewportOf(map));
-    // For browser tests and debugging: the live map instance.
-    (window as unknown as { syconiumMap?: MapLibreMap }).syconiumMap = map;
+    // For browser tests and debugging: the live map instance and the season surface's reading.
+    const w = window as unknown as { syconiumMap?: MapLibreMap; syconiumSeasonAt?: typeof seasonSurfaceValueAt };
+    w.syconiumMap = map;
+    w.syconiumSeasonAt = seasonSurfaceValueAt;
   }, []);
 
   /** Open what lies at a point: zoom into a cluster, or a popup for a cell, station, area or empty spot. */
@@ -119,7 +129,7 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         return;
       case PIN_CELL_LAYER.id:
         // Rendered positions are rounded by the tiling; snapping gives back the exact cell centre.
-        setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports) });
+        setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports), ripened: Number(props.ripened), unripe: Number(props.unripe) });
         return;
       case FROST_STATION_LAYER.id:
         setPopup({ kind: 'station', lat: fLat, lon: fLon, name: String(props.name), days50: props.days50 === null ? null : Number(props.days50) });
@@ -186,35 +196,39 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         style={{ position: 'absolute', inset: 0 }}
       >
         <NavigationControl position="top-right" showCompass={false} />
+        <NearMeButton onFound={(p) => mapRef.current?.flyTo({ center: [p.lon, p.lat], zoom: 9, essential: true })} />
         <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
 
-        {/* Layer order, whichever layer is switched on first: wasp areas under the report pins,
-            climate stations over them (the stations are what that layer is switched on to see). */}
+        {/* Layer order, whichever layer is switched on first: the season surface under the water
+            and labels, wasp areas and climate stations under the report pins, the pins on top. */}
         <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
-          <Layer {...PIN_CLUSTER_LAYER} />
-          <Layer {...PIN_CLUSTER_COUNT_LAYER} />
           <Layer {...PIN_CELL_LAYER} />
-          <Layer {...PIN_CELL_COUNT_LAYER} />
+          <Layer {...PIN_CLUSTER_LAYER} />
         </Source>
+        {showFrost && (
+          <Source id={SOURCE_IDS.season} {...SEASON_SOURCE}>
+            <Layer {...SEASON_SURFACE_LAYER} beforeId={SEASON_SURFACE_BEFORE} />
+          </Source>
+        )}
         {showWasp && wasp.data && (
           <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
-            <Layer {...WASP_FILL_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
-            <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
+            <Layer {...WASP_FILL_LAYER} beforeId={PIN_CELL_LAYER.id} />
+            <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
         )}
         {showFrost && (
           <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
-            <Layer {...FROST_STATION_LAYER} />
+            <Layer {...FROST_STATION_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
         )}
 
         {popup && (
-          <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
-            {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} filters={filters} />}
-            {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} />}
-            {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} />}
-            {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} />}
-          </Popup>
+          <MapDetails latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} titleId="map-details-title">
+            {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} ripened={popup.ripened} unripe={popup.unripe} filters={filters} titleId="map-details-title" />}
+            {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} showSeason={showFrost} titleId="map-details-title" />}
+            {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} titleId="map-details-title" />}
+            {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} titleId="map-details-title" />}
+          </MapDetails>
         )}
       </MapGL>
       {keyboardFocus && (
