@@ -5,8 +5,8 @@
  * (which computes the nodes) and the map (which draws and reads them).
  */
 
-/** Cells per tile side: (SURFACE_CELLS + 1)² nodes, a node every 16 screen pixels of a 256 px tile. */
-export const SURFACE_CELLS = 16;
+/** Cells per tile side: (SURFACE_CELLS + 1)² nodes, a node every 32 screen pixels of a 256 px tile (the season changes over tens of km; a finer grid cost more than it showed). */
+export const SURFACE_CELLS = 8;
 /** Zooms the server computes; the map enlarges the last one's tiles past it. */
 export const SURFACE_MIN_ZOOM = 2;
 export const SURFACE_MAX_ZOOM = 9;

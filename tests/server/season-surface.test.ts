@@ -66,7 +66,7 @@ describe('the season surface', () => {
   it('gives at every node exactly the season GET /api/atlas/near gives there', async () => {
     const tile = await grid(TILE.z, TILE.x, TILE.y);
     const side = SURFACE_CELLS + 1;
-    for (const [i, j] of [[0, 0], [5, 3], [16, 16], [8, 12]] as const) {
+    for (const [i, j] of [[0, 0], [5, 3], [8, 8], [2, 7]] as const) {
       const lat = nodeLat(TILE.z, TILE.y, j);
       const lon = nodeLon(TILE.z, TILE.x, i);
       const near = (await ctx.agent().get(`/api/atlas/near?lat=${lat}&lon=${lon}`).expect(200)).body;

@@ -8,7 +8,7 @@ import { MAP_COLORS as C } from './palette';
  * vision, and in print. Ring images are drawn on demand, one per rounded pair of shares.
  */
 
-export const OUTCOME_RING_COLORS = { ripened: '#4b2443', unripe: '#e3a63f', other: '#ddd3d8' } as const;
+export const OUTCOME_RING_COLORS = { ripened: '#4b2443', unripe: '#c98a2b', other: '#e8e1e5' } as const;
 /** Shares are rounded to 24ths of the ring (15 degrees): fine enough to compare neighbours. */
 export const RING_STEPS = 24;
 const RING_PREFIX = 'syconium-ring-';
