@@ -15,7 +15,7 @@
 import { GeoJSONVT, type GeoJSONVTTile } from '@maplibre/geojson-vt';
 import { fromGeojsonVt } from '@maplibre/vt-pbf';
 import { area as turfArea, pointOnFeature } from '@turf/turf';
-import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon } from 'geojson';
+import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon, Position } from 'geojson';
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
@@ -28,7 +28,7 @@ import { childTiles, type TileId } from './tile-math';
 const require = createRequire(import.meta.url);
 
 /** Bump when the tile contents change shape, so a stale build is rebuilt. */
-export const TILES_FORMAT_VERSION = 2;
+export const TILES_FORMAT_VERSION = 3;
 export const DEFAULT_TILES_OUT = path.resolve('tiles/build');
 
 export interface TileSetMeta {
@@ -122,11 +122,80 @@ export function townLabelMinzoom(population: number): number | null {
   return null;
 }
 
-/** The lakes and river areas of a geo-maps package (one GeometryCollection of one MultiPolygon). */
-function geoMapsPolygons(pkg: string): Feature<MultiPolygon, Props>[] {
+/** The polygons of a geo-maps package (one GeometryCollection of one MultiPolygon), as rings. */
+function geoMapsRings(pkg: string): Position[][][] {
   const data = JSON.parse(fs.readFileSync(require.resolve(`${pkg}/map.geo.json`), 'utf8')) as { geometries: MultiPolygon[] };
-  // One feature per polygon, so a tile carries only the pieces it touches.
-  return data.geometries.flatMap((g) => g.coordinates.map((rings): Feature<MultiPolygon, Props> => ({ type: 'Feature', properties: {}, geometry: splitAtAntimeridian({ type: 'Polygon', coordinates: rings }) })));
+  return data.geometries.flatMap((g) => g.coordinates);
+}
+
+/** Lakes of at least `minKm2`: at 1 km detail a smaller lake is a triangle or a square, not a shape. */
+function lakePolygons(minKm2: number): Feature<MultiPolygon, Props>[] {
+  return geoMapsRings('@geo-maps/earth-lakes-1km').flatMap((rings): Feature<MultiPolygon, Props>[] => {
+    const polygon: Polygon = { type: 'Polygon', coordinates: rings };
+    const km2 = turfArea(polygon) / 1e6;
+    // Small lakes only when zoomed in: at a country's scale thousands of them read as noise.
+    const minzoom = km2 >= 400 ? 0 : km2 >= 40 ? 5 : km2 >= 6 ? 7 : 8;
+    return km2 < minKm2 ? [] : [{ type: 'Feature', properties: { km2: Math.round(km2), minzoom }, geometry: splitAtAntimeridian(polygon) }];
+  });
+}
+
+const KM_PER_DEG = 111.195;
+const approxKm = (a: Position, b: Position) => Math.hypot((a[0]! - b[0]!) * Math.cos(((a[1]! + b[1]!) / 2) * (Math.PI / 180)), a[1]! - b[1]!) * KM_PER_DEG;
+
+/**
+ * Rivers as lines. At 1 km detail a river's area is a chain of thin slivers with gaps between them
+ * (the Hudson at Albany is a few hundred metres wide). Each sliver becomes the line along one of its
+ * banks, from one end to the other (its two farthest points), and each end is joined to the nearest
+ * end of another sliver within `gapKm`: drawn with round caps, the pieces read as one river again.
+ * Wide river areas (estuaries, big rivers) are also kept as polygons.
+ */
+function riverFeatures(gapKm: number, areaMinKm2: number): { lines: Feature<MultiLineString, Props>[]; areas: Feature<MultiPolygon, Props>[] } {
+  const rings = geoMapsRings('@geo-maps/earth-rivers-1km');
+  const lines: Position[][] = [];
+  const areas: Feature<MultiPolygon, Props>[] = [];
+  for (const polygon of rings) {
+    const ring = polygon[0]!.slice(0, -1);
+    if (ring.length < 3) continue;
+    // The two farthest points, by two sweeps (exact for thin shapes, which river slivers are).
+    const farthest = (from: number) => ring.reduce((best, p, k) => (approxKm(ring[from]!, p) > approxKm(ring[from]!, ring[best]!) ? k : best), from);
+    const a = farthest(0);
+    const b = farthest(a);
+    const [first, last] = a < b ? [a, b] : [b, a];
+    // A sliver of a few points is a straight piece of river (its bank would zigzag); a longer one follows its bank.
+    lines.push(ring.length <= 8 ? [ring[a]!, ring[b]!] : ring.slice(first, last + 1));
+    if (turfArea({ type: 'Polygon', coordinates: polygon }) / 1e6 >= areaMinKm2) areas.push({ type: 'Feature', properties: {}, geometry: splitAtAntimeridian({ type: 'Polygon', coordinates: polygon }) });
+  }
+  // Join loose ends: a grid of ends by 0.1 degree; each end takes the nearest free end of another line.
+  const ends = lines.flatMap((line, k) => [{ line: k, p: line[0]!, used: false }, { line: k, p: line[line.length - 1]!, used: false }]);
+  const cell = (p: Position) => `${Math.floor(p[0]! * 10)},${Math.floor(p[1]! * 10)}`;
+  const grid = new Map<string, typeof ends>();
+  for (const end of ends) {
+    const key = cell(end.p);
+    const list = grid.get(key);
+    if (list) list.push(end);
+    else grid.set(key, [end]);
+  }
+  const bridges: Position[][] = [];
+  for (const end of ends) {
+    if (end.used) continue;
+    let best: (typeof ends)[number] | null = null;
+    let bestKm = gapKm;
+    const [cx, cy] = [Math.floor(end.p[0]! * 10), Math.floor(end.p[1]! * 10)];
+    for (let dx = -1; dx <= 1; dx++)
+      for (let dy = -1; dy <= 1; dy++)
+        for (const other of grid.get(`${cx + dx},${cy + dy}`) ?? []) {
+          if (other.used || other.line === end.line) continue;
+          const km = approxKm(end.p, other.p);
+          if (km < bestKm) [best, bestKm] = [other, km];
+        }
+    if (best) {
+      end.used = best.used = true;
+      bridges.push([end.p, best.p]);
+    }
+  }
+  const asFeature = (coordinates: Position[][]): Feature<MultiLineString, Props> => ({ type: 'Feature', properties: {}, geometry: { type: 'MultiLineString', coordinates } });
+  // One feature per line keeps each tile to the pieces it touches.
+  return { lines: [...lines, ...bridges].map((line) => asFeature([line])), areas };
 }
 
 const vt = (data: FeatureCollection, maxZoom: number) => new GeoJSONVT(data, { maxZoom, indexMaxZoom: 4, tolerance: 3, extent: 4096, buffer: 64 });
@@ -177,8 +246,10 @@ export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource
     ),
     9,
   );
-  const lakes = vt(collection(geoMapsPolygons('@geo-maps/earth-lakes-1km')), 9);
-  const rivers = vt(collection(geoMapsPolygons('@geo-maps/earth-rivers-1km')), 9);
+  const lakes = vt(collection(lakePolygons(1)), 9);
+  const river = riverFeatures(9, 15);
+  const rivers = vt(collection(river.lines), 9);
+  const riverAreas = vt(collection(river.areas), 9);
   const countyLabels = vt(
     collection(
       polygons(counties, 'counties', (p) => ({ name: String(p.name ?? '') })).map((f): Feature<Point, Props> => {
@@ -202,8 +273,9 @@ export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource
       { name: 'county-labels', byZoom: () => countyLabels, minzoomProperty: true },
     ],
     water: [
-      { name: 'lakes', byZoom: () => lakes },
+      { name: 'lakes', byZoom: () => lakes, minzoomProperty: true },
       { name: 'rivers', byZoom: (z) => (z >= 6 ? rivers : null) },
+      { name: 'river-areas', byZoom: (z) => (z >= 6 ? riverAreas : null) },
     ],
     places: [{ name: 'towns', byZoom: () => townLabels, minzoomProperty: true }],
   };

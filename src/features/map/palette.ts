@@ -6,7 +6,7 @@ export const MAP_COLORS = {
   water: '#d3e1e2',
   waterDeep: '#c6d6d8',
   waterEdge: '#b7cacd',
-  river: '#bfd3d6',
+  river: '#a9c6cc',
   land: '#f8f3ea',
   paper: '#faf6ef',
   ink: '#2b2230',

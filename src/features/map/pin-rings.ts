@@ -75,11 +75,11 @@ export function paintRing(g: CanvasRenderingContext2D | OffscreenCanvasRendering
   g.stroke();
 }
 
-/** Supplies ring images as MapLibre asks for them (its `styleimagemissing` event). */
+/** Supplies ring images as MapLibre asks for them (MapLibre 6: a missing-image resolver; the event comes too late). */
 export function provideRingImages(map: MapLibreMap): void {
-  map.on('styleimagemissing', (event: { id: string }) => {
-    if (!event.id.startsWith(RING_PREFIX) || map.hasImage(event.id)) return;
-    const [r, u] = event.id.slice(RING_PREFIX.length).split('-').map(Number);
+  map.setMissingStyleImageResolver((id) => {
+    if (!id.startsWith(RING_PREFIX) || map.hasImage(id)) return;
+    const [r, u] = id.slice(RING_PREFIX.length).split('-').map(Number);
     if (!Number.isInteger(r) || !Number.isInteger(u)) return;
     const size = RING_SIZE_PX * PIXEL_RATIO;
     const canvas = document.createElement('canvas');
@@ -89,6 +89,6 @@ export function provideRingImages(map: MapLibreMap): void {
     const ripened = Math.max(0, Math.min(RING_STEPS, r!));
     const unripe = Math.max(0, Math.min(RING_STEPS - ripened, u!));
     paintRing(g, size, { ripened, unripe, other: RING_STEPS - ripened - unripe });
-    map.addImage(event.id, g.getImageData(0, 0, size, size), { pixelRatio: PIXEL_RATIO });
+    map.addImage(id, g.getImageData(0, 0, size, size), { pixelRatio: PIXEL_RATIO });
   });
 }

@@ -75,6 +75,7 @@ export function createBaseStyle(origin: string): StyleSpecification {
         type: 'fill',
         source: 'water',
         'source-layer': 'lakes',
+        filter: shownFrom,
         paint: { 'fill-color': C.water, 'fill-outline-color': C.waterEdge },
       },
       {
@@ -82,26 +83,27 @@ export function createBaseStyle(origin: string): StyleSpecification {
         type: 'line',
         source: 'water',
         'source-layer': 'lakes',
+        filter: shownFrom,
         minzoom: 5,
         paint: { 'line-color': C.waterEdge, 'line-width': ['interpolate', ['linear'], ['zoom'], 5, 0.3, 10, 1] },
       },
       {
-        id: 'rivers',
+        id: 'river-areas',
         type: 'fill',
         source: 'water',
-        'source-layer': 'rivers',
+        'source-layer': 'river-areas',
         minzoom: 6,
-        paint: { 'fill-color': C.river, 'fill-antialias': true },
+        paint: { 'fill-color': C.water, 'fill-outline-color': C.waterEdge },
       },
       {
-        // The river areas are narrow at 1 km detail: a stroke of their own colour keeps them visible.
-        id: 'river-banks',
+        // Rivers as lines along their 1 km slivers, the gaps joined (scripts/tiles/build-tiles.ts).
+        id: 'rivers',
         type: 'line',
         source: 'water',
         'source-layer': 'rivers',
         minzoom: 6,
-        layout: { 'line-join': 'round' },
-        paint: { 'line-color': C.river, 'line-width': ['interpolate', ['linear'], ['zoom'], 6, 0.6, 10, 1.6, 13, 2.5] },
+        layout: { 'line-join': 'round', 'line-cap': 'round' },
+        paint: { 'line-color': C.river, 'line-width': ['interpolate', ['exponential', 1.6], ['zoom'], 6, 0.7, 9, 1.8, 12, 4.5, 14, 8] },
       },
       {
         id: 'county-boundaries',
