@@ -58,6 +58,9 @@ function keep(grid: SeasonGrid): void {
 const TILE = 256;
 const side = SURFACE_CELLS + 1;
 
+/** How much of the blend at (u, v) comes from nodes with a value (0 to 1): the surface fades out with it at its edge. */
+let lastCoverage = 0;
+
 /** Blend the four nodes around (u, v) in node units; nodes without a value are left out. */
 function blend(values: (number | null)[], u: number, v: number): number | null {
   const i = Math.min(SURFACE_CELLS - 1, Math.floor(u));
@@ -76,6 +79,7 @@ function blend(values: (number | null)[], u: number, v: number): number | null {
   add(i + 1, j, fu * (1 - fv));
   add(i, j + 1, (1 - fu) * fv);
   add(i + 1, j + 1, fu * fv);
+  lastCoverage = weight;
   return weight > 0 ? sum / weight : null;
 }
 
@@ -93,13 +97,14 @@ export function paintSeasonTile(grid: SeasonGrid, pixels: Uint8ClampedArray): vo
         pixels[o + 3] = 0;
         continue;
       }
+      const coverage = lastCoverage;
       const s = blend(strength, u, v) ?? 0;
       let [r, g, b] = seasonColor(days);
-      let alpha = 0.25 + 0.6 * s;
-      // Thin evidence: diagonal hatching every 8 px, in the ink colour, over a paler fill.
-      if (s < THIN_EVIDENCE && (px + py) % 8 < 2) {
+      let alpha = (0.25 + 0.6 * s) * Math.min(1, coverage * 1.6);
+      // Thin evidence: diagonal hatching every 9 px, in the ink colour, over a paler fill.
+      if (s < THIN_EVIDENCE && (px + py) % 9 < 2) {
         [r, g, b] = [91, 79, 94];
-        alpha = 0.45;
+        alpha = 0.32 * Math.min(1, coverage * 1.6);
       }
       pixels[o] = r;
       pixels[o + 1] = g;

@@ -26,7 +26,6 @@ import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
 import { MapDetails } from './map-details';
 import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
-import { NearMeButton } from './near-me-button';
 
 registerSeasonProtocol();
 
@@ -128,6 +127,8 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         map.easeTo({ center: [fLon, fLat], zoom: Math.max(map.getZoom() + 1, Number(props.expansionZoom)), duration: 600 });
         return;
       case PIN_CELL_LAYER.id:
+        // On a phone the details open as a sheet over the lower part of the map: lift the pin above it.
+        if (window.matchMedia('(max-width: 767px)').matches) map.easeTo({ center: [fLon, fLat], offset: [0, -map.getContainer().clientHeight * 0.28], duration: 300 });
         // Rendered positions are rounded by the tiling; snapping gives back the exact cell centre.
         setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports), ripened: Number(props.ripened), unripe: Number(props.unripe) });
         return;
@@ -196,7 +197,6 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         style={{ position: 'absolute', inset: 0 }}
       >
         <NavigationControl position="top-right" showCompass={false} />
-        <NearMeButton onFound={(p) => mapRef.current?.flyTo({ center: [p.lon, p.lat], zoom: 9, essential: true })} />
         <ScaleControl position="bottom-right" unit="metric" maxWidth={110} />
 
         {/* Layer order, whichever layer is switched on first: the season surface under the water
