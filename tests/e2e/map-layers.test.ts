@@ -2,7 +2,8 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { nodeLat, nodeLon, SURFACE_CELLS } from '../../shared/domain/season-surface';
 import { lonLatToTile } from '../../scripts/tiles/tile-math';
-import { openSite } from './harness';
+import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
+import { openSite, signIn } from './harness';
 
 type MapWindow = {
   syconiumMap: {
@@ -150,6 +151,27 @@ describe('the atlas base map, season surface and phone sheet', () => {
     expect(last.y + last.height).toBeLessThanOrEqual(rect.y + rect.height + 1);
     await sheet.getByRole('button', { name: 'Close details' }).click();
     await expect.poll(() => sheet.count()).toBe(0);
+    await page.close();
+  }, 300_000);
+
+  it('shows a signed-in grower their home place, and Near me moves the atlas and a report’s small map', async () => {
+    const page = await site.newPage({ viewport: { width: 1200, height: 800 }, geolocation: { latitude: 43.04, longitude: -87.91 }, permissions: ['geolocation'] });
+    await signIn(page, site.url, 'grower@demo.syconium.test', DEMO_PASSWORD);
+    await page.goto(`${site.url}/?lat=42.66&lon=-73.78&zoom=9`);
+    await waitForMap(page);
+    await expect.poll(() => page.getByTestId('home-marker').textContent(), { timeout: 20_000 }).toMatch(/your home place/);
+
+    // The browser says it is in Milwaukee (43.04 N, 87.91 W): Near me takes the atlas there.
+    await page.getByRole('button', { name: /use my location/i }).click();
+    const centreLon = () => page.evaluate(() => (window as unknown as { syconiumMap: { getCenter: () => { lng: number } } }).syconiumMap.getCenter().lng);
+    await expect.poll(centreLon, { timeout: 20_000 }).toBeLessThan(-87);
+
+    // And on a report's small map.
+    await page.goto(`${site.url}/reports/1`);
+    const nearMe = page.getByTestId('mini-map').getByRole('button', { name: /near me/i });
+    await expect.poll(() => nearMe.isVisible(), { timeout: 30_000 }).toBe(true);
+    await nearMe.click();
+    await expect.poll(() => page.getByTestId('mini-map').getAttribute('data-centre-lon'), { timeout: 20_000 }).toMatch(/^-87\./);
     await page.close();
   }, 300_000);
 });

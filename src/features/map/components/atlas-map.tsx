@@ -5,7 +5,7 @@ import { useQuery } from '@tanstack/react-query';
 import type { Feature, FeatureCollection, Point } from 'geojson';
 import type { LngLat, Map as MapLibreMap, MapGeoJSONFeature } from 'maplibre-gl';
 import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import MapGL, { Layer, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import MapGL, { Layer, Marker, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { snapToGrid } from '@shared/domain/public-grid';
 import type { PinFilters } from '@shared/schemas/pins';
 import { mapQueries } from '../api';
@@ -45,6 +45,8 @@ interface AtlasMapProps {
   overlays: OverlayName[];
   onViewChange: (view: MapView) => void;
   onTotalChange?: (total: number | null) => void;
+  /** The signed-in grower's home place, marked on the map (their own saved place, seen only by them). */
+  home?: { lat: number; lon: number; name: string } | null;
 }
 
 interface Viewport {
@@ -61,7 +63,7 @@ function viewportOf(map: MapLibreMap): Viewport {
  * The atlas map: our own base style and tiles, report pins clustered by the server, and the
  * switchable wasp-area and frost-free-season layers. Clicks open popups; a cluster zooms in.
  */
-export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange }, ref) {
+export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange, home }, ref) {
   const mapRef = useRef<MapRef>(null);
   const [viewport, setViewport] = useState<Viewport | null>(null);
   const [popup, setPopup] = useState<PopupState | null>(null);
@@ -222,6 +224,17 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
           </Source>
         )}
 
+        {home && (
+          <Marker latitude={home.lat} longitude={home.lon} anchor="bottom">
+            <div className="pointer-events-none flex flex-col items-center" data-testid="home-marker">
+              <span className="mb-0.5 rounded bg-paper/95 px-1.5 py-0.5 text-[11px] font-medium whitespace-nowrap text-leaf-700 shadow-sm">{home.name} (your home place)</span>
+              <svg width="22" height="24" viewBox="0 0 22 24" aria-hidden="true">
+                <path d="M11 23 C11 23 20 15 20 9.5 A9 9 0 0 0 2 9.5 C2 15 11 23 11 23z" fill="#3d5e39" stroke="#faf6ef" strokeWidth="1.5" />
+                <path d="M6.5 10.5 L11 6.5 L15.5 10.5 V14 H6.5z" fill="#faf6ef" />
+              </svg>
+            </div>
+          </Marker>
+        )}
         {popup && (
           <MapDetails latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} titleId="map-details-title">
             {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} ripened={popup.ripened} unripe={popup.unripe} filters={filters} titleId="map-details-title" />}

@@ -2,7 +2,7 @@ import '../../map/worker';
 import 'maplibre-gl/dist/maplibre-gl.css';
 import type { Feature, Polygon } from 'geojson';
 import type { FillLayerSpecification, LineLayerSpecification } from 'maplibre-gl';
-import { useMemo, useRef } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import MapGL, { Layer, Marker, NavigationControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { PUBLIC_GRID_STEP_DEG } from '@shared/domain/public-grid';
 import { NearMeButton } from '../../map/components/near-me-button';
@@ -33,13 +33,16 @@ interface MiniMapProps {
 export default function MiniMap({ lat, lon, cell = false, zoom, onPick, label, className = 'h-56' }: MiniMapProps) {
   const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);
   const mapRef = useRef<MapRef>(null);
+  // Where the map was moved to (for tests: Near me and panning show here).
+  const [centreLon, setCentreLon] = useState('');
   const has = lat !== null && lon !== null && Number.isFinite(lat) && Number.isFinite(lon);
   const polygon = useMemo(() => (has && cell ? cellPolygon(lat, lon) : null), [has, cell, lat, lon]);
   const initialViewState = has ? { latitude: lat, longitude: lon, zoom: zoom ?? (cell ? 9.5 : 10) } : { latitude: 40, longitude: -90, zoom: 2.5 };
   return (
-    <div className={`relative overflow-hidden rounded-lg border border-fig-100 ${className}`} role="region" aria-label={label} data-testid="mini-map">
+    <div className={`relative overflow-hidden rounded-lg border border-fig-100 ${className}`} role="region" aria-label={label} data-testid="mini-map" data-centre-lon={centreLon}>
       <MapGL
         ref={mapRef}
+        onMoveEnd={(e) => setCentreLon(e.viewState.longitude.toFixed(3))}
         mapStyle={mapStyle}
         initialViewState={initialViewState}
         attributionControl={false}
