@@ -81,8 +81,10 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
   const stations = useQuery({ ...mapQueries.stations(), enabled: showFrost });
 
   useEffect(() => onTotalChange?.(pins.data?.totalReports ?? null), [pins.data?.totalReports, onTotalChange]);
-  // A popup about a cell belongs to the filters it was opened with.
-  useEffect(() => setPopup((p) => (p?.kind === 'cell' ? null : p)), [filters]);
+  // A popup about a cell belongs to the filters it was opened with (compared by value: the URL
+  // gives a new filters object whenever the view moves).
+  const filtersKey = JSON.stringify(filters);
+  useEffect(() => setPopup((p) => (p?.kind === 'cell' ? null : p)), [filtersKey]);
 
   const stationData = useMemo<FeatureCollection<Point>>(
     () => ({
