@@ -8,8 +8,8 @@
  *   lakes and river areas, simplified to about 1 km.
  *
  * Four tile sets go under tiles/build/ as gzipped z/x/y.pbf files: "base" (the world, zooms 0-6),
- * "us" (US states and counties, zooms 3-8), "water" (lakes from zoom 2, rivers from 6, to zoom 9)
- * and "places" (town names, zooms 7-9). MapLibre draws past a set's last zoom by enlarging its
+ * "us" (US states and counties, zooms 3-8), "water" (lakes from zoom 2, rivers from 6, to zoom 8)
+ * and "places" (town names, zooms 7-8). MapLibre draws past a set's last zoom by enlarging its
  * tiles ("overzoom"), so the map still zooms further in. meta.json records what was built.
  */
 import { GeoJSONVT, type GeoJSONVTTile } from '@maplibre/geojson-vt';
@@ -28,7 +28,7 @@ import { childTiles, type TileId } from './tile-math';
 const require = createRequire(import.meta.url);
 
 /** Bump when the tile contents change shape, so a stale build is rebuilt. */
-export const TILES_FORMAT_VERSION = 3;
+export const TILES_FORMAT_VERSION = 4;
 export const DEFAULT_TILES_OUT = path.resolve('tiles/build');
 
 export interface TileSetMeta {
@@ -47,7 +47,7 @@ export interface TilesMeta {
 type Props = Record<string, string | number>;
 type LayerSource = { name: string; byZoom: (z: number) => GeoJSONVT | null; minzoomProperty?: boolean };
 /** The zooms of each set, shared with the client's style (src/features/map/style.ts reads meta.json's twin). */
-export const TILE_SET_ZOOMS = { base: [0, 6], us: [3, 8], water: [2, 9], places: [7, 9] } as const;
+export const TILE_SET_ZOOMS = { base: [0, 6], us: [3, 8], water: [2, 8], places: [7, 8] } as const;
 
 function loadTopology(file: string): Topology {
   return JSON.parse(fs.readFileSync(require.resolve(file), 'utf8')) as Topology;
@@ -244,12 +244,12 @@ export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource
         return minzoom === null ? [] : [{ type: 'Feature', geometry: c.loc, properties: { name: c.name, kind: 'town', rank: c.population, minzoom } }];
       }),
     ),
-    9,
+    8,
   );
-  const lakes = vt(collection(lakePolygons(1)), 9);
+  const lakes = vt(collection(lakePolygons(1)), 8);
   const river = riverFeatures(9, 15);
-  const rivers = vt(collection(river.lines), 9);
-  const riverAreas = vt(collection(river.areas), 9);
+  const rivers = vt(collection(river.lines), 8);
+  const riverAreas = vt(collection(river.areas), 8);
   const countyLabels = vt(
     collection(
       polygons(counties, 'counties', (p) => ({ name: String(p.name ?? '') })).map((f): Feature<Point, Props> => {

@@ -18,7 +18,7 @@ export const FONT_MEDIUM = 'Fira Sans Medium';
 export const FONT_ITALIC = 'Fira Sans Italic';
 
 /** The last zoom each tile set was built to (scripts/tiles/build-tiles.ts); MapLibre enlarges past it. */
-export const TILE_SETS = { base: { minzoom: 0, maxzoom: 6 }, us: { minzoom: 3, maxzoom: 8 }, water: { minzoom: 2, maxzoom: 9 }, places: { minzoom: 7, maxzoom: 9 } } as const;
+export const TILE_SETS = { base: { minzoom: 0, maxzoom: 6 }, us: { minzoom: 3, maxzoom: 8 }, water: { minzoom: 2, maxzoom: 8 }, places: { minzoom: 7, maxzoom: 8 } } as const;
 
 /** The base map's label layers: the pins' symbol layer sits above them, so they give way to pins. */
 export const LABEL_LAYER_IDS = ['county-labels', 'town-labels', 'state-labels', 'city-labels', 'country-labels'] as const;
