@@ -73,6 +73,15 @@ describe('the atlas base map, season surface and phone sheet', () => {
     const names = new Set(await everywhere(['town-labels', 'city-labels']));
     expect(names.size).toBeGreaterThanOrEqual(4);
     expect([...names].some((n) => /Albany|Troy|Schenectady|Cohoes|Rensselaer|Watervliet/.test(n))).toBe(true);
+    // No label is drawn under a pin: the pins are placed first and a label that would touch one is
+    // left out, so no shown label's anchor lies within a pin's ring (30 px wide at most here).
+    const tooClose = await page.evaluate(() => {
+      const map = (window as unknown as MapWindow).syconiumMap;
+      const at = (layers: string[]) => map.queryRenderedFeatures(undefined, { layers }).map((f) => map.project(f.geometry.coordinates));
+      const pins = at(['pins-cells', 'pins-clusters']);
+      return at(['town-labels', 'city-labels']).filter((l) => pins.some((p) => Math.hypot(p.x - l.x, p.y - l.y) < 12)).length;
+    });
+    expect(tooClose).toBe(0);
     await page.close();
   }, 300_000);
 
