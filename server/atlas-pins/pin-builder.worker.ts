@@ -15,7 +15,7 @@ const statements = new Map<string, Database.Statement>();
 // One read transaction: the version returned is exactly that of the counted rows.
 const read = sqlite.transaction((statement: Database.Statement, params: unknown[]) => ({
   version: atlasDataVersion({ sqlite }),
-  rows: statement.all(...params) as [number, number, number, number][],
+  rows: statement.all(...params) as [number, number, number, number, number, number][],
 }));
 
 answerRequests<BuildRequest, PinBuild>(({ sql, params }) => {
@@ -23,7 +23,7 @@ answerRequests<BuildRequest, PinBuild>(({ sql, params }) => {
   let statement = statements.get(sql);
   if (!statement) statements.set(sql, (statement = sqlite.prepare(sql).raw()));
   const { version, rows } = read(statement, params);
-  const cells = rows.map(([gridLat, gridLon, reports, firstId]) => toGridCell(gridLat, gridLon, reports, firstId));
+  const cells = rows.map(([gridLat, gridLon, reports, firstId, ripened, unripe]) => toGridCell(gridLat, gridLon, reports, firstId, ripened, unripe));
   const clusterStarted = performance.now();
   const layers = buildPinLayers(cells);
   return {

@@ -6,21 +6,28 @@ export interface GridCell {
   gridLat: number;
   gridLon: number;
   reports: number;
+  /** How many of them ripened, and how many were still unripe at the end of the season. */
+  ripened: number;
+  unripe: number;
   /** The report's id when the cell holds exactly one, for a direct link. */
   reportId: number | null;
 }
 
 /** A cell's counted row as the grid cell it describes; a cell with one report links to it. */
-export function toGridCell(gridLat: number, gridLon: number, reports: number, firstId: number): GridCell {
-  return { gridLat, gridLon, reports, reportId: reports === 1 ? firstId : null };
+export function toGridCell(gridLat: number, gridLon: number, reports: number, firstId: number, ripened = 0, unripe = 0): GridCell {
+  return { gridLat, gridLon, reports, ripened, unripe, reportId: reports === 1 ? firstId : null };
 }
 
 interface CellProps {
   reports: number;
+  ripened: number;
+  unripe: number;
   reportId: number | null;
 }
 interface ClusterProps {
   reports: number;
+  ripened: number;
+  unripe: number;
 }
 
 /**
@@ -35,14 +42,15 @@ export const CLUSTER_RADIUS_PX = 48;
  * builds and hands over without copying (`transferList`), and what the request thread queries.
  * `zooms[z]` holds the features of zoom z (0 to CLUSTER_MAX_ZOOM + 1) sorted by longitude,
  * FIELDS numbers each: lon, lat, reports, id (a cluster's id, a single-report cell's report id,
- * else -1), cells (0 for a single cell) and expansionZoom (0 for a single cell).
+ * else -1), cells (0 for a single cell), expansionZoom (0 for a single cell), ripened and unripe
+ * (how many of the reports ripened or stayed unripe: what the pin's ring draws).
  */
 export interface PinLayers {
   totalReports: number;
   cellCount: number;
   zooms: Float64Array[];
 }
-const FIELDS = 6;
+const FIELDS = 8;
 
 export interface PinIndex {
   totalReports: number;
@@ -60,16 +68,18 @@ export function buildPinLayers(cells: GridCell[]): PinLayers {
     radius: CLUSTER_RADIUS_PX,
     maxZoom: CLUSTER_MAX_ZOOM,
     minPoints: 2,
-    map: (props) => ({ reports: props.reports }),
+    map: (props) => ({ reports: props.reports, ripened: props.ripened, unripe: props.unripe }),
     reduce: (acc, props) => {
       acc.reports += props.reports;
+      acc.ripened += props.ripened;
+      acc.unripe += props.unripe;
     },
   });
   index.load(
     cells.map((cell) => ({
       type: 'Feature' as const,
       geometry: { type: 'Point' as const, coordinates: [cell.gridLon, cell.gridLat] },
-      properties: { reports: cell.reports, reportId: cell.reportId },
+      properties: { reports: cell.reports, ripened: cell.ripened, unripe: cell.unripe, reportId: cell.reportId },
     })),
   );
   const zooms: Float64Array[] = [];
@@ -86,6 +96,8 @@ export function buildPinLayers(cells: GridCell[]): PinLayers {
       unsorted[k + 1] = Math.round(lat * 1e4) / 1e4;
       const props = f.properties as Partial<ClusterProperties> & (CellProps | ClusterProps);
       unsorted[k + 2] = props.reports;
+      unsorted[k + 6] = props.ripened;
+      unsorted[k + 7] = props.unripe;
       if (props.cluster) {
         unsorted[k + 3] = props.cluster_id!;
         unsorted[k + 4] = props.point_count!;
@@ -125,10 +137,12 @@ function featureAt(layer: Float64Array, i: number): PinFeature {
   const reports = layer[k + 2]!;
   const id = layer[k + 3]!;
   const cells = layer[k + 4]!;
+  const ripened = layer[k + 6]!;
+  const unripe = layer[k + 7]!;
   if (cells > 0) {
-    return { type: 'Feature', geometry: { type: 'Point', coordinates }, properties: { kind: 'cluster', clusterId: id, cells, reports, expansionZoom: layer[k + 5]! } };
+    return { type: 'Feature', geometry: { type: 'Point', coordinates }, properties: { kind: 'cluster', clusterId: id, cells, reports, ripened, unripe, expansionZoom: layer[k + 5]! } };
   }
-  return { type: 'Feature', geometry: { type: 'Point', coordinates }, properties: { kind: 'cell', reports, reportId: id < 0 ? null : id } };
+  return { type: 'Feature', geometry: { type: 'Point', coordinates }, properties: { kind: 'cell', reports, ripened, unripe, reportId: id < 0 ? null : id } };
 }
 
 /** Answers views from prepared layers: a binary search on longitude, then a latitude check. */

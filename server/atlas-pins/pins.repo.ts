@@ -20,11 +20,19 @@ function filterConditions(filters: PinFilters): SQL[] {
 
 /**
  * The query behind `listPinCells`: published reports matching the filters, counted per public grid
- * cell. Its columns, in order: gridLat, gridLon, reports, firstId (the smallest report id).
+ * cell. Its columns, in order: gridLat, gridLon, reports, firstId (the smallest report id), ripened
+ * and unripe (how many of them turned out so).
  */
 export function pinCellsQuery(db: Db, filters: PinFilters) {
   const query = db
-    .select({ gridLat: reports.gridLat, gridLon: reports.gridLon, reports: count(), firstId: sql<number>`min(${reports.id})` })
+    .select({
+      gridLat: reports.gridLat,
+      gridLon: reports.gridLon,
+      reports: count(),
+      firstId: sql<number>`min(${reports.id})`,
+      ripened: sql<number>`sum(${reports.outcome} = 'ripened')`,
+      unripe: sql<number>`sum(${reports.outcome} = 'unripe')`,
+    })
     .from(reports)
     .$dynamic();
   // The join is only needed to filter by fig type; without it SQLite reads the reports table alone.
@@ -41,7 +49,7 @@ export function maxReportId(db: Db): number {
 export function listPinCells(db: Db, filters: PinFilters): GridCell[] {
   return pinCellsQuery(db, filters)
     .all()
-    .map((r) => toGridCell(r.gridLat, r.gridLon, r.reports, r.firstId));
+    .map((r) => toGridCell(r.gridLat, r.gridLon, r.reports, r.firstId, r.ripened, r.unripe));
 }
 
 const CELL_EPSILON = 1e-6;

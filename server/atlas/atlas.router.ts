@@ -1,16 +1,15 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
-import type { LatLon } from '../../shared/domain/geo';
-import { estimateSeason } from '../../shared/domain/season-estimate';
-import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse, type SeasonEstimate } from '../../shared/schemas/atlas';
+import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse } from '../../shared/schemas/atlas';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
 import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
-import { stationSeasonsNear } from './atlas.repo';
 import { cachedAcceptedVarieties } from './catalogue-cache';
 import { createTreeSnapshotCache } from './tree-snapshot-cache';
-import { reportFrostSeasons, treesWithin, type NearTree } from './tree-snapshot';
+import { seasonAt } from './season-at';
+import { addSeasonSurfaceRoutes } from './season-surface.router';
+import { treesWithin, type NearTree } from './tree-snapshot';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const NO_OVERALL = { share: null, neededDays: null, treesBehindNeed: 0 };
@@ -18,11 +17,6 @@ const NO_OVERALL = { share: null, neededDays: null, treesBehindNeed: 0 };
 function waspAt(db: Db, lat: number, lon: number): NearResponse['wasp'] {
   const areas = findWaspAreasAt(db, lat, lon).map((a) => ({ id: a.id, name: a.name, source: a.source, observedOn: a.observedOn }));
   return { established: areas.length > 0, areas };
-}
-
-/** The frost-free season at the point: stations in range, and the frost seasons of the growers among `trees`. */
-function seasonAround(db: Db, point: LatLon, radiusKm: number, trees: NearTree[]): SeasonEstimate {
-  return estimateSeason({ point, stations: stationSeasonsNear(db, point, radiusKm), reportFrostSeasons: reportFrostSeasons(trees), radiusKm });
 }
 
 /**
@@ -39,7 +33,7 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     const point = { lat: query.lat, lon: query.lon };
     const snapshot = await snapshots.get();
     const trees = treesWithin(snapshot, point, query.radiusKm);
-    const season = seasonAround(db, point, query.radiusKm, trees);
+    const season = seasonAt(db, point, query.radiusKm, trees);
     const catalogue = cachedAcceptedVarieties(db);
     const overall = snapshot.overall;
     const byVariety = new Map<number, NearTree[]>();
@@ -66,10 +60,11 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     if (!variety) throw notFound('Variety');
     const point = { lat: query.lat, lon: query.lon };
     const snapshot = await snapshots.get();
-    const season = seasonAround(db, point, query.radiusKm, treesWithin(snapshot, point, query.radiusKm));
+    const season = seasonAt(db, point, query.radiusKm, treesWithin(snapshot, point, query.radiusKm));
     const body = buildFitResponse({ variety, overall: snapshot.overall.get(id) ?? NO_OVERALL, season, waspEstablished: waspAt(db, query.lat, query.lon).established, form: query.form });
     res.json(fitResponseSchema.parse(body));
   });
 
+  addSeasonSurfaceRoutes(router, { db, snapshots });
   return router;
 }

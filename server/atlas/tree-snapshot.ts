@@ -293,12 +293,62 @@ export function treesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: num
   return result;
 }
 
+/** What reportFrostSeasons reads of a tree row: its grower, its distance and its frost seasons. */
+export type FrostTree = Pick<NearTree, 'userId' | 'distanceKm' | 'frostSeasons'>;
+
+/** The rows that carry a frost season, with their seasons ready and a k-d tree of their own. */
+interface FrostRows {
+  rows: Int32Array;
+  seasons: FrostSeason[][];
+  index: KDBush;
+}
+const frostRowsBySnapshot = new WeakMap<TreeSnapshot, FrostRows>();
+
+function frostRowsOf(snapshot: TreeSnapshot): FrostRows | null {
+  const kept = frostRowsBySnapshot.get(snapshot);
+  if (kept) return kept;
+  const c = snapshot.columns;
+  const rows: number[] = [];
+  for (let i = 0; i < c.count; i++) if (c.frostSeasonStart[i + 1]! > c.frostSeasonStart[i]!) rows.push(i);
+  if (rows.length === 0) return null;
+  const index = new KDBush(rows.length);
+  const seasons = rows.map((i) => {
+    index.add(c.lon[i]!, c.lat[i]!);
+    return treeAt(c, i, 0).frostSeasons;
+  });
+  index.finish();
+  const built = { rows: Int32Array.from(rows), seasons, index };
+  frostRowsBySnapshot.set(snapshot, built);
+  return built;
+}
+
+/**
+ * The tree rows within `radiusKm` that carry a grower's frost season: exactly the rows of
+ * treesWithin that reportFrostSeasons reads, found through a k-d tree of those rows alone (built
+ * once per snapshot), since the season surface asks this for hundreds of points per tile.
+ */
+export function frostTreesWithin(snapshot: TreeSnapshot, point: LatLon, radiusKm: number): FrostTree[] {
+  const frost = frostRowsOf(snapshot);
+  if (!frost) return [];
+  const c = snapshot.columns;
+  const result: FrostTree[] = [];
+  const place = { lat: 0, lon: 0 };
+  for (const k of idsInRadiusBoxes(frost.index, point, radiusKm)) {
+    const i = frost.rows[k]!;
+    place.lat = c.lat[i]!;
+    place.lon = c.lon[i]!;
+    const distance = distanceKm(point, place);
+    if (distance <= radiusKm) result.push({ userId: c.userId[i]!, distanceKm: distance, frostSeasons: frost.seasons[k]! });
+  }
+  return result;
+}
+
 /**
  * Growers' own frost-free seasons near the point: one per grower and season (a garden's frost does
  * not count again for each of its trees and crops), at the grower's nearest tree that reported it,
  * so the answer does not depend on the order of the rows.
  */
-export function reportFrostSeasons(trees: NearTree[]): { distanceKm: number; seasonDays: number }[] {
+export function reportFrostSeasons(trees: FrostTree[]): { distanceKm: number; seasonDays: number }[] {
   const byGrowerSeason = new Map<number, { distanceKm: number; seasonDays: number }>();
   for (const t of trees) {
     for (const { season, days } of t.frostSeasons) {

@@ -1,7 +1,7 @@
 import express, { Router } from 'express';
 import path from 'node:path';
 
-export const TILE_SETS = ['base', 'us'] as const;
+export const TILE_SETS = ['base', 'us', 'water', 'places'] as const;
 
 /**
  * The map's own vector tiles, built by `npm run tiles` into <tilesDir>/build as gzipped z/x/y.pbf

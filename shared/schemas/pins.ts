@@ -70,6 +70,8 @@ export const pinClusterPropertiesSchema = z.object({
   clusterId: z.number().int(),
   cells: z.number().int(),
   reports: z.number().int(),
+  ripened: z.number().int(),
+  unripe: z.number().int(),
   expansionZoom: z.number().int(),
 });
 
@@ -77,6 +79,9 @@ export const pinClusterPropertiesSchema = z.object({
 export const pinCellPropertiesSchema = z.object({
   kind: z.literal('cell'),
   reports: z.number().int(),
+  /** Of `reports`, how many ripened and how many were still unripe at season's end (the rest dropped or bore nothing). */
+  ripened: z.number().int(),
+  unripe: z.number().int(),
   reportId: z.number().int().nullable(),
 });
 

@@ -25,7 +25,7 @@ export default function HomeRoute() {
   const [initialView] = useState<MapView>(() => state.view ?? DEFAULT_VIEW);
   const movedByUser = useRef(false);
   const { user } = useCurrentUser();
-  const home = useQuery({ ...mapQueries.homePlace(), enabled: !openedWithView && user !== null });
+  const home = useQuery({ ...mapQueries.homePlace(), enabled: user !== null });
   useEffect(() => {
     if (home.data && !openedWithView && !movedByUser.current) mapRef.current?.flyTo({ lat: home.data.lat, lon: home.data.lon, zoom: 8 });
   }, [home.data, openedWithView]);
@@ -88,7 +88,7 @@ export default function HomeRoute() {
           )}
           <PlaceSearch onGo={goTo} />
         </div>
-        <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} />
+        <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} home={home.data} />
         <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
           <MapLegend overlays={state.layers} openAtStart={panelOpen} />
         </div>

@@ -64,6 +64,22 @@ describe('GET /api/atlas/pins', () => {
     }
   });
 
+  it('tells how the reports turned out: ripened and unripe counts summed into every cluster, following the filters', async () => {
+    // The fixture above: four published reports, two dropped, two ripened, none unripe.
+    for (const zoom of [0, 6, 12]) {
+      const body = pinsResponseSchema.parse((await ctx.agent().get(`/api/atlas/pins?${WORLD}&zoom=${zoom}`)).body);
+      expect(body.features.reduce((n, f) => n + f.properties.ripened, 0)).toBe(2);
+      expect(body.features.reduce((n, f) => n + f.properties.unripe, 0)).toBe(0);
+      for (const f of body.features) expect(f.properties.ripened + f.properties.unripe).toBeLessThanOrEqual(f.properties.reports);
+    }
+    const dropped = pinsResponseSchema.parse((await ctx.agent().get(`/api/atlas/pins?${WORLD}&zoom=0&outcome=dropped`)).body);
+    expect(dropped.features.reduce((n, f) => n + f.properties.ripened, 0)).toBe(0);
+    const id = addReport(42.6521, -73.7569, { outcome: 'unripe' });
+    const withUnripe = pinsResponseSchema.parse((await ctx.agent().get(`/api/atlas/pins?${WORLD}&zoom=12`)).body);
+    expect(withUnripe.features.reduce((n, f) => n + f.properties.unripe, 0)).toBe(1);
+    ctx.db.delete(reports).where((await import('drizzle-orm')).eq(reports.id, id)).run();
+  });
+
   it('narrows by each filter', async () => {
     const total = async (query: string) => pinsResponseSchema.parse((await ctx.agent().get(`/api/atlas/pins?${WORLD}&zoom=3&${query}`)).body).totalReports;
     expect(await total('crop=breba')).toBe(1);

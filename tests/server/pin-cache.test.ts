@@ -59,7 +59,7 @@ describe('pin cache with cells counted in a worker thread', () => {
       // Every position is a public grid cell centre; a cell with one report links to it.
       const cells = entry.index.query(WORLD, 14).map((f) => ({ lon: f.geometry.coordinates[0], lat: f.geometry.coordinates[1], ...f.properties }));
       expect(cells).toHaveLength(expected.length);
-      for (const cell of expected) expect(cells).toContainEqual({ lon: cell.gridLon, lat: cell.gridLat, kind: 'cell', reports: cell.reports, reportId: cell.reportId });
+      for (const cell of expected) expect(cells).toContainEqual({ lon: cell.gridLon, lat: cell.gridLat, kind: 'cell', reports: cell.reports, ripened: cell.ripened, unripe: cell.unripe, reportId: cell.reportId });
     }
     expect(total(await cache.get({}))).toBe(4);
   });

@@ -15,7 +15,7 @@ function cellsAround(centres: [number, number][], perTown: number, seed = 7): Gr
       const gridLat = snapToGrid(lat + (random() - 0.5) * 0.6);
       const gridLon = snapToGrid(lon + (random() - 0.5) * 0.6);
       const key = `${gridLat},${gridLon}`;
-      const cell = byKey.get(key) ?? { gridLat, gridLon, reports: 0, reportId: null };
+      const cell = byKey.get(key) ?? { gridLat, gridLon, reports: 0, ripened: 0, unripe: 0, reportId: null };
       cell.reports += 1 + Math.floor(random() * 3);
       byKey.set(key, cell);
     }

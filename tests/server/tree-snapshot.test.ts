@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readTreeSnapshot, reportFrostSeasons, treeSnapshotFrom, treesWithin, type NearTree } from '../../server/atlas/tree-snapshot';
+import { frostTreesWithin, readTreeSnapshot, reportFrostSeasons, treeSnapshotFrom, treesWithin, type NearTree } from '../../server/atlas/tree-snapshot';
 import type { Db } from '../../server/db/client';
 import { distanceKm } from '../../shared/domain/geo';
 import { createTestDb } from '../helpers/test-app';
@@ -106,6 +106,20 @@ describe('tree snapshot', () => {
         }
       }),
       { numRuns: 80 },
+    );
+  });
+
+  it('finds, for the season surface, exactly the grower frost seasons that the full radius query gives', () => {
+    fc.assert(
+      fc.property(fc.array(arbRow, { maxLength: 60 }), fc.array(arbQuery, { minLength: 1, maxLength: 4 }), (rows, queries) => {
+        store(rows);
+        const snapshot = treeSnapshotFrom(readTreeSnapshot(db.sqlite).data);
+        const sorted = (xs: { distanceKm: number; seasonDays: number }[]) => [...xs].sort((a, b) => a.distanceKm - b.distanceKm || a.seasonDays - b.seasonDays);
+        for (const { point, radiusKm } of queries) {
+          expect(sorted(reportFrostSeasons(frostTreesWithin(snapshot, point, radiusKm)))).toEqual(sorted(reportFrostSeasons(treesWithin(snapshot, point, radiusKm))));
+        }
+      }),
+      { numRuns: 60 },
     );
   });
 

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { cellResponseSchema, pinsResponseSchema, type PinFilters } from '@shared/schemas/pins';
 import { placeSearchResponseSchema } from '@shared/schemas/places';
+import { seasonAtResponseSchema } from '@shared/schemas/season-surface';
 import { savedPlaceListSchema } from '@shared/schemas/saved-places';
 import { stationListSchema } from '@shared/schemas/stations';
 import { varietyListSchema } from '@shared/schemas/varieties';
@@ -25,6 +26,13 @@ export const mapQueries = {
     queryOptions({
       queryKey: [...mapQueries.all, 'cell', lat, lon, filters],
       queryFn: () => apiFetch(`/api/atlas/pins/cell?${new URLSearchParams({ lat: String(lat), lon: String(lon), ...filterParams(filters) })}`, cellResponseSchema),
+    }),
+  /** The season estimate at a point (what the season surface shows there, with its evidence). */
+  seasonAt: (lat: number, lon: number) =>
+    queryOptions({
+      queryKey: [...mapQueries.all, 'season-at', lat, lon],
+      queryFn: () => apiFetch(`/api/atlas/season-at?${new URLSearchParams({ lat: String(lat), lon: String(lon) })}`, seasonAtResponseSchema),
+      staleTime: 60_000,
     }),
   varieties: () => queryOptions({ queryKey: [...mapQueries.all, 'varieties'], queryFn: () => apiFetch('/api/varieties', varietyListSchema), staleTime: 5 * 60_000 }),
   waspAreas: () => queryOptions({ queryKey: [...mapQueries.all, 'wasp-areas'], queryFn: () => apiFetch('/api/wasp-areas', waspAreaCollectionSchema), staleTime: 5 * 60_000 }),

@@ -1,100 +1,97 @@
-import type { CircleLayerSpecification, FillLayerSpecification, LineLayerSpecification, SymbolLayerSpecification } from 'maplibre-gl';
-import { FROST_BANDS } from './frost-bands';
+import type { CircleLayerSpecification, FillLayerSpecification, LineLayerSpecification, RasterLayerSpecification, SymbolLayerSpecification } from 'maplibre-gl';
 import { MAP_COLORS as C } from './palette';
+import { RING_IMAGE } from './pin-rings';
 import { FONT_MEDIUM } from './style';
+import { WASP_FILL_PAINT, WASP_LINE_PAINT } from './wasp-style';
 
 /*
  * The map's overlay layers as typed constants: ids, sources and paint in one place, so the map
  * component, click handling and the browser test all use the same names.
  */
 
-export const SOURCE_IDS = { pins: 'report-pins', wasp: 'wasp-areas', frost: 'frost-stations' } as const;
+export const SOURCE_IDS = { pins: 'report-pins', wasp: 'wasp-areas', frost: 'frost-stations', season: 'season-surface' } as const;
 
 type Layer<T> = Omit<T, 'source'> & { source: string };
 
-export const PIN_CLUSTER_LAYER: Layer<CircleLayerSpecification> = {
-  id: 'pins-clusters',
-  type: 'circle',
-  source: SOURCE_IDS.pins,
-  filter: ['==', ['get', 'kind'], 'cluster'],
-  paint: {
-    'circle-color': C.fig600,
-    'circle-opacity': 0.88,
-    'circle-radius': ['interpolate', ['linear'], ['sqrt', ['get', 'reports']], 1, 13, 5, 18, 20, 30],
-    'circle-stroke-color': C.paper,
-    'circle-stroke-width': 2,
-  },
+/*
+ * Pins are symbols, drawn above every base-map label: MapLibre places symbols from the top layer
+ * down, so a town name that would sit under a pin gives way (icon-allow-overlap keeps every pin;
+ * icon-ignore-placement stays false, so the pins block the labels beneath them).
+ */
+const pinText: SymbolLayerSpecification['layout'] = {
+  'text-font': [FONT_MEDIUM],
+  'text-allow-overlap': true,
+  'text-ignore-placement': true,
+  'icon-image': RING_IMAGE,
+  'icon-allow-overlap': true,
+  'icon-padding': 1,
 };
 
-export const PIN_CLUSTER_COUNT_LAYER: Layer<SymbolLayerSpecification> = {
-  id: 'pins-cluster-counts',
+export const PIN_CLUSTER_LAYER: Layer<SymbolLayerSpecification> = {
+  id: 'pins-clusters',
   type: 'symbol',
   source: SOURCE_IDS.pins,
   filter: ['==', ['get', 'kind'], 'cluster'],
   layout: {
+    ...pinText,
+    'icon-size': ['interpolate', ['linear'], ['sqrt', ['get', 'reports']], 1, 0.95, 5, 1.2, 20, 1.7, 60, 2.1],
     'text-field': ['to-string', ['get', 'reports']],
-    'text-font': [FONT_MEDIUM],
-    'text-size': 12.5,
-    'text-allow-overlap': true,
-    'text-ignore-placement': true,
+    'text-size': ['interpolate', ['linear'], ['sqrt', ['get', 'reports']], 1, 11, 20, 14],
+    'symbol-sort-key': ['get', 'reports'],
   },
-  paint: { 'text-color': '#ffffff' },
+  paint: { 'text-color': C.fig900 },
 };
 
-export const PIN_CELL_LAYER: Layer<CircleLayerSpecification> = {
+export const PIN_CELL_LAYER: Layer<SymbolLayerSpecification> = {
   id: 'pins-cells',
-  type: 'circle',
+  type: 'symbol',
   source: SOURCE_IDS.pins,
   filter: ['==', ['get', 'kind'], 'cell'],
-  paint: {
-    'circle-color': C.fig500,
-    'circle-radius': ['case', ['>', ['get', 'reports'], 1], 10, 7],
-    'circle-stroke-color': C.paper,
-    'circle-stroke-width': 2,
-  },
-};
-
-export const PIN_CELL_COUNT_LAYER: Layer<SymbolLayerSpecification> = {
-  id: 'pins-cell-counts',
-  type: 'symbol',
-  source: SOURCE_IDS.pins,
-  filter: ['all', ['==', ['get', 'kind'], 'cell'], ['>', ['get', 'reports'], 1]],
   layout: {
-    'text-field': ['to-string', ['get', 'reports']],
-    'text-font': [FONT_MEDIUM],
-    'text-size': 11,
-    'text-allow-overlap': true,
-    'text-ignore-placement': true,
+    ...pinText,
+    'icon-size': ['case', ['>', ['get', 'reports'], 1], 0.85, 0.62],
+    'text-field': ['case', ['>', ['get', 'reports'], 1], ['to-string', ['get', 'reports']], ''],
+    'text-size': 10.5,
   },
-  paint: { 'text-color': '#ffffff' },
+  paint: { 'text-color': C.fig900 },
 };
 
 export const WASP_FILL_LAYER: Layer<FillLayerSpecification> = {
   id: 'wasp-areas-fill',
   type: 'fill',
   source: SOURCE_IDS.wasp,
-  paint: { 'fill-color': C.leaf500, 'fill-opacity': 0.16 },
+  paint: WASP_FILL_PAINT,
 };
 
 export const WASP_OUTLINE_LAYER: Layer<LineLayerSpecification> = {
   id: 'wasp-areas-outline',
   type: 'line',
   source: SOURCE_IDS.wasp,
-  paint: { 'line-color': C.leaf700, 'line-width': 1.5, 'line-dasharray': [2, 1.5], 'line-opacity': 0.8 },
+  paint: WASP_LINE_PAINT,
 };
 
-/** Station circles coloured by frost-free days (days50), in the legend's bands. */
+/** The season surface (season-surface.ts draws its tiles), under the water, borders and labels. */
+export const SEASON_SURFACE_LAYER: Layer<RasterLayerSpecification> = {
+  id: 'season-surface',
+  type: 'raster',
+  source: SOURCE_IDS.season,
+  paint: { 'raster-opacity': 0.9, 'raster-resampling': 'linear', 'raster-fade-duration': 0 },
+};
+/** The base-map layer the season surface is drawn beneath. */
+export const SEASON_SURFACE_BEFORE = 'lakes';
+
+/** The stations behind the season surface: small marks where its evidence stands. */
 export const FROST_STATION_LAYER: Layer<CircleLayerSpecification> = {
   id: 'frost-stations',
   type: 'circle',
   source: SOURCE_IDS.frost,
+  minzoom: 4,
   paint: {
-    'circle-color': ['step', ['get', 'days50'], FROST_BANDS[0]!.color, ...FROST_BANDS.slice(1).flatMap((b) => [b.from, b.color])] as unknown as string,
-    'circle-radius': ['interpolate', ['linear'], ['zoom'], 2, 5, 8, 9],
+    'circle-color': C.paper,
+    'circle-radius': ['interpolate', ['linear'], ['zoom'], 4, 2.5, 9, 4.5],
     'circle-stroke-color': C.ink,
-    'circle-stroke-opacity': 0.35,
-    'circle-stroke-width': 1,
-    'circle-opacity': 0.9,
+    'circle-stroke-opacity': 0.7,
+    'circle-stroke-width': 1.4,
   },
 };
 

@@ -3,8 +3,10 @@
  * paper, soft ink) plus two quiet tones for water and land that sit between them.
  */
 export const MAP_COLORS = {
-  water: '#dfe6e3',
-  waterDeep: '#d3ddd9',
+  water: '#d3e1e2',
+  waterDeep: '#c6d6d8',
+  waterEdge: '#b7cacd',
+  river: '#a9c6cc',
   land: '#f8f3ea',
   paper: '#faf6ef',
   ink: '#2b2230',

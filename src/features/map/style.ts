@@ -18,7 +18,10 @@ export const FONT_MEDIUM = 'Fira Sans Medium';
 export const FONT_ITALIC = 'Fira Sans Italic';
 
 /** The last zoom each tile set was built to (scripts/tiles/build-tiles.ts); MapLibre enlarges past it. */
-export const TILE_SETS = { base: { minzoom: 0, maxzoom: 6 }, us: { minzoom: 3, maxzoom: 8 } } as const;
+export const TILE_SETS = { base: { minzoom: 0, maxzoom: 6 }, us: { minzoom: 3, maxzoom: 8 }, water: { minzoom: 2, maxzoom: 8 }, places: { minzoom: 7, maxzoom: 8 } } as const;
+
+/** The base map's label layers: the pins' symbol layer sits above them, so they give way to pins. */
+export const LABEL_LAYER_IDS = ['county-labels', 'town-labels', 'state-labels', 'city-labels', 'country-labels'] as const;
 
 // Fontsource's unicode ranges for its "latin" and "latin-ext" subsets.
 const LATIN = ['U+0000-00FF', 'U+0131', 'U+0152-0153', 'U+02BB-02BC', 'U+02C6', 'U+02DA', 'U+02DC', 'U+0304', 'U+0308', 'U+0329', 'U+2000-206F', 'U+20AC', 'U+2122', 'U+2191', 'U+2193', 'U+2212', 'U+2215', 'U+FEFF', 'U+FFFD'];
@@ -48,6 +51,8 @@ export function createBaseStyle(origin: string): StyleSpecification {
     sources: {
       base: { type: 'vector', tiles: tiles('base'), ...TILE_SETS.base },
       us: { type: 'vector', tiles: tiles('us'), ...TILE_SETS.us, bounds: [-180, 17, -64, 72] },
+      water: { type: 'vector', tiles: tiles('water'), ...TILE_SETS.water },
+      places: { type: 'vector', tiles: tiles('places'), ...TILE_SETS.places },
     },
     layers: [
       { id: 'water', type: 'background', paint: { 'background-color': C.water } },
@@ -63,7 +68,42 @@ export function createBaseStyle(origin: string): StyleSpecification {
         type: 'line',
         source: 'base',
         'source-layer': 'land',
-        paint: { 'line-color': '#c9d6d1', 'line-width': ['interpolate', ['linear'], ['zoom'], 0, 0.4, 6, 1.2, 10, 2] },
+        paint: { 'line-color': C.waterEdge, 'line-width': ['interpolate', ['linear'], ['zoom'], 0, 0.4, 6, 1.2, 10, 2] },
+      },
+      {
+        id: 'lakes',
+        type: 'fill',
+        source: 'water',
+        'source-layer': 'lakes',
+        filter: shownFrom,
+        paint: { 'fill-color': C.water, 'fill-outline-color': C.waterEdge },
+      },
+      {
+        id: 'lake-shores',
+        type: 'line',
+        source: 'water',
+        'source-layer': 'lakes',
+        filter: shownFrom,
+        minzoom: 5,
+        paint: { 'line-color': C.waterEdge, 'line-width': ['interpolate', ['linear'], ['zoom'], 5, 0.3, 10, 1] },
+      },
+      {
+        id: 'river-areas',
+        type: 'fill',
+        source: 'water',
+        'source-layer': 'river-areas',
+        minzoom: 6,
+        paint: { 'fill-color': C.water, 'fill-outline-color': C.waterEdge },
+      },
+      {
+        // Rivers as lines along their 1 km slivers, the gaps joined (scripts/tiles/build-tiles.ts).
+        id: 'rivers',
+        type: 'line',
+        source: 'water',
+        'source-layer': 'rivers',
+        minzoom: 6,
+        layout: { 'line-join': 'round', 'line-cap': 'round' },
+        paint: { 'line-color': C.river, 'line-width': ['interpolate', ['exponential', 1.6], ['zoom'], 6, 0.7, 9, 1.8, 12, 4.5, 14, 8] },
       },
       {
         id: 'county-boundaries',
@@ -96,6 +136,23 @@ export function createBaseStyle(origin: string): StyleSpecification {
         minzoom: 8.5,
         layout: { 'text-field': ['get', 'name'], 'text-font': [FONT_ITALIC], 'text-size': 11, 'symbol-sort-key': ['-', ['get', 'rank']] },
         paint: { 'text-color': '#8a7d89', ...labelHalo },
+      },
+      {
+        id: 'town-labels',
+        type: 'symbol',
+        source: 'places',
+        'source-layer': 'towns',
+        filter: shownFrom,
+        minzoom: 7,
+        layout: {
+          'text-field': ['get', 'name'],
+          'text-font': [FONT_REGULAR],
+          'text-size': ['interpolate', ['linear'], ['zoom'], 7, 10.5, 12, 13],
+          'symbol-sort-key': ['-', ['get', 'rank']],
+          'text-padding': 4,
+          'text-max-width': 8,
+        },
+        paint: { 'text-color': C.inkSoft, 'text-opacity': 0.85, ...labelHalo },
       },
       {
         id: 'state-labels',

@@ -172,6 +172,8 @@ const CASES: Case[] = [
   { route: 'GET /api/guidance/season-success', expected: everyone(200), call: () => get('/api/guidance/season-success') },
   { route: 'GET /api/guidance/short-season', expected: everyone(200), call: () => get('/api/guidance/short-season?seasonDays=150') },
   { route: 'GET /api/atlas/pins', expected: everyone(200), call: () => get('/api/atlas/pins?bbox=-75,41,-72,44&zoom=9') },
+  { route: 'GET /api/atlas/season-grid/:z/:x/:y', expected: everyone(200), call: () => get('/api/atlas/season-grid/6/18/23') },
+  { route: 'GET /api/atlas/season-at', expected: everyone(200), call: () => get('/api/atlas/season-at?lat=42.65&lon=-73.75') },
   { route: 'GET /api/atlas/pins/cell', expected: everyone(200), call: () => get(`/api/atlas/pins/cell?${cell()}`) },
   { route: 'GET /api/places', expected: everyone(200), call: () => get('/api/places?q=Albany') },
   { route: 'GET /api/places/nearest', expected: everyone(200), call: () => get(`/api/places/nearest?${NEAR}`) },

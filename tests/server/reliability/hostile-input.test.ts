@@ -260,6 +260,7 @@ describe('random query strings on every route that reads a query', () => {
     { path: `/api/varieties/1/fit`, keys: ['lat', 'lon', 'radiusKm', 'form'], role: 'visitor' },
     { path: '/api/atlas/pins', keys: ['bbox', 'zoom', 'varietyId', 'figType', 'crop', 'outcome', 'form', 'seasonFrom', 'seasonTo'], role: 'visitor' },
     { path: '/api/atlas/pins/cell', keys: ['lat', 'lon', 'varietyId', 'crop', 'seasonFrom', 'seasonTo'], role: 'visitor' },
+    { path: '/api/atlas/season-at', keys: ['lat', 'lon'], role: 'visitor' },
     { path: '/api/guidance/ripe-dates', keys: ['varietyId', 'lat', 'lon', 'radiusKm', 'crop'], role: 'visitor' },
     { path: '/api/guidance/season-success', keys: ['form', 'crop', 'varietyId', 'binDays'], role: 'visitor' },
     { path: '/api/guidance/short-season', keys: ['seasonDays', 'form', 'toleranceDays'], role: 'visitor' },

@@ -1,35 +1,41 @@
 import '../worker';
 import 'maplibre-gl/dist/maplibre-gl.css';
+import '../map.css';
 import { useQuery } from '@tanstack/react-query';
 import type { Feature, FeatureCollection, Point } from 'geojson';
 import type { LngLat, Map as MapLibreMap, MapGeoJSONFeature } from 'maplibre-gl';
 import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import MapGL, { Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import MapGL, { Layer, Marker, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { snapToGrid } from '@shared/domain/public-grid';
 import type { PinFilters } from '@shared/schemas/pins';
 import { mapQueries } from '../api';
 import {
   CLICKABLE_LAYER_IDS,
   FROST_STATION_LAYER,
-  PIN_CELL_COUNT_LAYER,
   PIN_CELL_LAYER,
-  PIN_CLUSTER_COUNT_LAYER,
   PIN_CLUSTER_LAYER,
+  SEASON_SURFACE_BEFORE,
+  SEASON_SURFACE_LAYER,
   SOURCE_IDS,
   WASP_FILL_LAYER,
   WASP_OUTLINE_LAYER,
 } from '../layers';
+import { provideRingImages } from '../pin-rings';
+import { registerSeasonProtocol, SEASON_SOURCE, seasonSurfaceValueAt } from '../season-surface';
 import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
+import { MapDetails } from './map-details';
 import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
 import { useUnits } from '../../units/use-units';
+
+registerSeasonProtocol();
 
 export interface AtlasMapHandle {
   flyTo: (view: MapView) => void;
 }
 
 type PopupState =
-  | { kind: 'cell'; lat: number; lon: number; reports: number }
+  | { kind: 'cell'; lat: number; lon: number; reports: number; ripened: number; unripe: number }
   | { kind: 'point'; lat: number; lon: number }
   | { kind: 'station'; lat: number; lon: number; name: string; days50: number | null }
   | { kind: 'wasp'; lat: number; lon: number; name: string; source: string; observedOn: string };
@@ -40,6 +46,8 @@ interface AtlasMapProps {
   overlays: OverlayName[];
   onViewChange: (view: MapView) => void;
   onTotalChange?: (total: number | null) => void;
+  /** The signed-in grower's home place, marked on the map (their own saved place, seen only by them). */
+  home?: { lat: number; lon: number; name: string } | null;
 }
 
 interface Viewport {
@@ -56,7 +64,7 @@ function viewportOf(map: MapLibreMap): Viewport {
  * The atlas map: our own base style and tiles, report pins clustered by the server, and the
  * switchable wasp-area and frost-free-season layers. Clicks open popups; a cluster zooms in.
  */
-export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange }, ref) {
+export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange, home }, ref) {
   const units = useUnits();
   const mapRef = useRef<MapRef>(null);
   const [viewport, setViewport] = useState<Viewport | null>(null);
@@ -75,8 +83,10 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
   const stations = useQuery({ ...mapQueries.stations(), enabled: showFrost });
 
   useEffect(() => onTotalChange?.(pins.data?.totalReports ?? null), [pins.data?.totalReports, onTotalChange]);
-  // A popup about a cell belongs to the filters it was opened with.
-  useEffect(() => setPopup((p) => (p?.kind === 'cell' ? null : p)), [filters]);
+  // A popup about a cell belongs to the filters it was opened with (compared by value: the URL
+  // gives a new filters object whenever the view moves).
+  const filtersKey = JSON.stringify(filters);
+  useEffect(() => setPopup((p) => (p?.kind === 'cell' ? null : p)), [filtersKey]);
 
   const stationData = useMemo<FeatureCollection<Point>>(
     () => ({
@@ -99,9 +109,12 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
   const onLoad = useCallback(() => {
     const map = mapRef.current?.getMap();
     if (!map) return;
+    provideRingImages(map);
     setViewport(viewportOf(map));
-    // For browser tests and debugging: the live map instance.
-    (window as unknown as { syconiumMap?: MapLibreMap }).syconiumMap = map;
+    // For browser tests and debugging: the live map instance and the season surface's reading.
+    const w = window as unknown as { syconiumMap?: MapLibreMap; syconiumSeasonAt?: typeof seasonSurfaceValueAt };
+    w.syconiumMap = map;
+    w.syconiumSeasonAt = seasonSurfaceValueAt;
   }, []);
 
   /** Open what lies at a point: zoom into a cluster, or a popup for a cell, station, area or empty spot. */
@@ -120,8 +133,10 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         map.easeTo({ center: [fLon, fLat], zoom: Math.max(map.getZoom() + 1, Number(props.expansionZoom)), duration: 600 });
         return;
       case PIN_CELL_LAYER.id:
+        // On a phone the details open as a sheet over the lower part of the map: lift the pin above it.
+        if (window.matchMedia('(max-width: 767px)').matches) map.easeTo({ center: [fLon, fLat], offset: [0, -map.getContainer().clientHeight * 0.28], duration: 300 });
         // Rendered positions are rounded by the tiling; snapping gives back the exact cell centre.
-        setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports) });
+        setPopup({ kind: 'cell', lat: snapToGrid(fLat), lon: snapToGrid(fLon), reports: Number(props.reports), ripened: Number(props.ripened), unripe: Number(props.unripe) });
         return;
       case FROST_STATION_LAYER.id:
         setPopup({ kind: 'station', lat: fLat, lon: fLon, name: String(props.name), days50: props.days50 === null ? null : Number(props.days50) });
@@ -190,33 +205,47 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
         <NavigationControl position="top-right" showCompass={false} />
         <ScaleControl position="bottom-right" unit={units.prefs.distance === 'mi' ? 'imperial' : 'metric'} maxWidth={110} />
 
-        {/* Layer order, whichever layer is switched on first: wasp areas under the report pins,
-            climate stations over them (the stations are what that layer is switched on to see). */}
+        {/* Layer order, whichever layer is switched on first: the season surface under the water
+            and labels, wasp areas and climate stations under the report pins, the pins on top. */}
         <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
-          <Layer {...PIN_CLUSTER_LAYER} />
-          <Layer {...PIN_CLUSTER_COUNT_LAYER} />
           <Layer {...PIN_CELL_LAYER} />
-          <Layer {...PIN_CELL_COUNT_LAYER} />
+          <Layer {...PIN_CLUSTER_LAYER} />
         </Source>
+        {showFrost && (
+          <Source id={SOURCE_IDS.season} {...SEASON_SOURCE}>
+            <Layer {...SEASON_SURFACE_LAYER} beforeId={SEASON_SURFACE_BEFORE} />
+          </Source>
+        )}
         {showWasp && wasp.data && (
           <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
-            <Layer {...WASP_FILL_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
-            <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CLUSTER_LAYER.id} />
+            <Layer {...WASP_FILL_LAYER} beforeId={PIN_CELL_LAYER.id} />
+            <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
         )}
         {showFrost && (
           <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
-            <Layer {...FROST_STATION_LAYER} />
+            <Layer {...FROST_STATION_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
         )}
 
+        {home && (
+          <Marker latitude={home.lat} longitude={home.lon} anchor="bottom">
+            <div className="pointer-events-none flex flex-col items-center" data-testid="home-marker">
+              <span className="mb-0.5 rounded bg-paper/95 px-1.5 py-0.5 text-[11px] font-medium whitespace-nowrap text-leaf-700 shadow-sm">{home.name} (your home place)</span>
+              <svg width="22" height="24" viewBox="0 0 22 24" aria-hidden="true">
+                <path d="M11 23 C11 23 20 15 20 9.5 A9 9 0 0 0 2 9.5 C2 15 11 23 11 23z" fill="#3d5e39" stroke="#faf6ef" strokeWidth="1.5" />
+                <path d="M6.5 10.5 L11 6.5 L15.5 10.5 V14 H6.5z" fill="#faf6ef" />
+              </svg>
+            </div>
+          </Marker>
+        )}
         {popup && (
-          <Popup latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} closeOnClick={false} maxWidth="300px" focusAfterOpen className="syconium-popup">
-            {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} filters={filters} />}
-            {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} />}
-            {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} />}
-            {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} />}
-          </Popup>
+          <MapDetails latitude={popup.lat} longitude={popup.lon} onClose={() => setPopup(null)} titleId="map-details-title">
+            {popup.kind === 'cell' && <CellPopup lat={popup.lat} lon={popup.lon} reports={popup.reports} ripened={popup.ripened} unripe={popup.unripe} filters={filters} titleId="map-details-title" />}
+            {popup.kind === 'point' && <PointPopup lat={popup.lat} lon={popup.lon} showSeason={showFrost} titleId="map-details-title" />}
+            {popup.kind === 'station' && <StationPopup name={popup.name} days50={popup.days50} titleId="map-details-title" />}
+            {popup.kind === 'wasp' && <WaspAreaPopup name={popup.name} source={popup.source} observedOn={popup.observedOn} lat={popup.lat} lon={popup.lon} titleId="map-details-title" />}
+          </MapDetails>
         )}
       </MapGL>
       {keyboardFocus && (

@@ -156,7 +156,7 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           <input type="checkbox" className="mt-0.5 h-4 w-4 accent-fig-600" checked={overlays.includes('frost')} onChange={(e) => toggle('frost', e.target.checked)} />
           <span>
             Frost-free season
-            <span className="block text-xs text-ink/70">Climate stations, coloured by days between frosts ({units.temperature(32)}) in half the years.</span>
+            <span className="block text-xs text-ink/70">Days between frosts ({units.temperature(32)}) in half the years, shaded from nearby stations and growers’ frost dates; faded where they are few or far.</span>
           </span>
         </label>
       </fieldset>

@@ -2,9 +2,10 @@ import '../../map/worker';
 import 'maplibre-gl/dist/maplibre-gl.css';
 import type { Feature, Polygon } from 'geojson';
 import type { FillLayerSpecification, LineLayerSpecification } from 'maplibre-gl';
-import { useMemo } from 'react';
-import MapGL, { Layer, Marker, NavigationControl, Source, type MapLayerMouseEvent } from 'react-map-gl/maplibre';
+import { useMemo, useRef, useState } from 'react';
+import MapGL, { Layer, Marker, NavigationControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { PUBLIC_GRID_STEP_DEG } from '@shared/domain/public-grid';
+import { NearMeButton } from '../../map/components/near-me-button';
 import { createBaseStyle } from '../../map/style';
 
 const CELL_FILL_LAYER: Omit<FillLayerSpecification, 'source'> = { id: 'report-cell-fill', type: 'fill', paint: { 'fill-color': '#6b3a5b', 'fill-opacity': 0.18 } };
@@ -31,12 +32,17 @@ interface MiniMapProps {
 /** A small map on Syconium's own offline style: shows a report's place, or lets a grower click one. */
 export default function MiniMap({ lat, lon, cell = false, zoom, onPick, label, className = 'h-56' }: MiniMapProps) {
   const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);
+  const mapRef = useRef<MapRef>(null);
+  // Where the map was moved to (for tests: Near me and panning show here).
+  const [centreLon, setCentreLon] = useState('');
   const has = lat !== null && lon !== null && Number.isFinite(lat) && Number.isFinite(lon);
   const polygon = useMemo(() => (has && cell ? cellPolygon(lat, lon) : null), [has, cell, lat, lon]);
   const initialViewState = has ? { latitude: lat, longitude: lon, zoom: zoom ?? (cell ? 9.5 : 10) } : { latitude: 40, longitude: -90, zoom: 2.5 };
   return (
-    <div className={`relative overflow-hidden rounded-lg border border-fig-100 ${className}`} role="region" aria-label={label} data-testid="mini-map">
+    <div className={`relative overflow-hidden rounded-lg border border-fig-100 ${className}`} role="region" aria-label={label} data-testid="mini-map" data-centre-lon={centreLon}>
       <MapGL
+        ref={mapRef}
+        onMoveEnd={(e) => setCentreLon(e.viewState.longitude.toFixed(3))}
         mapStyle={mapStyle}
         initialViewState={initialViewState}
         attributionControl={false}
@@ -46,6 +52,7 @@ export default function MiniMap({ lat, lon, cell = false, zoom, onPick, label, c
         style={{ position: 'absolute', inset: 0 }}
       >
         <NavigationControl position="top-right" showCompass={false} />
+        <NearMeButton onFound={(p) => mapRef.current?.flyTo({ center: [p.lon, p.lat], zoom: 11 })} />
         {polygon && (
           <Source id="report-cell" type="geojson" data={polygon}>
             <Layer {...CELL_FILL_LAYER} />

@@ -4,7 +4,9 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import MapGl, { Layer, NavigationControl, Source, type LayerProps, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import { closeRing } from '@shared/domain/wasp-geometry';
 import type { WaspAreaCollection, WaspAreaGeometry } from '@shared/schemas/wasp-areas';
+import { NearMeButton } from '../../map/components/near-me-button';
 import { createBaseStyle } from '../../map/style';
+import { WASP_FILL_PAINT, WASP_LINE_PAINT } from '../../map/wasp-style';
 import '../../map/worker';
 
 export const WASP_AREA_FILL_LAYER = 'editor-wasp-area-fill';
@@ -12,19 +14,12 @@ export const WASP_AREA_FILL_LAYER = 'editor-wasp-area-fill';
 const areaFill: LayerProps = {
   id: WASP_AREA_FILL_LAYER,
   type: 'fill',
-  paint: {
-    'fill-color': ['case', ['==', ['get', 'status'], 'retired'], '#9a8f96', '#5e8a57'],
-    'fill-opacity': ['case', ['==', ['get', 'status'], 'retired'], 0.12, ['boolean', ['get', 'selected'], false], 0.45, 0.28],
-  },
+  paint: WASP_FILL_PAINT,
 };
 const areaLine: LayerProps = {
   id: 'editor-wasp-area-line',
   type: 'line',
-  paint: {
-    'line-color': ['case', ['==', ['get', 'status'], 'retired'], '#7d7378', '#3d5e39'],
-    'line-width': ['case', ['boolean', ['get', 'selected'], false], 3, 1.5],
-    'line-dasharray': ['case', ['==', ['get', 'status'], 'retired'], ['literal', [2, 2]], ['literal', [1, 0]]],
-  },
+  paint: WASP_LINE_PAINT,
 };
 const draftFill: LayerProps = { id: 'editor-draft-fill', type: 'fill', filter: ['==', ['geometry-type'], 'Polygon'], paint: { 'fill-color': '#6b3a5b', 'fill-opacity': 0.2 } };
 const draftLine: LayerProps = { id: 'editor-draft-line', type: 'line', filter: ['!=', ['geometry-type'], 'Point'], paint: { 'line-color': '#6b3a5b', 'line-width': 2 } };
@@ -120,6 +115,7 @@ export function WaspAreaMap({ areas, selectedId, draftVertices, preview, drawing
         attributionControl={false}
       >
         <NavigationControl position="top-right" showCompass={false} />
+        <NearMeButton onFound={(p) => mapRef.current?.flyTo({ center: [p.lon, p.lat], zoom: 9 })} />
         <Source id="editor-wasp-areas" type="geojson" data={areaData}>
           <Layer {...areaFill} />
           <Layer {...areaLine} />
