@@ -163,6 +163,8 @@ const PARAMETERS: Record<string, { paths: Paths; note?: string }> = {
   'GET /api/stations/:id': { paths: () => stations.map((id) => `/api/stations/${id}`) },
   'GET /api/stations/normals/:code': { paths: () => ['/api/stations/normals/USW00014735'], note: 'reference climate: no report enters it' },
   'GET /api/places': { paths: () => ['/api/places?q=Albany'] },
+  'GET /api/atlas/season-at': { paths: () => POINTS.map((p) => `/api/atlas/season-at?lat=${p.lat}&lon=${p.lon}`) },
+  'GET /api/atlas/season-grid/:z/:x/:y': { paths: () => ['/api/atlas/season-grid/8/75/94', '/api/atlas/season-grid/9/151/188'] },
   'GET /api/places/nearest': { paths: () => POINTS.map((p) => `/api/places/nearest?lat=${p.lat}&lon=${p.lon}`) },
   'GET /api/varieties/:id/page': { paths: () => [...varieties, proposedVariety].map((id) => `/api/varieties/${id}/page`) },
   'GET /api/support/checkout/:sessionId': { paths: () => [], note: 'a checkout holds an amount and a state, no place' },
@@ -178,10 +180,11 @@ const NOT_PUBLIC: Record<string, string> = {
 
 const ROUTES_CHECKED = new Set<string>();
 /**
- * The pins' cache key: the atlas data version, a counter every report edit moves (drizzle/0005).
+ * The pins' and the season surface's cache keys: the atlas (and stations) data version, counters every
+ * report edit moves (drizzle/0005).
  * It tells that something changed, never where, so it is the one part of an answer left out.
  */
-const DATA_VERSION = /"dataVersion":"\d+"/g;
+const DATA_VERSION = /"dataVersion":"\d+"|"version":"\d+\.\d+"/g;
 
 /** Every public GET answer, keyed by path, as status and body bytes. */
 async function publicAnswers(agent: TestAgent, world: World): Promise<Map<string, string>> {
