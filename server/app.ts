@@ -1,3 +1,4 @@
+import { createAccuracyRouter } from './accuracy/accuracy.router';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
@@ -108,6 +109,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/guidance', createGuidanceRouter({ db }));
   api.use('/atlas/pins', createPinsRouter({ db }));
   api.use('/places', createPlacesRouter());
+  api.use('/accuracy', createAccuracyRouter({ db }));
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);

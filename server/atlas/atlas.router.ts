@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
+import { chanceAt } from '../../shared/domain/chance-model';
+import { bandwidthForRadius, buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
 import type { LatLon } from '../../shared/domain/geo';
 import { estimateSeason } from '../../shared/domain/season-estimate';
 import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse, type SeasonEstimate } from '../../shared/schemas/atlas';
@@ -9,6 +10,8 @@ import { notFound } from '../lib/http-error';
 import { findWaspAreasAt } from '../wasp-areas/wasp-areas.repo';
 import { stationSeasonsNear } from './atlas.repo';
 import { cachedAcceptedVarieties } from './catalogue-cache';
+import { recordsOf } from './chance-fit';
+import { createChanceFitCache } from './chance-fit-cache';
 import { createTreeSnapshotCache } from './tree-snapshot-cache';
 import { reportFrostSeasons, treesWithin, type NearTree } from './tree-snapshot';
 
@@ -33,13 +36,16 @@ function seasonAround(db: Db, point: LatLon, radiusKm: number, trees: NearTree[]
 export function createAtlasRouter({ db }: { db: Db }): Router {
   const router = Router();
   const snapshots = createTreeSnapshotCache(db);
+  const chanceFits = createChanceFitCache(db);
 
   router.get('/atlas/near', async (req, res) => {
     const query = nearQuerySchema.parse(req.query);
     const point = { lat: query.lat, lon: query.lon };
-    const snapshot = await snapshots.get();
+    const [snapshot, chanceFit] = await Promise.all([snapshots.get(), chanceFits.get()]);
     const trees = treesWithin(snapshot, point, query.radiusKm);
     const season = seasonAround(db, point, query.radiusKm, trees);
+    const wasp = waspAt(db, query.lat, query.lon);
+    const chanceContext = { point, localDays: season.days50, form: query.form ?? 'ground', waspEstablished: wasp.established, bandwidthKm: bandwidthForRadius(query.radiusKm) };
     const catalogue = cachedAcceptedVarieties(db);
     const overall = snapshot.overall;
     const byVariety = new Map<number, NearTree[]>();
@@ -51,9 +57,13 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     const varieties: VarietyEvidenceInput[] = [];
     for (const [id, localTrees] of byVariety) {
       const variety = catalogue.get(id);
-      if (variety) varieties.push({ variety, localTrees, overall: overall.get(id) ?? NO_OVERALL });
+      if (!variety) continue;
+      // The model's records of these trees: their public grid cells, never the exact places.
+      const nearby = recordsOf(chanceFit, new Set(localTrees.map((t) => t.treeId)), variety);
+      const chance = chanceAt(chanceFit.model, variety, nearby, chanceContext);
+      varieties.push({ variety, localTrees, overall: overall.get(id) ?? NO_OVERALL, chance });
     }
-    const body: NearResponse = buildNearResponse({ point, radiusKm: query.radiusKm, form: query.form, season, wasp: waspAt(db, query.lat, query.lon), varieties });
+    const body: NearResponse = buildNearResponse({ point, radiusKm: query.radiusKm, form: query.form, season, wasp, varieties });
     // Typed as NearResponse by the domain function; a runtime parse of this (the hot path) would
     // cost more than the rest of a small query, so the tests parse it instead.
     res.json(body);

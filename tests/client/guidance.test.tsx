@@ -72,7 +72,7 @@ describe('HereResults', () => {
     const first = within(rows[0]!);
     expect(first.getByText('16 reports · 8 trees · 5 growers')).toBeInTheDocument();
     expect(first.getByRole('img', { name: 'Ripened 75 %, 90 % interval 48 % to 90 %, adjusted 72 %' })).toBeInTheDocument();
-    expect(first.getByText(/166 days here vs 125 needed \(reports elsewhere\), head start 20 days, margin \+61 days/)).toBeInTheDocument();
+    expect(first.getByText(/166 days here vs 125 needed \(growers’ reports\), head start 20 days, margin \+61 days/)).toBeInTheDocument();
     expect(first.queryByTestId('wasp-warning')).toBeNull();
     // The Smyrna type stays in the list, marked and explained.
     expect(within(rows[1]!).getByTestId('wasp-warning')).toHaveTextContent('Needs the fig wasp, which is not recorded here');

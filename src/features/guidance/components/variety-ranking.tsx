@@ -86,7 +86,7 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
           <dt className="text-ink/70">Season fit ({LABELS.growingForm[fit.form].toLowerCase()})</dt>
           <dd>
             {round(fit.localSeasonDays)} days here vs {round(fit.neededDays)} needed
-            {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (reports elsewhere)' : ''}
+            {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (growers’ reports)' : ''}
             {fit.headStartDays ? `, head start ${fit.headStartDays} days` : ''}
             {fit.marginDays !== null ? `, margin ${fit.marginDays > 0 ? '+' : ''}${Math.round(fit.marginDays)} days` : ''}
             <span className="block text-xs text-ink/70">{fit.explanation}</span>
