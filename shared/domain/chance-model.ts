@@ -272,16 +272,19 @@ export type ChanceBasis = {
  * null when the model has no fit for the variety (it had no reports when fitted).
  */
 export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: readonly TreeRecord[], ctx: ChanceContext): (Chance & { basis: ChanceBasis }) | null {
-  const fit = model.varieties.get(variety.id);
-  if (!fit) return null;
   const checks = pollinationChecks(variety.figType, ctx.waspEstablished);
   const mainSets = checks.main.fruitExpected !== 'no';
   const brebaSets = checks.breba.fruitExpected !== 'no';
+  const fit = model.varieties.get(variety.id);
+  if (!mainSets && !brebaSets) {
+    // A rule, not evidence: no crop of this type sets fruit here (its reports elsewhere do not matter).
+    const localTrees = new Set(nearby.map((t) => t.treeId)).size;
+    const trees = Math.max(fit?.trees ?? 0, localTrees);
+    return { probability: 0, low: 0, high: 0, enoughEvidence: true, trees, basis: { rule: 'no-crop', modelProbability: 0, localTrees } };
+  }
+  if (!fit) return null;
   const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin);
   const trees = Math.max(fit.trees, local.trees);
-  if (!mainSets && !brebaSets) {
-    return { probability: 0, low: 0, high: 0, enoughEvidence: true, trees, basis: { rule: 'no-crop', modelProbability: 0, localTrees: local.trees } };
-  }
   const x = seasonMargin(ctx.localDays, ctx.form, variety, ctx.headStartDays) ?? fit.meanMargin;
   const eta = fit.coef[0] + fit.coef[1] * x;
   const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
@@ -301,9 +304,9 @@ export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: read
 export function chanceMethod(bandwidthKm: number): string {
   return (
     'Chance of an edible crop in a typical season here, grown this way: a logistic model of each variety on the season ' +
-    'margin (the typical frost-free days plus the growing form’s head start, minus the days the variety needs), ' +
+    'margin (the typical frost-free days plus the head start of the growing form, minus the days the variety needs), ' +
     'learned from all its tree-seasons and pulled toward its ripening class when they are few; then adjusted by the ' +
-    `variety’s trees nearby (distance kernel, h = ${Math.round(bandwidthKm)} km) against what the model expected for ` +
+    `variety's trees nearby (distance kernel, h = ${Math.round(bandwidthKm)} km) against what the model expected for ` +
     'them. Only crops that can set fruit without the fig wasp (where it is absent) count, each once. The range is ' +
     `an ${Math.round(INTERVAL * 100)} % interval. A variety with fewer than ${MIN_TREES_FOR_VERDICT} trees has too little evidence for a verdict and is ` +
     'ranked after the others.'

@@ -7,7 +7,8 @@ import type { ChanceBasis } from './chance-model';
  * grown this way (chance-model.ts). Varieties with enough evidence come first, by chance; then the
  * varieties with too little evidence (fewer than MIN_TREES_FOR_VERDICT trees), by chance, so one or
  * two lucky trees never lift a variety above well-evidenced ones; then any without a chance (the
- * model has not seen them yet), by adjusted share. Ties go by name (code-point order, so the result
+ * model has not seen them yet), by adjusted share (0 when no crop can set here without the wasp);
+ * last, the varieties none of whose crops can set fruit here without the wasp (a rule, not a score). Ties go by name (code-point order, so the result
  * never depends on the machine's locale), then by id: the ranking is the same for any input order.
  */
 export type ChanceWithBasis = Chance & { basis: ChanceBasis };
@@ -20,12 +21,16 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 export const treesWord = (n: number) => `${n} ${n === 1 ? 'tree' : 'trees'}`;
 
 function group(item: RankInput): number {
+  if (item.chance?.basis.rule === 'no-crop') return 3;
   if (!item.chance) return 2;
   return item.chance.enoughEvidence ? 0 : 1;
 }
 
 function sortValue(item: RankInput): number {
-  return item.chance ? item.chance.probability : (item.adjustedShare ?? item.all.share ?? -1);
+  if (item.chance) return item.chance.probability;
+  // Without a chance, pollination is still a rule: no crop that can set here, nothing to rank on.
+  if (item.pollination.main.fruitExpected === 'no' && item.pollination.breba.fruitExpected === 'no') return 0;
+  return item.adjustedShare ?? item.all.share ?? -1;
 }
 
 function reasonFor(item: RankInput): string {
@@ -40,7 +45,7 @@ function reasonFor(item: RankInput): string {
   } else if (!c.enoughEvidence) {
     parts.push(`Too little evidence (${treesWord(c.trees)}): about ${pct(c.probability)} by the model, no verdict; ${localWords}`);
   } else {
-    parts.push(`About ${pct(c.probability)} chance of an edible crop in a typical season here (${pct(c.low)}–${pct(c.high)}), from ${treesWord(c.trees)}, ${localWords}`);
+    parts.push(`About ${pct(c.probability)} chance of an edible crop in a typical season here (${pct(c.low)} to ${pct(c.high)}), from ${treesWord(c.trees)}, ${localWords}`);
   }
   if (c?.basis.rule === 'breba-only') parts.push('only the breba crop counts here: the main crop needs the fig wasp');
   else if (item.pollination.main.fruitExpected === 'uncertain') parts.push('fig type unknown, pollination need uncertain');

@@ -41,7 +41,7 @@ describe('rankVarieties', { timeout: 30_000 }, () => {
     const ranked = rankVarieties([item(1, 'Fictional Low', 'common', 0.3), item(2, 'Fictional High', 'common', 0.8), item(3, 'Fictional Mid', 'common', 0.5)]);
     expect(ranked.map((v) => v.name)).toEqual(['Fictional High', 'Fictional Mid', 'Fictional Low']);
     expect(ranked.map((v) => v.rank)).toEqual([1, 2, 3]);
-    expect(ranked[0].reason).toMatch(/^About 80 % chance of an edible crop in a typical season here \(40 %–90 %\), from 12 trees, 10 trees nearby/);
+    expect(ranked[0].reason).toMatch(/^About 80 % chance of an edible crop in a typical season here \(40 % to 90 %\), from 12 trees, 10 trees nearby/);
     for (const v of ranked) expect(varietyEvidenceSchema.parse(roundedForTheWire(v))).toEqual(roundedForTheWire(v));
   });
 

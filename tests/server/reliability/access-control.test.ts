@@ -148,6 +148,7 @@ const CASES: Case[] = [
   { route: 'GET /api/atlas/pins', expected: everyone(200), call: () => get('/api/atlas/pins?bbox=-75,41,-72,44&zoom=9') },
   { route: 'GET /api/atlas/pins/cell', expected: everyone(200), call: () => get(`/api/atlas/pins/cell?${cell()}`) },
   { route: 'GET /api/places', expected: everyone(200), call: () => get('/api/places?q=Albany') },
+  { route: 'GET /api/accuracy', expected: everyone(200), call: () => get('/api/accuracy') },
   { route: 'GET /api/moderation/queue', expected: editors(200), call: () => get('/api/moderation/queue') },
   { route: 'GET /api/moderation/summary', expected: editors(200), call: () => get('/api/moderation/summary') },
   { route: 'POST /api/moderation/reports/:id/reviewed', expected: editors(204), call: async (w) => ({ method: 'post', path: `/api/moderation/reports/${await w.report()}/reviewed` }) },
