@@ -58,9 +58,13 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
         {shortOnly && days50 !== null && <ShortSeasonList seasonDays={days50} form={query.form} />}
         <VarietyRanking near={near} onlyIds={onlyIds} />
         <MethodNote method={<>How the list is ranked: {near.method}</>}>
-          Varieties whose nearby trees ripened more often rank higher; a variety known from only a few trees counts for less than one seen on many, and one that needs the fig wasp
-          where it is not recorded, or a longer season than this place gives, moves down. In each bar the tick is the share of trees that ripened, the green band the range it
-          likely lies in (90 %), and the dot the share after weighting.
+          Varieties are ranked by the chance of an edible crop in a typical season here, grown this way: learned from every tree of the variety and the length of their
+          seasons, then adjusted by the trees nearby. A variety known from fewer than five trees shows “too little evidence” and comes after the others; one that needs the fig
+          wasp where it is not recorded comes last. In each bar the tick is the share of trees that ripened, the green band the range it likely lies in (90 %), and the dot the
+          share after weighting.{' '}
+          <Link to="/accuracy" className="font-medium text-fig-600 underline">
+            How good are these odds?
+          </Link>
         </MethodNote>
       </section>
 
