@@ -72,7 +72,7 @@ export function AccuracyView() {
         <ReliabilityChart bins={data.bins} />
         <p className="text-xs text-ink/70">
           Each dot is one tenth of the chances given (its area follows the number of tree-seasons); on the dashed diagonal the chance means exactly what it says.
-          {checked.length > 0 && ` In the ${checked.length} tenths with 30 or more tree-seasons the chance is off by at most ${Math.round(worst * 100)} points.`}
+          {checked.length > 0 && ` In ${checked.length === 1 ? 'the one tenth' : `the ${checked.length} tenths`} with 30 or more tree-seasons the chance is off by at most ${Math.round(worst * 100)} points.`}
         </p>
         <div className="mt-2 overflow-x-auto">
           <table className="w-full text-right text-xs tabular-nums">
