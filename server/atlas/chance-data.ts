@@ -3,7 +3,7 @@ import { booleanPointInPolygon, point } from '@turf/turf';
 import type { GrowingForm } from '../../shared/domain/codes';
 import { GROWING_FORMS } from '../../shared/domain/codes';
 import type { ModelVariety, TreeRecord } from '../../shared/domain/chance-model';
-import { pollinationCheck } from '../../shared/domain/pollination';
+import { pollinationChecks } from '../../shared/domain/pollination';
 import { estimateSeason } from '../../shared/domain/season-estimate';
 import type { WaspAreaGeometry } from '../../shared/schemas/wasp-areas';
 import { type StationSnapshot, stationSeasonsInBoxes } from '../stations/station-snapshot';
@@ -20,16 +20,23 @@ import { type StationSnapshot, stationSeasonsInBoxes } from '../stations/station
 /** Radius of the stations that give a cell's typical season (the near answer's default radius). */
 export const CELL_SEASON_RADIUS_KM = 100;
 
-type ReportTuple = [treeId: number, userId: number, varietyId: number, form: string, lat: number, lon: number, season: number, crop: 'breba' | 'main', outcome: string, isDemo: number, frostDays: number | null];
+type ReportTuple = [treeId: number, userId: number, varietyId: number, form: string, lat: number, lon: number, season: number, crop: 'breba' | 'main', outcome: string, isDemo: number];
 
 const REPORTS_SQL = `
-  SELECT r.tree_id, r.user_id, r.variety_id, r.form, r.grid_lat, r.grid_lon, r.season, r.crop, r.outcome, u.is_demo,
-         CAST(julianday(r.fall_frost_date) - julianday(r.spring_frost_date) AS INTEGER)
+  SELECT r.tree_id, r.user_id, r.variety_id, r.form, r.grid_lat, r.grid_lon, r.season, r.crop, r.outcome, u.is_demo
     FROM reports r
     JOIN varieties v ON v.id = r.variety_id AND v.status = 'accepted'
     JOIN users u ON u.id = r.user_id
    WHERE r.status = 'published'
    ORDER BY r.tree_id, r.variety_id, r.form, r.grid_lat, r.grid_lon, r.season`;
+
+/** Growers' own frost-free seasons per cell, one per grower and season (as the near answer counts them). */
+const CELL_FROST_SQL = `
+  SELECT r.grid_lat, r.grid_lon, r.user_id, r.season, max(CAST(julianday(r.fall_frost_date) - julianday(r.spring_frost_date) AS INTEGER))
+    FROM reports r
+    JOIN varieties v ON v.id = r.variety_id AND v.status = 'accepted'
+   WHERE r.status = 'published' AND r.spring_frost_date IS NOT NULL AND r.fall_frost_date IS NOT NULL
+   GROUP BY r.grid_lat, r.grid_lon, r.user_id, r.season`;
 
 export function readModelVarieties(sqlite: Database.Database): Map<number, ModelVariety> {
   const rows = sqlite
@@ -52,17 +59,19 @@ export type ModelInputs = { records: TreeRecord[]; varieties: Map<number, ModelV
 
 /** Reads the tree records (see the module comment) in one read transaction. */
 export function readModelInputs(sqlite: Database.Database, stations: StationSnapshot): ModelInputs {
-  const read = sqlite.transaction(() => ({ varieties: readModelVarieties(sqlite), rows: sqlite.prepare(REPORTS_SQL).raw().all() as ReportTuple[], wasp: waspLookup(sqlite) }));
-  const { varieties, rows, wasp } = read.deferred();
-  // Growers' own frost-free seasons at each cell, one per grower and season (as the near answer counts them).
-  const cellFrost = new Map<string, Map<number, number>>();
-  for (const row of rows) {
-    const days = row[10];
+  return sqlite.transaction(() => readInTransaction(sqlite, stations)).deferred();
+}
+
+function readInTransaction(sqlite: Database.Database, stations: StationSnapshot): ModelInputs {
+  const varieties = readModelVarieties(sqlite);
+  const wasp = waspLookup(sqlite);
+  const cellFrost = new Map<string, number[]>();
+  for (const [lat, lon, , , days] of sqlite.prepare(CELL_FROST_SQL).raw().iterate() as Iterable<[number, number, number, number, number | null]>) {
     if (days === null || !(days > 0 && days <= 366)) continue;
-    const key = `${row[4]},${row[5]}`;
+    const key = `${lat},${lon}`;
     let seasons = cellFrost.get(key);
-    if (!seasons) cellFrost.set(key, (seasons = new Map()));
-    seasons.set(row[1] * 100_000 + row[6], days);
+    if (!seasons) cellFrost.set(key, (seasons = []));
+    seasons.push(days);
   }
   const cells = new Map<string, { days: number | null; wasp: boolean }>();
   const cellAt = (lat: number, lon: number) => {
@@ -70,7 +79,7 @@ export function readModelInputs(sqlite: Database.Database, stations: StationSnap
     let cell = cells.get(key);
     if (!cell) {
       const here = { lat, lon };
-      const reportFrostSeasons = [...(cellFrost.get(key)?.values() ?? [])].map((seasonDays) => ({ distanceKm: 0, seasonDays }));
+      const reportFrostSeasons = (cellFrost.get(key) ?? []).map((seasonDays) => ({ distanceKm: 0, seasonDays }));
       const season = estimateSeason({ point: here, stations: stationSeasonsInBoxes(stations, here, CELL_SEASON_RADIUS_KM), reportFrostSeasons, radiusKm: CELL_SEASON_RADIUS_KM });
       cells.set(key, (cell = { days: season.days50, wasp: wasp(lat, lon) }));
     }
@@ -94,11 +103,13 @@ export function readModelInputs(sqlite: Database.Database, stations: StationSnap
     seasonEligible = false;
     seasonEdible = false;
   };
-  for (const [treeId, userId, varietyId, form, lat, lon, season, crop, outcome, isDemo] of rows) {
+  let cell = { days: null as number | null, wasp: false };
+  // Streamed, so a million reports never sit in memory at once.
+  for (const [treeId, userId, varietyId, form, lat, lon, season, crop, outcome, isDemo] of sqlite.prepare(REPORTS_SQL).raw().iterate() as Iterable<ReportTuple>) {
     const variety = varieties.get(varietyId)!;
     if (!current || current.treeId !== treeId || current.varietyId !== varietyId || current.form !== form || current.lat !== lat || current.lon !== lon) {
       closeSeason();
-      const cell = cellAt(lat, lon);
+      cell = cellAt(lat, lon);
       current = { treeId, userId, varietyId, form: (GROWING_FORMS.includes(form as GrowingForm) ? form : 'ground') as GrowingForm, lat, lon, localDays: cell.days, seasons: 0, edible: 0, reports: 0, ripened: 0 };
       records.push(current);
       lastSeason = NaN;
@@ -108,7 +119,7 @@ export function readModelInputs(sqlite: Database.Database, stations: StationSnap
     current.reports++;
     if (outcome === 'ripened') current.ripened++;
     // Pollination as a rule, per crop: a crop that cannot set fruit at this cell is not evidence.
-    if (pollinationCheck(variety.figType, crop, cellAt(lat, lon).wasp).fruitExpected !== 'no') {
+    if (pollinationChecks(variety.figType, cell.wasp)[crop].fruitExpected !== 'no') {
       seasonEligible = true;
       if (outcome === 'ripened') seasonEdible = true;
     }
