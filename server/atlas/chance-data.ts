@@ -28,7 +28,7 @@ const REPORTS_SQL = `
     JOIN varieties v ON v.id = r.variety_id AND v.status = 'accepted'
     JOIN users u ON u.id = r.user_id
    WHERE r.status = 'published'
-   ORDER BY r.tree_id, r.variety_id, r.form, r.grid_lat, r.grid_lon, r.season`;
+   ORDER BY r.tree_id`;
 
 /** Growers' own frost-free seasons per cell, one per grower and season (as the near answer counts them). */
 const CELL_FROST_SQL = `
@@ -104,8 +104,7 @@ function readInTransaction(sqlite: Database.Database, stations: StationSnapshot)
     seasonEdible = false;
   };
   let cell = { days: null as number | null, wasp: false };
-  // Streamed, so a million reports never sit in memory at once.
-  for (const [treeId, userId, varietyId, form, lat, lon, season, crop, outcome, isDemo] of sqlite.prepare(REPORTS_SQL).raw().iterate() as Iterable<ReportTuple>) {
+  const consume = ([treeId, userId, varietyId, form, lat, lon, season, crop, outcome, isDemo]: ReportTuple) => {
     const variety = varieties.get(varietyId)!;
     if (!current || current.treeId !== treeId || current.varietyId !== varietyId || current.form !== form || current.lat !== lat || current.lon !== lon) {
       closeSeason();
@@ -123,7 +122,20 @@ function readInTransaction(sqlite: Database.Database, stations: StationSnapshot)
       seasonEligible = true;
       if (outcome === 'ripened') seasonEdible = true;
     }
+  };
+  // Streamed in tree order (the tree index: no sort of a million rows), each tree's few reports
+  // ordered here by variety, form, cell and season; so a million reports never sit in memory at once.
+  let tree: ReportTuple[] = [];
+  const flushTree = () => {
+    tree.sort((a, b) => a[2] - b[2] || (a[3] < b[3] ? -1 : a[3] > b[3] ? 1 : 0) || a[4] - b[4] || a[5] - b[5] || a[6] - b[6]);
+    for (const row of tree) consume(row);
+    tree = [];
+  };
+  for (const row of sqlite.prepare(REPORTS_SQL).raw().iterate() as Iterable<ReportTuple>) {
+    if (tree.length > 0 && tree[0][0] !== row[0]) flushTree();
+    tree.push(row);
   }
+  flushTree();
   closeSeason();
   return { records, varieties, demoSeasons, seasons };
 }

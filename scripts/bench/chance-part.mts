@@ -1,0 +1,53 @@
+// Temporary: time the chance's share of a near request on the kept bench database.
+import { performance } from 'node:perf_hooks';
+import { createDb } from '../../server/db/client';
+import { readStationSnapshot } from '../../server/stations/station-snapshot';
+import { computeChanceFit, chanceFitFrom, recordsOf } from '../../server/atlas/chance-fit';
+import { readTreeSnapshot, treeSnapshotFrom, treesWithin } from '../../server/atlas/tree-snapshot';
+import { acceptedVarieties } from '../../server/atlas/atlas.repo';
+import { chanceAt } from '../../shared/domain/chance-model';
+import { computeModelAccuracy } from '../../server/accuracy/accuracy.compute';
+
+const db = createDb('/tmp/h16/bench.db');
+let t = performance.now();
+const snapshot = treeSnapshotFrom(readTreeSnapshot(db.sqlite).data);
+console.log('snapshot', ((performance.now() - t) / 1000).toFixed(1), 's');
+t = performance.now();
+const fit = chanceFitFrom(computeChanceFit(db.sqlite, readStationSnapshot(db), 1).data);
+console.log('fit', ((performance.now() - t) / 1000).toFixed(1), 's', fit.columns.count, 'records', fit.model.varieties.size, 'varieties', JSON.stringify(fit.model.classes));
+const catalogue = acceptedVarieties(db);
+const centres = db.sqlite.prepare('SELECT grid_lat AS lat, grid_lon AS lon FROM reports WHERE id % 5000 = 0').all() as { lat: number; lon: number }[];
+for (const radius of [50, 200]) {
+  const times: number[] = [];
+  const whole: number[] = [];
+  for (let k = 0; k < 300; k++) {
+    const point = centres[k % centres.length];
+    const t0 = performance.now();
+    const trees = treesWithin(snapshot, point, radius);
+    const byVariety = new Map<number, number[]>();
+    for (const tr of trees) {
+      let l = byVariety.get(tr.varietyId);
+      if (!l) byVariety.set(tr.varietyId, (l = []));
+      l.push(tr.treeId);
+    }
+    const t1 = performance.now();
+    for (const [id, ids] of byVariety) {
+      const v = catalogue.get(id);
+      if (!v) continue;
+      chanceAt(fit.model, v, recordsOf(fit, new Set(ids), v), { point, localDays: 200, form: 'ground', waspEstablished: false, bandwidthKm: radius / 2 });
+    }
+    const t2 = performance.now();
+    if (k >= 20) {
+      times.push(t2 - t1);
+      whole.push(t2 - t0);
+    }
+  }
+  times.sort((a, b) => a - b);
+  whole.sort((a, b) => a - b);
+  console.log(`${radius} km: chance part median ${times[times.length >> 1].toFixed(3)} ms, p95 ${times[Math.floor(times.length * 0.95)].toFixed(3)} ms (rows + chance ${whole[whole.length >> 1].toFixed(3)} ms)`);
+}
+if (process.argv[2] === 'cv') {
+  t = performance.now();
+  const acc = computeModelAccuracy(db.sqlite, readStationSnapshot(db), new Date().toISOString());
+  console.log('LOGO', ((performance.now() - t) / 1000).toFixed(1), 's', JSON.stringify({ ...acc, method: undefined }));
+}
