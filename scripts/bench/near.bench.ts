@@ -162,7 +162,7 @@ async function main() {
     t0 = performance.now();
     await fetchNear(port, centres[0]!, 50);
     const rss = process.memoryUsage();
-    console.log(`First call (reads the tree snapshot in a worker thread): ${((performance.now() - t0) / 1000).toFixed(1)} s; process resident memory afterwards: ${Math.round(rss.rss / 1e6)} MB (the database file is memory-mapped)`);
+    console.log(`First call (reads the tree snapshot and fits the chance model, each in a worker thread): ${((performance.now() - t0) / 1000).toFixed(1)} s; process resident memory afterwards: ${Math.round(rss.rss / 1e6)} MB (the database file is memory-mapped)`);
 
     const floorStatement = db.sqlite.prepare(
       `${AGGREGATE} FROM reports_rtree t JOIN reports r ON r.id = t.id JOIN varieties v ON v.id = r.variety_id

@@ -3,6 +3,7 @@ import { toPublicPoint } from '../../shared/domain/public-grid';
 import { modelAccuracySchema } from '../../shared/schemas/accuracy';
 import { nearResponseSchema } from '../../shared/schemas/atlas';
 import { runModelAccuracy } from '../../server/accuracy/accuracy-job';
+import { createChanceFitCache } from '../../server/atlas/chance-fit-cache';
 import { reports, stations, stationSummaries, trees, varieties } from '../../server/db/schema';
 import { insertUser } from '../../server/users/users.repo';
 import { createTestContext } from '../helpers/test-app';
@@ -80,6 +81,24 @@ describe('the chance on GET /api/atlas/near', () => {
     expect(JSON.stringify(upland)).not.toMatch(/Proposed/);
     for (const v of upland.varieties) expect(v.reason).not.toMatch(/\d\.\d+ trees?/);
   });
+});
+
+describe('the chance fit cache', () => {
+  it('fits the same model in the worker thread a large atlas uses as in the request thread', async () => {
+    const here = createChanceFitCache(ctx.db, { worker: false });
+    const there = createChanceFitCache(ctx.db, { worker: true });
+    try {
+      const [a, b] = [await here.get(), await there.get()];
+      expect(b.version).toBe(a.version);
+      expect([...b.model.varieties]).toEqual([...a.model.varieties]);
+      expect(b.columns.count).toBe(49);
+      // Positions are the reports' public grid cells.
+      const cells = new Set(ctx.db.sqlite.prepare('SELECT grid_lat FROM reports').pluck().all() as number[]);
+      for (const lat of b.columns.lat) expect(cells.has(lat)).toBe(true);
+    } finally {
+      await there.close();
+    }
+  }, 60_000);
 });
 
 describe('GET /api/accuracy and the model-accuracy job', () => {
