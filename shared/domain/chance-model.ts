@@ -31,6 +31,12 @@ import { FORM_HEAD_START_DAYS, RIPENING_CLASS_NEED_DAYS } from './season-fit';
  */
 
 export const MARGIN_SCALE_DAYS = 30;
+/**
+ * Margins are capped at ± this many days: past two months to spare a longer season adds nothing
+ * (what still fails there fails for other reasons), and the logistic curve must not read certainty
+ * into it. Chosen on the leave-one-grower-out scores of the demo (ADJUSTABLE ASSUMPTION).
+ */
+export const MARGIN_CAP_DAYS = 60;
 /** Days a variety is assumed to need when neither the catalogue nor its class says (a mid fig). */
 export const DEFAULT_NEED_DAYS = RIPENING_CLASS_NEED_DAYS.mid;
 /**
@@ -88,7 +94,8 @@ export function neededDays(v: ModelVariety): number {
 /** The season margin in months; null when the local season is unknown. */
 export function seasonMargin(localDays: number | null, form: GrowingForm, v: ModelVariety, headStartDays?: number): number | null {
   if (localDays === null) return null;
-  return (localDays + (headStartDays ?? FORM_HEAD_START_DAYS[form]) - neededDays(v)) / MARGIN_SCALE_DAYS;
+  const days = localDays + (headStartDays ?? FORM_HEAD_START_DAYS[form]) - neededDays(v);
+  return Math.max(-MARGIN_CAP_DAYS, Math.min(MARGIN_CAP_DAYS, days)) / MARGIN_SCALE_DAYS;
 }
 
 export type VarietyCoefficients = {
@@ -102,6 +109,11 @@ export type VarietyCoefficients = {
 };
 
 export type ChanceModel = {
+  /**
+   * Variance (logit scale) of a tree's own departure from its variety's curve: the grower, the spot,
+   * the care. A new grower's tree is predicted over it (see marginalFactor), not as an average tree.
+   */
+  treeVariance: number;
   classes: Partial<Record<ClassKey, { coef: [number, number]; cov: LogisticFit['cov'] }>>;
   varieties: Map<number, VarietyCoefficients>;
 };
@@ -186,7 +198,38 @@ export function fitChanceModel(records: readonly TreeRecord[], varieties: Map<nu
     const t = tally.get(id)!;
     out.set(id, { ...fit, trees: t.trees.size, seasons: t.seasons, meanMargin: t.nX > 0 ? t.sumX / t.nX : 0 });
   }
-  return { classes, varieties: out };
+  return { classes, varieties: out, treeVariance: treeVariance(records, varieties, out) };
+}
+
+/**
+ * Moment estimate of the tree-level variance s² on the logit scale: a tree's n seasons share its
+ * effect, so Var(edible) ≈ n·e(1 − e) + n(n − 1)·(e(1 − e))²·s² around the curve's e. Summed over
+ * trees with two or more seasons: s² = Σ[(y − n·e)² − n·e(1 − e)] / Σ[n(n − 1)(e(1 − e))²], at least 0
+ * (the usual overdispersion estimate of a beta-binomial / logit-normal model).
+ */
+export function treeVariance(records: readonly TreeRecord[], varieties: Map<number, ModelVariety>, fits: Map<number, { coef: [number, number]; meanMargin: number }>): number {
+  let num = 0;
+  let den = 0;
+  for (const r of records) {
+    const v = varieties.get(r.varietyId);
+    const fit = v && fits.get(v.id);
+    if (!v || !fit || r.seasons < 2) continue;
+    const x = seasonMargin(r.localDays, r.form, v) ?? fit.meanMargin;
+    const e = sigmoid(fit.coef[0] + fit.coef[1] * x);
+    const q = e * (1 - e);
+    num += (r.edible - r.seasons * e) ** 2 - r.seasons * q;
+    den += r.seasons * (r.seasons - 1) * q * q;
+  }
+  return den > 0 ? Math.max(0, num / den) : 0;
+}
+
+/**
+ * The factor on the logit that turns a tree-level curve into the chance for a tree not seen yet:
+ * E[σ(η + u)], u ~ N(0, s²), ≈ σ(η / √(1 + π s²/8)) (the probit approximation of the logistic-normal
+ * integral; MacKay 1992, "The evidence framework applied to classification networks").
+ */
+export function marginalFactor(treeVarianceLogit: number): number {
+  return 1 / Math.sqrt(1 + (Math.PI * treeVarianceLogit) / 8);
 }
 
 function binsFor<K>(map: Map<K, Bins>, key: K): Bins {
@@ -210,6 +253,7 @@ export function localEvidence(
   point: LatLon,
   bandwidthKm: number,
   fallbackMargin: number,
+  factor = 1,
 ): LocalEvidence {
   let observed = 0;
   let expected = 0;
@@ -225,7 +269,7 @@ export function localEvidence(
     const w = Math.exp(-(d * d) / (2 * bandwidthKm * bandwidthKm));
     const x = seasonMargin(t.localDays, t.form, variety) ?? fallbackMargin;
     observed += (w * t.edible) / t.seasons;
-    expected += w * sigmoid(coef[0] + coef[1] * x);
+    expected += w * sigmoid(factor * (coef[0] + coef[1] * x));
     weight += w;
     if (!ids.has(t.treeId)) {
       ids.add(t.treeId);
@@ -283,11 +327,12 @@ export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: read
     return { probability: 0, low: 0, high: 0, enoughEvidence: true, trees, basis: { rule: 'no-crop', modelProbability: 0, localTrees } };
   }
   if (!fit) return null;
-  const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin);
+  const k = marginalFactor(model.treeVariance);
+  const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin, k);
   const trees = Math.max(fit.trees, local.trees);
   const x = seasonMargin(ctx.localDays, ctx.form, variety, ctx.headStartDays) ?? fit.meanMargin;
-  const eta = fit.coef[0] + fit.coef[1] * x;
-  const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
+  const eta = k * (fit.coef[0] + fit.coef[1] * x);
+  const etaVariance = k * k * (fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1]);
   const p0 = sigmoid(eta);
   const { probability, low, high } = updateWithLocal(p0, etaVariance, local);
   return {
@@ -369,6 +414,9 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
   for (const list of byVariety.values()) list.sort((a, b) => a.lat - b.lat);
   const latWindow = VALIDATION_RADIUS_KM / 110.5;
 
+  // The tree-level variance is one scalar of the whole atlas, estimated once on all of it (like the
+  // prior spreads, a setting of the model rather than a fact about any one grower).
+  const k = marginalFactor(fitChanceModel(usable, varieties).treeVariance);
   const out: HeldOutPrediction[] = [];
   for (const [grower, own] of byGrower) {
     const touchedClasses = new Map<ClassKey, Bins>();
@@ -433,9 +481,9 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
       const fit = fits.get(v.id)!;
       const meanMargin = all.nX - mine.nX > 0 ? (all.sumX - mine.sumX) / (all.nX - mine.nX) : 0;
       const x = seasonMargin(r.localDays, r.form, v) ?? meanMargin;
-      const eta = fit.coef[0] + fit.coef[1] * x;
-      const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
-      const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin);
+      const eta = k * (fit.coef[0] + fit.coef[1] * x);
+      const etaVariance = k * k * (fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1]);
+      const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin, k);
       const { probability } = updateWithLocal(sigmoid(eta), etaVariance, local);
       out.push({ chance: probability, overallRate, adjustedShare: adjusted, edible: r.edible, seasons: r.seasons });
     }
