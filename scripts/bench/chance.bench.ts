@@ -1,4 +1,9 @@
-// Temporary: time the chance's share of a near request on the kept bench database.
+// Bench of the chance model (shared/domain/chance-model.ts) on the near bench's million-report
+// database, kept with NEAR_BENCH_DB=/some/file.db (run `npm run bench -- near` first): how long a fit
+// takes, the chance's own share of a near request at 50 and 200 km (the records of the local trees
+// found and the chance evaluated for every variety), and with CHANCE_BENCH_CV=1 the leave-one-grower-
+// out cross-validation the model-accuracy job runs (minutes). Skipped without NEAR_BENCH_DB.
+import fs from 'node:fs';
 import { performance } from 'node:perf_hooks';
 import { createDb } from '../../server/db/client';
 import { readStationSnapshot } from '../../server/stations/station-snapshot';
@@ -8,13 +13,18 @@ import { acceptedVarieties } from '../../server/atlas/atlas.repo';
 import { chanceAt } from '../../shared/domain/chance-model';
 import { computeModelAccuracy } from '../../server/accuracy/accuracy.compute';
 
-const db = createDb('/tmp/h16/bench.db');
+const file = process.env.NEAR_BENCH_DB;
+if (!file || !fs.existsSync(file)) {
+  console.log('Skipped: set NEAR_BENCH_DB to the database `npm run bench -- near` kept.');
+  process.exit(0);
+}
+const db = createDb(file);
 let t = performance.now();
 const snapshot = treeSnapshotFrom(readTreeSnapshot(db.sqlite).data);
-console.log('snapshot', ((performance.now() - t) / 1000).toFixed(1), 's');
+console.log(`Tree snapshot: ${((performance.now() - t) / 1000).toFixed(1)} s`);
 t = performance.now();
 const fit = chanceFitFrom(computeChanceFit(db.sqlite, readStationSnapshot(db), 1).data);
-console.log('fit', ((performance.now() - t) / 1000).toFixed(1), 's', fit.columns.count, 'records', fit.model.varieties.size, 'varieties', JSON.stringify(fit.model.classes));
+console.log(`Fit: ${((performance.now() - t) / 1000).toFixed(1)} s for ${fit.columns.count.toLocaleString()} tree records of ${fit.model.varieties.size} varieties; tree-to-tree variance ${fit.model.treeVariance.toFixed(3)}; classes ${JSON.stringify(Object.fromEntries(Object.entries(fit.model.classes).map(([k, c]) => [k, c!.coef.map((x) => +x.toFixed(3))])))}`);
 const catalogue = acceptedVarieties(db);
 const centres = db.sqlite.prepare('SELECT grid_lat AS lat, grid_lon AS lon FROM reports WHERE id % 5000 = 0').all() as { lat: number; lon: number }[];
 for (const radius of [50, 200]) {
@@ -44,10 +54,12 @@ for (const radius of [50, 200]) {
   }
   times.sort((a, b) => a - b);
   whole.sort((a, b) => a - b);
-  console.log(`${radius} km: chance part median ${times[times.length >> 1].toFixed(3)} ms, p95 ${times[Math.floor(times.length * 0.95)].toFixed(3)} ms (rows + chance ${whole[whole.length >> 1].toFixed(3)} ms)`);
+  console.log(`${radius} km: the chance's part median ${times[times.length >> 1].toFixed(3)} ms, p95 ${times[Math.floor(times.length * 0.95)].toFixed(3)} ms (rows + chance ${whole[whole.length >> 1].toFixed(3)} ms)`);
 }
-if (process.argv[2] === 'cv') {
+if (process.env.CHANCE_BENCH_CV === '1') {
   t = performance.now();
   const acc = computeModelAccuracy(db.sqlite, readStationSnapshot(db), new Date().toISOString());
-  console.log('LOGO', ((performance.now() - t) / 1000).toFixed(1), 's', JSON.stringify({ ...acc, method: undefined }));
+  console.log(`Leave-one-grower-out: ${((performance.now() - t) / 1000).toFixed(1)} s`, JSON.stringify({ ...acc, method: undefined }));
 }
+const [load1] = (await import('node:os')).loadavg();
+console.log(`Machine load average ${load1!.toFixed(1)} at the end of the run.`);
