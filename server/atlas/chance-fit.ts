@@ -29,6 +29,11 @@ export interface RecordColumns {
   edible: Int32Array;
   reports: Int32Array;
   ripened: Int32Array;
+  /**
+   * Row of each tree id's first record, by tree id (−1: none), when tree ids are dense enough (SQLite's
+   * row ids usually are) for a direct table; empty otherwise, and rows are found by binary search.
+   */
+  firstRowOfTree: Int32Array;
 }
 
 export interface ChanceFitData {
@@ -63,7 +68,13 @@ export function computeChanceFit(sqlite: Database.Database, stations: StationSna
     edible: new Int32Array(n),
     reports: new Int32Array(n),
     ripened: new Int32Array(n),
+    firstRowOfTree: new Int32Array(0),
   };
+  const maxTreeId = n > 0 ? sorted[n - 1]!.treeId : 0;
+  if (maxTreeId <= 4 * n + 1024) {
+    c.firstRowOfTree = new Int32Array(maxTreeId + 1).fill(-1);
+    for (let i = n - 1; i >= 0; i--) c.firstRowOfTree[sorted[i]!.treeId] = i;
+  }
   sorted.forEach((r, i) => {
     c.treeId[i] = r.treeId;
     c.userId[i] = r.userId;
@@ -89,13 +100,19 @@ export function chanceFitFrom(data: ChanceFitData): ChanceFit {
 export function recordsOf(fit: ChanceFit, treeIds: Iterable<number>, variety: Pick<ModelVariety, 'id'>): TreeRecord[] {
   const c = fit.columns;
   const out: TreeRecord[] = [];
+  const direct = c.firstRowOfTree.length > 0;
   for (const treeId of treeIds) {
     let lo = 0;
-    let hi = c.count;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (c.treeId[mid]! < treeId) lo = mid + 1;
-      else hi = mid;
+    if (direct) {
+      lo = treeId < c.firstRowOfTree.length ? c.firstRowOfTree[treeId]! : -1;
+      if (lo < 0) continue;
+    } else {
+      let hi = c.count;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (c.treeId[mid]! < treeId) lo = mid + 1;
+        else hi = mid;
+      }
     }
     for (let i = lo; i < c.count && c.treeId[i] === treeId; i++) {
       if (c.varietyId[i] !== variety.id) continue;
