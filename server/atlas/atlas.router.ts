@@ -41,7 +41,7 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
   router.get('/atlas/near', async (req, res) => {
     const query = nearQuerySchema.parse(req.query);
     const point = { lat: query.lat, lon: query.lon };
-    const [snapshot, chanceFit] = await Promise.all([snapshots.get(), chanceFits.get()]);
+    const [snapshot, chanceFit] = await Promise.all([snapshots.get(), chanceFits.current()]);
     const trees = treesWithin(snapshot, point, query.radiusKm);
     const season = seasonAround(db, point, query.radiusKm, trees);
     const wasp = waspAt(db, query.lat, query.lon);
@@ -58,9 +58,9 @@ export function createAtlasRouter({ db }: { db: Db }): Router {
     for (const [id, localTrees] of byVariety) {
       const variety = catalogue.get(id);
       if (!variety) continue;
-      // The model's records of these trees: their public grid cells, never the exact places.
-      const nearby = recordsOf(chanceFit, new Set(localTrees.map((t) => t.treeId)), variety);
-      const chance = chanceAt(chanceFit.model, variety, nearby, chanceContext);
+      // The model's records of these trees: their public grid cells, never the exact places. No fit
+      // yet (a large atlas just started): the chance is null, "not computed yet".
+      const chance = chanceFit && chanceAt(chanceFit.model, variety, recordsOf(chanceFit, new Set(localTrees.map((t) => t.treeId)), variety), chanceContext);
       varieties.push({ variety, localTrees, overall: overall.get(id) ?? NO_OVERALL, chance });
     }
     const body: NearResponse = buildNearResponse({ point, radiusKm: query.radiusKm, form: query.form, season, wasp, varieties });

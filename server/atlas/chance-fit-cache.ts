@@ -39,8 +39,26 @@ export function createChanceFitCache(db: Db, options: RebuildingCacheSettings = 
     maxStaleMs: options.maxStaleMs ?? CHANCE_FIT_MAX_STALE_MS,
     now: options.now ?? Date.now,
   });
+  let fitted = false;
+  const get = async (): Promise<ChanceFit> => {
+    const fit = (await cache.get(null)).value;
+    fitted = true;
+    return fit;
+  };
   return {
-    get: async (): Promise<ChanceFit> => (await cache.get(null)).value,
+    get,
+    /**
+     * The fit, or null while a large atlas's first fit runs in the worker (seconds to a minute after
+     * a start): the near answer then says the chance is not computed yet rather than wait for it.
+     */
+    current: async (): Promise<ChanceFit | null> => {
+      if (fitted) return get();
+      // get() decides synchronously where it computes (offThread is settled when it returns).
+      const pending = get();
+      if (!cache.offThread()) return pending;
+      pending.catch((error: unknown) => console.error('Fitting the chance model failed:', error));
+      return Promise.race([pending, new Promise<null>((resolve) => setImmediate(() => resolve(null)))]);
+    },
     settled: cache.settled,
     close: cache.close,
   };

@@ -92,6 +92,12 @@ describe('the chance fit cache', () => {
       expect(b.version).toBe(a.version);
       expect([...b.model.varieties]).toEqual([...a.model.varieties]);
       expect(b.columns.count).toBe(49);
+      // A fresh cache working in the worker answers "not yet" at once instead of waiting for its first fit.
+      const fresh = createChanceFitCache(ctx.db, { worker: true });
+      expect(await fresh.current()).toBeNull();
+      await fresh.settled();
+      expect((await fresh.current())!.version).toBe(a.version);
+      await fresh.close();
       // Positions are the reports' public grid cells.
       const cells = new Set(ctx.db.sqlite.prepare('SELECT grid_lat FROM reports').pluck().all() as number[]);
       for (const lat of b.columns.lat) expect(cells.has(lat)).toBe(true);
