@@ -165,7 +165,7 @@ async function main() {
     console.log(`First call (reads the tree snapshot in a worker thread): ${((performance.now() - t0) / 1000).toFixed(1)} s; process resident memory afterwards: ${Math.round(rss.rss / 1e6)} MB (the database file is memory-mapped)`);
     // The chance model is fitted in another worker meanwhile; the answers carry it once it is ready.
     t0 = performance.now();
-    while (!(await fetchNear(port, centres[0]!, 50)).varieties.some((v) => v.chance)) await new Promise((resolve) => setTimeout(resolve, 500));
+    while (performance.now() - t0 < 600_000 && !(await fetchNear(port, centres[0]!, 200)).varieties.some((v) => v.chance)) await new Promise((resolve) => setTimeout(resolve, 500));
     console.log(`Chance model ready ${((performance.now() - t0) / 1000).toFixed(1)} s later (fitted in a worker thread)`);
 
     const floorStatement = db.sqlite.prepare(
