@@ -1,3 +1,4 @@
+import { createAccuracyRouter } from './accuracy/accuracy.router';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
@@ -126,6 +127,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/places', createPlacesRouter());
   api.use('/follows', createFollowsRouter({ db }));
   api.use('/account', createUnitsRouter({ db }));
+  api.use('/accuracy', createAccuracyRouter({ db }));
   api.use('/moderation', createModerationRouter({ db }));
   api.use('/audit', createAuditRouter({ db }));
   api.use('/support', createSupportRouter(support));

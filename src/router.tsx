@@ -1,6 +1,7 @@
 import { createBrowserRouter } from 'react-router';
 import { AppShell } from './components/app-shell';
 import AccountRoute from './routes/account';
+import AccuracyRoute from './routes/accuracy';
 import DevMailRoute from './routes/dev-mail';
 import EditorsRoute from './routes/editors';
 import ForgotPasswordRoute from './routes/forgot-password';
@@ -49,6 +50,7 @@ export const routes = [
       { path: 'here/compare', element: <HereCompareRoute /> },
       { path: 'varieties/:id', element: <VarietyRoute /> },
       { path: 'why-no-figs', element: <WhyNoFigsRoute /> },
+      { path: 'accuracy', element: <AccuracyRoute /> },
       { path: 'verify', element: <VerifyRoute /> },
       { path: 'forgot-password', element: <ForgotPasswordRoute /> },
       { path: 'reset-password', element: <ResetPasswordRoute /> },

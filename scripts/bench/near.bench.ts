@@ -176,6 +176,10 @@ async function main() {
     await fetchNear(port, centres[0]!, 50);
     const rss = process.memoryUsage();
     console.log(`First call (reads the tree snapshot in a worker thread): ${((performance.now() - t0) / 1000).toFixed(1)} s; process resident memory afterwards: ${Math.round(rss.rss / 1e6)} MB (the database file is memory-mapped)`);
+    // The chance model is fitted in another worker meanwhile; the answers carry it once it is ready.
+    t0 = performance.now();
+    while (performance.now() - t0 < 600_000 && !(await fetchNear(port, centres[0]!, 200)).varieties.some((v) => v.chance)) await new Promise((resolve) => setTimeout(resolve, 500));
+    console.log(`Chance model ready ${((performance.now() - t0) / 1000).toFixed(1)} s later (fitted in a worker thread)`);
 
     const floorStatement = db.sqlite.prepare(
       `${AGGREGATE} FROM reports_rtree t JOIN reports r ON r.id = t.id JOIN varieties v ON v.id = r.variety_id
@@ -260,10 +264,10 @@ async function main() {
   }
 }
 
-async function fetchNear(port: number, p: { lat: number; lon: number }, radius: number): Promise<{ totals: { trees: number } }> {
+async function fetchNear(port: number, p: { lat: number; lon: number }, radius: number): Promise<{ totals: { trees: number }; varieties: { chance: unknown }[] }> {
   const response = await fetch(`http://127.0.0.1:${port}/api/atlas/near?lat=${p.lat}&lon=${p.lon}&radiusKm=${radius}`);
   if (!response.ok) throw new Error(`near answered ${response.status}: ${await response.text()}`);
-  return (await response.json()) as { totals: { trees: number } };
+  return (await response.json()) as { totals: { trees: number }; varieties: { chance: unknown }[] };
 }
 
 function printTable(header: string[], rows: string[][]): void {

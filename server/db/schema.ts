@@ -541,3 +541,12 @@ export const devPaymentObjects = sqliteTable('dev_payment_objects', {
   data: text('data', { mode: 'json' }).notNull(),
   createdAt: createdAt(),
 });
+
+/** The chance model's leave-one-grower-out accuracy as last computed (one row, id 1; drizzle/0015_model-accuracy.sql). */
+export const modelAccuracy = sqliteTable('model_accuracy', {
+  id: integer('id').primaryKey(),
+  computedAt: text('computed_at').notNull(),
+  dataVersion: integer('data_version').notNull(),
+  /** The ModelAccuracy answer (shared/schemas/accuracy.ts) as JSON. */
+  body: text('body').notNull(),
+});

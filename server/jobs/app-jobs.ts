@@ -1,3 +1,4 @@
+import { ACCURACY_CHECK_EVERY_MS, runModelAccuracy } from '../accuracy/accuracy-job';
 import { runNearbyDigest } from '../email/digest';
 import { EDITOR_ALERT_EVERY_MS, runEditorAlerts, type AlertWatermark } from '../email/editor-alerts';
 import type { MailDeps } from '../email/mailer';
@@ -18,5 +19,14 @@ export function appJobs(deps: MailDeps): JobDefinition<any>[] {
       await runNearbyDigest(deps, now);
     },
   };
-  return [editorAlerts, nearbyDigest];
+  const modelAccuracy: JobDefinition = {
+    name: 'model-accuracy',
+    everyMs: ACCURACY_CHECK_EVERY_MS,
+    // Cross-validation of the chance, in a worker thread; only when reports changed (a large atlas: at most nightly).
+    leaseMs: 60 * 60_000,
+    run: async ({ now }) => {
+      await runModelAccuracy(deps.db, now);
+    },
+  };
+  return [editorAlerts, nearbyDigest, modelAccuracy];
 }

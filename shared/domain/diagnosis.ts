@@ -242,7 +242,7 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
   if (a.symptom === 'unripe') {
     const fit = local.seasonFit;
     const seasonWords = local.seasonDays50 !== null ? `about ${Math.round(local.seasonDays50)} frost-free days in a typical year` : null;
-    const needWords = local.neededDays !== null ? `; this variety needed about ${Math.round(local.neededDays)} days in reports elsewhere` : '';
+    const needWords = local.neededDays !== null ? `; this variety needed about ${Math.round(local.neededDays)} days in growers' reports` : '';
     let score = 1.5;
     if (local.limitedBy === 'heat') score = 0.5; // days enough; heat is the limit (below)
     else if (fit === 'unlikely') score = 4;

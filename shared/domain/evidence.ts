@@ -1,7 +1,8 @@
 import type { FigType, GrowingForm, RipeningClass } from './codes';
 import type { FitResponse, NearResponse, SeasonEstimate, Share, VarietyEvidence } from '../schemas/atlas';
 import { pollinationChecks } from './pollination';
-import { RANKING_METHOD, rankVarieties, type RankedVariety, type RankInput } from './ranking';
+import { chanceMethod } from './chance-model';
+import { rankVarieties, type ChanceWithBasis, type RankedVariety, type RankInput } from './ranking';
 import { type TreeEvidence, type VarietyOverall, adjustedShareMethod, tallyEvidence } from './ripening-stats';
 import { seasonFit } from './season-fit';
 
@@ -27,6 +28,8 @@ export type VarietyEvidenceInput = {
   /** This variety's tree rows within the radius, each with its distance from the point. */
   localTrees: TreeEvidence[];
   overall: VarietyOverall;
+  /** The chance model's answer for this variety here (chance-model.ts chanceAt); null or absent: not computed. */
+  chance?: ChanceWithBasis | null;
 };
 
 /**
@@ -56,6 +59,7 @@ export function buildVarietyEvidence(
     medianFirstRipeDoy: tally.medianFirstRipeDoy,
     medianDaysFrostToRipe: tally.medianDaysFrostToRipe,
     pollination: pollinationChecks(variety.figType, context.waspEstablished),
+    chance: input.chance ?? null,
     seasonFit: seasonFit({
       localSeasonDays: context.localSeasonDays,
       localHeatF: context.localHeatF ?? null,
@@ -115,7 +119,7 @@ export function buildNearResponse(input: {
     totals: { reports, trees: trees.size, growers: growers.size },
     varieties: ranked.map(roundedForTheWire),
     pollinationByFigType,
-    method: `${adjustedShareMethod(bandwidthKm)} ${RANKING_METHOD}`,
+    method: `${chanceMethod(bandwidthKm)} ${adjustedShareMethod(bandwidthKm)}`,
   };
 }
 
@@ -138,9 +142,10 @@ function roundedShare(s: Share): Share {
  * nothing a reader can use and made up a third of a near answer's bytes. Its pollination check is
  * given once per fig type (pollinationByFigType).
  */
-export function roundedForTheWire({ pollination: _givenPerFigType, ...v }: RankedVariety): VarietyEvidence {
+export function roundedForTheWire({ pollination: _givenPerFigType, chance, ...v }: RankedVariety): VarietyEvidence {
   return {
     ...v,
+    chance: chance && { probability: round(chance.probability, 4), low: round(chance.low, 4), high: round(chance.high, 4), enoughEvidence: chance.enoughEvidence, trees: chance.trees },
     all: roundedShare(v.all),
     byCrop: { breba: roundedShare(v.byCrop.breba), main: roundedShare(v.byCrop.main) },
     byForm: { ground: roundedShare(v.byForm.ground), container: roundedShare(v.byForm.container), wall: roundedShare(v.byForm.wall), greenhouse: roundedShare(v.byForm.greenhouse) },

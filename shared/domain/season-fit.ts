@@ -9,7 +9,7 @@ import type { SeasonFit } from '../schemas/atlas';
  *   needed    = days from the last spring frost to the first ripe main-crop fig
  *   margin    = available - needed
  *
- * `needed` comes from growers' reports elsewhere when at least MIN_TREES_FOR_REPORTED_NEED trees give
+ * `needed` comes from growers' reports (all the variety's trees in the ground, nearby ones included) when at least MIN_TREES_FOR_REPORTED_NEED trees give
  * it, else from the catalogue (the variety's typical days, else its ripening class), else it is
  * unknown. Verdict: margin >= MARGIN_LIKELY_DAYS is likely (about three weeks of picking before
  * the fall freeze), margin >= 0 marginal (the first figs ripen, the rest may not), below 0 unlikely.
@@ -70,7 +70,7 @@ export const MARGIN_LIKELY_DAYS = 21;
 export type SeasonFitInput = {
   /** Local frost-free days in a typical (50 %) year; null when unknown. */
   localSeasonDays: number | null;
-  /** Median days from spring frost to first ripe in reports elsewhere (see varietyOverall). */
+  /** Median days from spring frost to first ripe over all the variety's trees in the ground (see varietyOverall). */
   neededDaysFromReports: number | null;
   /** Trees behind that median. */
   reportsBehindNeed: number;
@@ -103,7 +103,7 @@ export function seasonFit(input: SeasonFitInput): SeasonFit {
   if (input.neededDaysFromReports !== null && input.reportsBehindNeed >= MIN_TREES_FOR_REPORTED_NEED) {
     neededDays = Math.round(input.neededDaysFromReports);
     neededFrom = 'reports';
-    neededWords = `Reports from ${input.reportsBehindNeed} trees elsewhere show about ${neededDays} days from the last spring frost to the first ripe fig`;
+    neededWords = `Reports from ${input.reportsBehindNeed} ${input.reportsBehindNeed === 1 ? 'tree' : 'trees'} in the ground (nearby and elsewhere) show about ${neededDays} days from the last spring frost to the first ripe fig`;
   } else if (input.typicalDaysToRipen !== null) {
     neededDays = Math.round(input.typicalDaysToRipen);
     neededFrom = 'catalogue';

@@ -118,7 +118,7 @@ export const seasonFitSchema = z.object({
   verdict: z.enum(SEASON_FIT_VERDICTS),
   form: z.enum(GROWING_FORMS),
   localSeasonDays: z.number().nullable(),
-  /** Season days the variety needed: from reports elsewhere, else its catalogue class. */
+  /** Season days the variety needed: from all its trees' reports (nearby ones included), else its catalogue class. */
   neededDays: z.number().nullable(),
   neededFrom: z.enum(['reports', 'catalogue', 'none']),
   /** The assumed head start of this form over a tree in the ground (adjustable assumption). */
@@ -154,8 +154,8 @@ export const varietyEvidenceSchema = z.object({
   medianFirstRipeDoy: z.number().nullable(),
   medianDaysFrostToRipe: z.number().nullable(),
   seasonFit: seasonFitSchema,
-  /** The calibrated chance of an edible crop (issue 16); absent until the model has been fitted. */
-  chance: chanceSchema.nullable().optional(),
+  /** The calibrated chance of an edible crop (issue 16, shared/domain/chance-model.ts); null when the model has not seen the variety. */
+  chance: chanceSchema.nullable(),
   /** One line in plain words: why this rank. */
   reason: z.string(),
 });

@@ -78,8 +78,8 @@ describe('HereResults', () => {
     expect(rows.map((r) => within(r).getByRole('link').textContent)).toEqual(['Lantern Amber', 'Terrace Gold']);
     expect(within(rows[0]!).getByRole('link')).toHaveAttribute('href', '/varieties/11');
     const first = within(rows[0]!);
-    // No model answer yet: the adjusted share with the local 90 % interval.
-    expect(first.getByRole('img', { name: 'Chance 72 %, likely between 48 % and 90 %, from 8 trees' })).toBeInTheDocument();
+    // The model's chance with its interval.
+    expect(first.getByRole('img', { name: 'Chance 78 %, likely between 66 % and 87 %, from 9 trees' })).toBeInTheDocument();
     expect(first.getByTitle('8 trees from 5 growers')).toHaveTextContent('8 / 5');
     expect(first.getByText('+61 days')).toBeInTheDocument();
     // The Smyrna type stays in the list, marked; the pollination sentence is said once per fig type.
@@ -94,7 +94,7 @@ describe('HereResults', () => {
     setup(<HereResults near={sampleNear} query={query} />);
     const user = userEvent.setup();
     await user.click(screen.getByRole('button', { name: 'Show details of Lantern Amber' }));
-    expect(screen.getByTestId('variety-details')).toHaveTextContent(/166 days here vs 125 needed \(reports elsewhere\), head start 20 days/);
+    expect(screen.getByTestId('variety-details')).toHaveTextContent(/166 days here vs 125 needed \(growers’ reports\), head start 20 days/);
     await user.click(screen.getByRole('button', { name: /Trees \/ growers/ }));
     // Fewest trees first would be Terrace Gold (3); sorting a count starts with the largest.
     expect(screen.getAllByTestId('variety-row').map((r) => within(r).getByRole('link').textContent)).toEqual(['Lantern Amber', 'Terrace Gold']);
@@ -108,7 +108,8 @@ describe('HereResults', () => {
       varieties: [
         { ...sampleNear.varieties[0]!, chance: { probability: 0.64, low: 0.5, high: 0.76, enoughEvidence: true, trees: 12 } },
         { ...sampleNear.varieties[1]!, chance: { probability: 0.2, low: 0, high: 0.9, enoughEvidence: false, trees: 1 } },
-        { ...sampleNear.varieties[0]!, varietyId: 12, rank: 3, name: 'Single Tree Fig', all: { ...sampleNear.varieties[0]!.all, trees: 1 } },
+        // No model answer: the adjusted share, marked as resting on one tree.
+        { ...sampleNear.varieties[0]!, varietyId: 12, rank: 3, name: 'Single Tree Fig', chance: null, all: { ...sampleNear.varieties[0]!.all, trees: 1 } },
       ],
     });
     setup(<HereResults near={near} query={query} />);

@@ -49,4 +49,26 @@ describe('guidance in the browser', () => {
     await expect.poll(() => page.getByTestId('variety-row').count(), { timeout: 30_000 }).toBeGreaterThan(0);
     expect(await page.getByTestId('wasp-status').textContent()).toContain('Not recorded here');
   });
+
+  it('links What ripens here to “How good are these odds?”, whose figures the background job fills, marked as demo data', async () => {
+    const page = await site.newPage();
+    await page.goto(`${site.url}/here?lat=38.58&lon=-121.49&form=ground`);
+    await expect.poll(() => page.getByTestId('variety-row').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    await page.getByRole('link', { name: 'How good are these odds?' }).click();
+    await page.getByRole('heading', { name: 'How good are these odds?' }).waitFor();
+    // The model-accuracy job runs a few seconds after start; until then the page says so.
+    await expect
+      .poll(
+        async () => {
+          if (await page.getByText('Brier skill score').count()) return true;
+          await page.reload();
+          return false;
+        },
+        { timeout: 90_000, interval: 3_000 },
+      )
+      .toBe(true);
+    expect(await page.getByRole('note').textContent()).toContain('invented demo data');
+    expect(await page.getByRole('row', { name: /The chance shown in What ripens here/ }).count()).toBe(1);
+    expect(await page.locator('.recharts-surface').count()).toBeGreaterThan(0);
+  });
 });

@@ -23,8 +23,9 @@ describe('editor alerts on the database-backed scheduler, through the local SMTP
   const instanceA = createScheduler(ctx.db, appJobs(ctx.mail), { owner: 'instance-a' });
   const instanceB = createScheduler(ctx.db, appJobs(ctx.mail), { owner: 'instance-b' });
 
-  it('sends one message per editor for a burst of five flags and a proposed name', async () => {
-    expect(await instanceA.runDue(start)).toEqual(['editor-alerts', 'nearby-digest']);
+  // The first tick also runs the model-accuracy job (cross-validation in a worker thread): seconds on a busy machine.
+  it('sends one message per editor for a burst of five flags and a proposed name', { timeout: 60_000 }, async () => {
+    expect(await instanceA.runDue(start)).toEqual(['editor-alerts', 'nearby-digest', 'model-accuracy']);
     expect(ctx.inbox()).toHaveLength(0);
 
     for (let i = 1; i <= 5; i++) ctx.db.insert(reportFlags).values({ reportId, userId: editor.userId, reason: `Flag number ${i}: the dates look odd` }).run();
@@ -50,7 +51,7 @@ describe('editor alerts on the database-backed scheduler, through the local SMTP
     expect(ctx.inbox('ed@example.com')).toHaveLength(1);
   });
 
-  it('lets only one instance run a due job while its lease is held', async () => {
+  it('lets only one instance run a due job while its lease is held', { timeout: 60_000 }, async () => {
     ctx.db.insert(reportFlags).values({ reportId, userId: editor.userId, reason: 'One more' }).run();
     const [a, b] = await Promise.all([instanceA.runDue(minutes(15)), instanceB.runDue(minutes(15))]);
     expect([...a, ...b].filter((name) => name === 'editor-alerts')).toHaveLength(1);

@@ -7,7 +7,7 @@ import { createTestContext } from '../helpers/test-app';
 
 /*
  * The "what ripens here" ranking through the real engine (GET /api/atlas/near): a Smyrna variety
- * whose few local trees did well must still rank below a common variety where the wasp is absent,
+ * whose local trees did well must still rank below a common variety where the wasp is absent,
  * and may rank above it where the wasp is established.
  * Texas A&M AgriLife EHT-019 and Condit 1955: Smyrna figs mature only after caprification;
  * common figs need no pollination.
@@ -30,7 +30,8 @@ function scenario(withWasp: boolean) {
     }
   };
   add(common, 6, 3); // half ripened
-  add(smyrna, 4, 4); // every local tree "ripened"
+  // Every local tree "ripened"; six trees, enough evidence for a verdict (MIN_TREES_FOR_VERDICT).
+  add(smyrna, 6, 6);
   if (withWasp) {
     const geometry = { type: 'Polygon' as const, coordinates: [[[-74.5, 42], [-73, 42], [-73, 43.5], [-74.5, 43.5], [-74.5, 42]]] };
     ctx.db.insert(waspAreas).values({ name: 'Test wasp area', geometry, ...geometryBounds(geometry), source: 'test', observedOn: '2024-07-01' }).run();

@@ -57,6 +57,7 @@ export const sampleNear = nearResponseSchema.parse({
       medianFirstRipeDoy: 235,
       medianDaysFrostToRipe: 117,
       seasonFit: { verdict: 'likely', form: 'container', localSeasonDays: 166, neededDays: 125, neededFrom: 'reports', headStartDays: 20, marginDays: 61, explanation: 'The season covers its need with room to spare.' },
+      chance: { probability: 0.78, low: 0.66, high: 0.87, enoughEvidence: true, trees: 9 },
       reason: 'Ripened on most trees nearby and fits the season.',
     },
     {
@@ -75,6 +76,7 @@ export const sampleNear = nearResponseSchema.parse({
       medianFirstRipeDoy: null,
       medianDaysFrostToRipe: null,
       seasonFit: { verdict: 'unlikely', form: 'container', localSeasonDays: 166, neededDays: 185, neededFrom: 'catalogue', headStartDays: 20, marginDays: 1, explanation: 'Needs a longer season.' },
+      chance: { probability: 0, low: 0, high: 0, enoughEvidence: true, trees: 3 },
       reason: 'A Smyrna type: needs the wasp, which is not recorded here.',
     },
   ],

@@ -2,13 +2,18 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { FIG_TYPES, SEASON_FIT_VERDICTS } from '../../shared/domain/codes';
 import { pollinationChecks } from '../../shared/domain/pollination';
-import { type RankInput, rankScore, rankVarieties } from '../../shared/domain/ranking';
+import { type ChanceWithBasis, type RankInput, rankVarieties } from '../../shared/domain/ranking';
+import { roundedForTheWire } from '../../shared/domain/evidence';
 import { seasonFit } from '../../shared/domain/season-fit';
 import { varietyEvidenceSchema } from '../../shared/schemas/atlas';
 import type { FigType, SeasonFitVerdict } from '../../shared/domain/codes';
 
 const emptyShare = { trees: 0, reports: 0, ripened: 0, share: null, interval90: null };
-function item(id: number, name: string, figType: FigType, share: number | null, verdict: SeasonFitVerdict = 'likely', wasp = false): RankInput {
+function chance(probability: number | null, trees = 12, rule: ChanceWithBasis['basis']['rule'] = null): ChanceWithBasis | null {
+  if (probability === null) return null;
+  return { probability, low: probability / 2, high: (1 + probability) / 2, enoughEvidence: trees >= 5, trees, basis: { rule, modelProbability: probability, localTrees: Math.min(trees, 3) } };
+}
+function item(id: number, name: string, figType: FigType, share: number | null, verdict: SeasonFitVerdict = 'likely', wasp = false, c: ChanceWithBasis | null = chance(share)): RankInput {
   const s = share === null ? emptyShare : { trees: 10, reports: 14, ripened: share * 10, share, interval90: { low: 0, high: 1 } };
   const fit = seasonFit({ localSeasonDays: 180, neededDaysFromReports: null, reportsBehindNeed: 0, ripeningClass: null, typicalDaysToRipen: null, form: 'ground' });
   return {
@@ -27,30 +32,38 @@ function item(id: number, name: string, figType: FigType, share: number | null, 
     medianDaysFrostToRipe: null,
     pollination: pollinationChecks(figType, wasp),
     seasonFit: { ...fit, verdict },
+    chance: c,
   };
 }
 
 describe('rankVarieties', { timeout: 30_000 }, () => {
-  it('ranks a Smyrna or San Pedro variety below a common one outside wasp areas, despite a higher share', () => {
-    // Texas A&M AgriLife EHT-019: only the common fig is recommended where the fig wasp is absent;
-    // Condit 1955: the San Pedro main crop drops unless caprified.
-    const ranked = rankVarieties([item(1, 'Fictional Smyrna', 'smyrna', 0.8), item(2, 'Fictional Common', 'common', 0.7), item(3, 'Fictional San Pedro', 'san-pedro', 0.75)]);
-    expect(ranked.map((v) => v.name)).toEqual(['Fictional Common', 'Fictional San Pedro', 'Fictional Smyrna']);
-    expect(ranked[2].reason).toMatch(/fig wasp/);
+  it('ranks by the chance, and what is sent parses', () => {
+    const ranked = rankVarieties([item(1, 'Fictional Low', 'common', 0.3), item(2, 'Fictional High', 'common', 0.8), item(3, 'Fictional Mid', 'common', 0.5)]);
+    expect(ranked.map((v) => v.name)).toEqual(['Fictional High', 'Fictional Mid', 'Fictional Low']);
     expect(ranked.map((v) => v.rank)).toEqual([1, 2, 3]);
-    // What is sent: each variety without its pollination check (given per fig type in the answer).
-    for (const { pollination: _perFigType, ...v } of ranked) expect(varietyEvidenceSchema.parse(v)).toEqual(v);
+    expect(ranked[0].reason).toMatch(/^About 80 % chance of an edible crop in a typical season here \(40 % to 90 %\), from 12 trees, 10 trees nearby/);
+    for (const v of ranked) expect(varietyEvidenceSchema.parse(roundedForTheWire(v))).toEqual(roundedForTheWire(v));
   });
 
-  it('lets the Smyrna variety lead where the wasp is established', () => {
-    const ranked = rankVarieties([item(1, 'Fictional Smyrna', 'smyrna', 0.8, 'likely', true), item(2, 'Fictional Common', 'common', 0.7, 'likely', true)]);
-    expect(ranked[0].name).toBe('Fictional Smyrna');
+  it('never lets a variety with too little evidence outrank a well-evidenced one, and says how many whole trees', () => {
+    // Two lucky trees, 100 % ripe: still after the 60 % variety backed by 15 trees.
+    const ranked = rankVarieties([item(1, 'Fictional Lucky', 'common', 1, 'likely', false, chance(0.95, 2)), item(2, 'Fictional Steady', 'common', 0.6, 'likely', false, chance(0.6, 15))]);
+    expect(ranked.map((v) => v.name)).toEqual(['Fictional Steady', 'Fictional Lucky']);
+    expect(ranked[1].reason).toMatch(/^Too little evidence \(2 trees\)/);
+    expect(rankVarieties([item(1, 'Fictional One', 'common', 1, 'likely', false, chance(0.9, 1))])[0].reason).toMatch(/\(1 tree\)/);
   });
 
-  it('ranks an unlikely season fit down, puts varieties without a share last and breaks ties by name then id', () => {
+  it('says when no crop can set without the wasp, or only the breba counts', () => {
+    const ranked = rankVarieties([item(1, 'Fictional Smyrna', 'smyrna', 0.8, 'likely', false, chance(0, 12, 'no-crop')), item(2, 'Fictional San Pedro', 'san-pedro', 0.5, 'likely', false, chance(0.5, 12, 'breba-only'))]);
+    expect(ranked.map((v) => v.name)).toEqual(['Fictional San Pedro', 'Fictional Smyrna']);
+    expect(ranked[0].reason).toMatch(/only the breba crop counts here/);
+    expect(ranked[1].reason).toMatch(/No edible crop is expected here without the fig wasp/);
+  });
+
+  it('puts varieties without a chance last, by adjusted share, and breaks ties by name then id', () => {
     const ranked = rankVarieties([
       item(5, 'Beta', 'common', null),
-      item(4, 'Alpha', 'common', 0.9, 'unlikely'),
+      item(4, 'Alpha', 'common', 0.9, 'likely', false, null),
       item(3, 'Gamma', 'common', 0.6),
       item(2, 'Delta', 'common', 0.6),
       item(1, 'Delta', 'common', 0.6),
@@ -62,8 +75,7 @@ describe('rankVarieties', { timeout: 30_000 }, () => {
       ['Alpha', 4],
       ['Beta', 5],
     ]);
-    expect(rankScore(ranked[3])).toBeCloseTo(0.45, 12);
-    expect(ranked[4].reason).toMatch(/No local trees/);
+    expect(ranked[4].reason).toMatch(/No chance computed yet; no trees nearby/);
   });
 
   it('gives the same ranking for any order of the input rows (property test)', () => {
@@ -75,8 +87,9 @@ describe('rankVarieties', { timeout: 30_000 }, () => {
         share: fc.option(fc.constantFrom(0, 0.25, 0.5, 0.6, 0.75, 1), { nil: null }),
         verdict: fc.constantFrom(...SEASON_FIT_VERDICTS),
         wasp: fc.boolean(),
+        trees: fc.integer({ min: 1, max: 9 }),
       })
-      .map((r) => item(r.id, r.name, r.figType, r.share, r.verdict, r.wasp));
+      .map((r) => item(r.id, r.name, r.figType, r.share, r.verdict, r.wasp, chance(r.share, r.trees)));
     fc.assert(
       fc.property(
         fc.uniqueArray(arbItem, { selector: (v) => v.varietyId, maxLength: 25 }).chain((items) =>

@@ -200,6 +200,7 @@ const CASES: Case[] = [
       return { method: 'delete', path: `/api/follows/places/${list.body.places.at(-1).id}` };
     },
   },
+  { route: 'GET /api/accuracy', expected: everyone(200), call: () => get('/api/accuracy') },
   { route: 'GET /api/moderation/queue', expected: editors(200), call: () => get('/api/moderation/queue') },
   { route: 'GET /api/moderation/summary', expected: editors(200), call: () => get('/api/moderation/summary') },
   { route: 'POST /api/moderation/reports/:id/reviewed', expected: editors(204), call: async (w) => ({ method: 'post', path: `/api/moderation/reports/${await w.report()}/reviewed` }) },

@@ -58,9 +58,13 @@ export function HereResults({ near, query }: { near: NearResponse; query: PointQ
         <ShortSeasonSummary seasonDays={days50} form={query.form} query={shortSeason} filtering={shortOnly} onFilter={setShortOnly} />
         <VarietyTable near={near} onlyIds={onlyIds} />
         <MethodNote method={<>How the list is ranked: {near.method}</>}>
-          Varieties whose nearby trees ripened more often rank higher; a variety known from only a few trees counts for less than one seen on many, and one that needs the fig wasp
-          where it is not recorded, or a longer season than this place gives, moves down. Trees / growers counts the trees and growers behind each row. The chance bar shows the likely range as a band and the figure as a dot; a figure resting on
-          one or two trees is drawn faint.
+          Varieties are ranked by the chance of an edible crop in a typical season here, grown this way: learned from every tree of the variety and the length of their
+          seasons, then adjusted by the trees nearby. A variety known from fewer than five trees shows “too little evidence” and comes after the others; one that needs the fig
+          wasp where it is not recorded comes last. Trees / growers counts the trees and growers behind each row. The chance bar shows the likely range as a band and the
+          figure as a dot; a figure resting on one or two trees is drawn faint.{' '}
+          <Link to="/accuracy" className="font-medium text-fig-600 underline">
+            How good are these odds?
+          </Link>
         </MethodNote>
       </section>
 

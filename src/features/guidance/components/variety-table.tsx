@@ -118,7 +118,7 @@ function RowDetails({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
         <p className="text-ink/70">Season fit ({LABELS.growingForm[fit.form].toLowerCase()})</p>
         <p>
           <strong className="font-medium">{LABELS.verdict[fit.verdict]}</strong>: {fit.localSeasonDays === null ? '—' : Math.round(fit.localSeasonDays)} days here vs {fit.neededDays === null ? '—' : Math.round(fit.neededDays)} needed
-          {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (reports elsewhere)' : ''}
+          {fit.neededFrom === 'catalogue' ? ' (catalogue class)' : fit.neededFrom === 'reports' ? ' (growers’ reports)' : ''}
           {fit.headStartDays ? `, head start ${fit.headStartDays} days` : ''}.
         </p>
         {fit.localHeatF !== null && fit.neededHeatF !== null && (
