@@ -33,6 +33,9 @@ import { csrfGuard } from './middleware/csrf';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { createHealthRouter, createMetricsRouter } from './ops/ops.router';
+import { createLogger, requestLogger } from './ops/request-log';
+import type { Logger } from 'pino';
 
 export interface AppDeps {
   db: Db;
@@ -41,6 +44,8 @@ export interface AppDeps {
   /** Outgoing mail (server/email/index.ts starts it); without one, mail follows the SMTP settings. */
   mailer?: Mailer;
   forgotLimit?: PasswordResetDeps['forgotLimit'];
+  /** Where request logs go (tests capture them); by default stdout at `config.logLevel`. */
+  logger?: Logger;
 }
 
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
@@ -49,6 +54,7 @@ export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(requestLogger(deps.logger ?? createLogger(config.logLevel)));
 
   app.use(
     helmet({
@@ -88,9 +94,7 @@ export function createApp(deps: AppDeps): Express {
 
   const api = express.Router();
   api.use(csrfGuard);
-  api.get('/health', (_req, res) => {
-    res.json({ ok: true });
-  });
+  api.use('/health', createHealthRouter({ db }));
   const mail = { db, mailer: deps.mailer ?? createMailer(config), appUrl: config.appUrl };
   const onSignedUp = async (user: Express.User) => void (await sendVerificationEmail(mail, user));
   api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, onSignedUp }));
@@ -112,6 +116,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/audit', createAuditRouter({ db }));
   api.use(apiNotFound);
   app.use('/api', api);
+  app.use(createMetricsRouter({ metricsToken: config.metricsToken }));
   app.use('/uploads', createUploadsRouter({ db, config }));
   app.use('/tiles', createTilesRouter({ tilesDir: config.tilesDir }));
 

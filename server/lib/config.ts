@@ -24,6 +24,10 @@ export interface Config {
   devMail: boolean;
   /** Its port; 0 picks a free one. */
   devMailPort: number;
+  /** Request log level (pino): `info` logs every request; `silent` in tests. */
+  logLevel: string;
+  /** Lets /metrics answer a scraper that is not on this machine (`Authorization: Bearer <token>`). */
+  metricsToken?: string;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -52,5 +56,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mailFrom: env.MAIL_FROM ?? 'Syconium <atlas@syconium.invalid>',
     devMail: env.SYCONIUM_DEV_MAIL ? env.SYCONIUM_DEV_MAIL === 'true' : mode !== 'production',
     devMailPort: Number(env.SYCONIUM_DEV_MAIL_PORT ?? 0),
+    logLevel: env.LOG_LEVEL ?? (mode === 'test' ? 'silent' : 'info'),
+    metricsToken: env.SYCONIUM_METRICS_TOKEN || undefined,
   };
 }
