@@ -1,8 +1,6 @@
 import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
-import fs from 'node:fs';
-import path from 'node:path';
 import type { Config } from './lib/config';
 import type { Db } from './db/client';
 import { createAuthRouter, type AuthRouterDeps } from './auth/auth.router';
@@ -33,6 +31,7 @@ import { csrfGuard } from './middleware/csrf';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { serveClient } from './client/serve-client';
 import { createHealthRouter, createMetricsRouter } from './ops/ops.router';
 import { createLogger, requestLogger } from './ops/request-log';
 import type { Logger } from 'pino';
@@ -120,12 +119,8 @@ export function createApp(deps: AppDeps): Express {
   app.use('/uploads', createUploadsRouter({ db, config }));
   app.use('/tiles', createTilesRouter({ tilesDir: config.tilesDir }));
 
-  const indexHtml = path.join(config.clientDir, 'index.html');
-  if (config.env !== 'test' && fs.existsSync(indexHtml)) {
-    app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
-    // Client-side routes: every other GET gets the app shell (not unknown /uploads or /tiles paths: those are 404s).
-    app.get(/^(?!\/(?:api|uploads|tiles)\/).*/, (_req, res) => res.sendFile(indexHtml));
-  }
+  // The built client, precompressed; client-side routes get the app shell (not unknown /uploads or /tiles paths: those are 404s).
+  if (config.env !== 'test') serveClient(app, config.clientDir);
 
   app.use(errorHandler);
   return app;
