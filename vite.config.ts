@@ -32,10 +32,12 @@ function preloadAtlas(): Plugin {
         visit(home.fileName);
         const entry = chunks.find((c) => c.isEntry);
         const alreadyPreloaded = new Set([entry?.fileName, ...(entry?.imports ?? [])]);
-        const css = [...files].flatMap((file) => [...((bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss ?? [])]);
+        const cssOf = (file: string | undefined) => [...((file && (bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss) || [])];
+        const entryCss = new Set(cssOf(entry?.fileName));
+        const css = [...files].flatMap(cssOf).filter((file) => !entryCss.has(file));
         return [
           ...[...files].filter((file) => !alreadyPreloaded.has(file)).map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
-          ...css.map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', href: `/${file}` }, injectTo: 'head' as const })),
+          ...css.map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
         ];
       },
     },
