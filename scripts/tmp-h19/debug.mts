@@ -1,0 +1,12 @@
+import { chromium } from 'playwright-core';
+import { CHROMIUM_ARGS } from '../ensure-chromium';
+const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
+const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+page.on('console', (m) => console.log('console', m.text()));
+page.on('pageerror', (e) => console.log('pageerror', e.message));
+page.on('requestfailed', (r) => console.log('failed', r.url()));
+await page.goto(process.argv[2] ?? 'http://127.0.0.1:3108/');
+await page.waitForTimeout(8000);
+console.log(await page.evaluate(() => { const m = (window as any).syconiumMap; if (!m) return 'no map'; const f = m.queryRenderedFeatures(); return JSON.stringify([f.length, [...new Set(f.map((x: any) => x.source))]]); }));
+await page.screenshot({ path: '/tmp/h19/home-phone.png' });
+await browser.close();
