@@ -4,6 +4,7 @@ import tailwindcss from '@tailwindcss/vite';
 import path from 'node:path';
 import type { Plugin } from 'vite';
 import { compression } from 'vite-plugin-compression2';
+import { VitePWA } from 'vite-plugin-pwa';
 
 /**
  * The atlas is the first screen of most visits: preload its page chunk and everything it imports
@@ -51,6 +52,43 @@ export default defineConfig({
     react(),
     tailwindcss(),
     preloadAtlas(),
+    // Installable, with the app shell cached by a Workbox service worker: the pages open with no signal,
+    // and the report form keeps what is written offline in IndexedDB (src/features/report-outbox/).
+    VitePWA({
+      registerType: 'autoUpdate',
+      // Registered by src/main.tsx after the page has loaded (a script in <head> would cost a round trip before first paint).
+      injectRegister: false,
+      manifest: {
+        name: 'Syconium · fig ripening atlas',
+        short_name: 'Syconium',
+        description: 'Which fig varieties ripen where you live, from growers’ own harvest reports.',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        background_color: '#faf6ef',
+        theme_color: '#552c48',
+        icons: [
+          { src: '/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icon-512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
+        ],
+      },
+      workbox: {
+        // The shell and every page chunk (MapLibre's worker included), the Latin fonts; not the
+        // precompressed copies (the server picks those) nor the older woff files.
+        globPatterns: ['**/*.{js,mjs,css,html,svg,png,webmanifest}', 'assets/fira-sans-latin-*.woff2'],
+        maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//, /^\/tiles\//, /^\/uploads\//, /^\/metrics/],
+        // Base map tiles already seen stay usable offline (the map opens where the grower last looked).
+        runtimeCaching: [
+          {
+            urlPattern: ({ url }) => url.pathname.startsWith('/tiles/'),
+            handler: 'StaleWhileRevalidate',
+            options: { cacheName: 'syconium-tiles', expiration: { maxEntries: 600 } },
+          },
+        ],
+      },
+    }),
     // Brotli and gzip copies of every text asset at build time; the server sends the one the browser takes.
     compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|svg|json|webmanifest)$/, threshold: 1024 }),
   ],

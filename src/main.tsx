@@ -9,6 +9,12 @@ import './index.css';
 const queryClient = createQueryClient();
 const router = createRouter();
 
+// The service worker (vite-plugin-pwa, dist/sw.js) caches the app shell so the app opens with no
+// signal; registered once the first screen has loaded, so its precaching never competes with it.
+if (import.meta.env.PROD && 'serviceWorker' in navigator) {
+  window.addEventListener('load', () => void navigator.serviceWorker.register('/sw.js').catch(() => undefined));
+}
+
 createRoot(document.getElementById('root')!).render(
   <StrictMode>
     <QueryClientProvider client={queryClient}>

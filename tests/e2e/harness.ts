@@ -1,4 +1,4 @@
-import { chromium, type Browser, type BrowserContextOptions, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 import { afterAll, beforeAll, inject } from 'vitest';
 import { CHROMIUM_ARGS } from '../../scripts/ensure-chromium';
 import { startTempServer, type TempServer } from '../helpers/temp-server';
@@ -13,6 +13,8 @@ export interface Site {
   /** The server's address, e.g. http://127.0.0.1:41234. */
   readonly url: string;
   newPage: (options?: BrowserContextOptions) => Promise<Page>;
+  /** A context of its own (one "phone"): its pages share storage, so a page can close and another reopen it. */
+  newContext: (options?: BrowserContextOptions) => Promise<BrowserContext>;
 }
 
 /**
@@ -34,6 +36,7 @@ export function openSite(env: Record<string, string> = {}): Site {
       return server!.process.url;
     },
     newPage: (options) => browser!.newPage(options),
+    newContext: (options) => browser!.newContext(options),
   };
 }
 
