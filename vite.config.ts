@@ -24,6 +24,8 @@ function preloadAtlas(): Plugin {
         const home = chunks.find((c) => c.facadeModuleId?.endsWith('/src/routes/home.tsx'));
         if (!home) return [];
         const files = new Set<string>();
+        // Static imports only: the map (MapLibre) is a dynamic import of the page, fetched once it runs,
+        // so the page's own small code is not slowed by sharing the link with 390 KB of map.
         const visit = (file: string) => {
           const chunk = bundle[file];
           if (!chunk || chunk.type !== 'chunk' || files.has(file)) return;
@@ -36,7 +38,12 @@ function preloadAtlas(): Plugin {
         const cssOf = (file: string | undefined) => [...((file && (bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss) || [])];
         const entryCss = new Set(cssOf(entry?.fileName));
         const css = [...files].flatMap(cssOf).filter((file) => !entryCss.has(file));
+        // The body text's font (Latin 400), needed by the first paint's text.
+        const font = Object.values(bundle)
+          .map((item) => item.fileName)
+          .find((file) => /fira-sans-latin-400-normal-[\w-]+\.woff2$/.test(file));
         return [
+          ...(font ? [{ tag: 'link', attrs: { rel: 'preload', as: 'font', type: 'font/woff2', crossorigin: true, href: `/${font}` }, injectTo: 'head' as const }] : []),
           ...[...files].filter((file) => !alreadyPreloaded.has(file)).map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
           ...css.map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
         ];

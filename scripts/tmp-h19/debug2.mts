@@ -14,9 +14,9 @@ page.on('pageerror', (e) => console.log('pageerror', e.message));
 const t = Date.now();
 await page.goto(process.argv[2] ?? 'http://127.0.0.1:3108/', { waitUntil: 'load' });
 console.log('load', Date.now() - t);
-for (let i = 0; i < 4; i++) {
+for (let i = 0; i < 8; i++) {
   await page.waitForTimeout(2000);
-  console.log(Date.now() - t, n, await page.evaluate(() => { const m = (window as any).syconiumMap; if (!m) return 'no map'; try { const f = m.queryRenderedFeatures(); return JSON.stringify([f.length, [...new Set(f.map((x: any) => x.source))]]); } catch (e) { return String(e); } }));
+  console.log(Date.now() - t, n, await page.evaluate(() => { const c = document.querySelectorAll('[data-pin-preview] circle').length; const m = (window as any).syconiumMap; if (!m) return 'no map, preview ' + c + ' ' + document.querySelector('[data-pin-preview]')?.getBoundingClientRect().width; try { const f = m.queryRenderedFeatures(); return JSON.stringify([f.length, [...new Set(f.map((x: any) => x.source))]]); } catch (e) { return String(e); } }));
 }
 await page.screenshot({ path: '/tmp/h19/home-throttled.png' });
 await browser.close();

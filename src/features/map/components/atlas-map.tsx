@@ -19,6 +19,7 @@ import {
   WASP_FILL_LAYER,
   WASP_OUTLINE_LAYER,
 } from '../layers';
+import { estimateViewport, type Viewport } from '../first-view';
 import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
 import { CellPopup, PointPopup, StationPopup, WaspAreaPopup } from './map-popups';
@@ -41,11 +42,6 @@ interface AtlasMapProps {
   onTotalChange?: (total: number | null) => void;
 }
 
-interface Viewport {
-  bbox: string;
-  zoom: number;
-}
-
 function viewportOf(map: MapLibreMap): Viewport {
   const b = map.getBounds();
   return { bbox: toBbox(b.getWest(), b.getSouth(), b.getEast(), b.getNorth()), zoom: Math.floor(map.getZoom()) };
@@ -57,7 +53,8 @@ function viewportOf(map: MapLibreMap): Viewport {
  */
 export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange }, ref) {
   const mapRef = useRef<MapRef>(null);
-  const [viewport, setViewport] = useState<Viewport | null>(null);
+  // Until the map has loaded, the window's estimate: the pins main.tsx asked for at start-up.
+  const [viewport, setViewport] = useState<Viewport | null>(() => estimateViewport(initialView, window.innerWidth, window.innerHeight));
   const [popup, setPopup] = useState<PopupState | null>(null);
   const [cursor, setCursor] = useState<string>('');
   const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);

@@ -73,7 +73,7 @@ export function OutboxStatus() {
       {refused.map((report) => (
         <div key={report.clientId} role="alert" className="mt-1">
           <p>
-            <strong>Not accepted: {describe(report)}.</strong> {report.refusal?.message}
+            <strong>Not accepted: {describe(report)}.</strong> {Object.keys(report.refusal?.fields ?? {}).length ? 'The server said what to change:' : report.refusal?.message}
           </p>
           <ul className="ml-5 list-disc">
             {Object.entries(report.refusal?.fields ?? {}).map(([field, messages]) => (
