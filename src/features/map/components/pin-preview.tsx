@@ -36,7 +36,16 @@ export function PinPreview({ view, filters }: { view: MapView; filters: PinFilte
           const { x, y } = place(pin.geometry.coordinates[0], pin.geometry.coordinates[1]);
           const many = pin.properties.reports;
           const r = pin.properties.kind === 'cluster' ? Math.min(30, 9 + 4 * Math.sqrt(many)) : many > 1 ? 10 : 7;
-          return <circle key={i} cx={x} cy={y} r={r} fill={pin.properties.kind === 'cluster' ? C.fig600 : C.fig500} stroke={C.paper} strokeWidth={2} opacity={0.9} />;
+          return (
+            <g key={i}>
+              <circle cx={x} cy={y} r={r} fill={pin.properties.kind === 'cluster' ? C.fig600 : C.fig500} stroke={C.paper} strokeWidth={2} opacity={0.9} />
+              {many > 1 && (
+                <text x={x} y={y} dy="0.35em" textAnchor="middle" fontSize={12} fontWeight={600} fill={C.paper}>
+                  {many}
+                </text>
+              )}
+            </g>
+          );
         })}
     </svg>
   );
