@@ -2,11 +2,103 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import path from 'node:path';
+import type { Plugin } from 'vite';
+import { compression } from 'vite-plugin-compression2';
+import { VitePWA } from 'vite-plugin-pwa';
+
+/**
+ * The atlas is the first screen of most visits: preload its page chunk and everything it imports
+ * (MapLibre is most of it) from index.html, so it downloads alongside the shell instead of after it.
+ * Vite already preloads the entry's own imports; this adds the lazily loaded home page's.
+ */
+function preloadAtlas(): Plugin {
+  return {
+    name: 'syconium-preload-atlas',
+    apply: 'build',
+    enforce: 'post',
+    transformIndexHtml: {
+      order: 'post',
+      handler(_html, { bundle }) {
+        if (!bundle) return [];
+        const chunks = Object.values(bundle).filter((c) => c.type === 'chunk');
+        const home = chunks.find((c) => c.facadeModuleId?.endsWith('/src/routes/home.tsx'));
+        if (!home) return [];
+        const files = new Set<string>();
+        // Static imports only: the map (MapLibre) is a dynamic import of the page, fetched once it runs,
+        // so the page's own small code is not slowed by sharing the link with 390 KB of map.
+        const visit = (file: string) => {
+          const chunk = bundle[file];
+          if (!chunk || chunk.type !== 'chunk' || files.has(file)) return;
+          files.add(file);
+          chunk.imports.forEach(visit);
+        };
+        visit(home.fileName);
+        const entry = chunks.find((c) => c.isEntry);
+        const alreadyPreloaded = new Set([entry?.fileName, ...(entry?.imports ?? [])]);
+        const cssOf = (file: string | undefined) => [...((file && (bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss) || [])];
+        const entryCss = new Set(cssOf(entry?.fileName));
+        const css = [...files].flatMap(cssOf).filter((file) => !entryCss.has(file));
+        // The body text's font (Latin 400), needed by the first paint's text.
+        const font = Object.values(bundle)
+          .map((item) => item.fileName)
+          .find((file) => /fira-sans-latin-400-normal-[\w-]+\.woff2$/.test(file));
+        return [
+          ...(font ? [{ tag: 'link', attrs: { rel: 'preload', as: 'font', type: 'font/woff2', crossorigin: true, href: `/${font}` }, injectTo: 'head' as const }] : []),
+          ...[...files].filter((file) => !alreadyPreloaded.has(file)).map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
+          ...css.map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', crossorigin: true, href: `/${file}` }, injectTo: 'head' as const })),
+        ];
+      },
+    },
+  };
+}
 
 const apiPort = Number(process.env.PORT ?? 3030);
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    preloadAtlas(),
+    // Installable, with the app shell cached by a Workbox service worker: the pages open with no signal,
+    // and the report form keeps what is written offline in IndexedDB (src/features/report-outbox/).
+    VitePWA({
+      registerType: 'autoUpdate',
+      // Registered by src/main.tsx after the page has loaded (a script in <head> would cost a round trip before first paint).
+      injectRegister: false,
+      manifest: {
+        name: 'Syconium · fig ripening atlas',
+        short_name: 'Syconium',
+        description: 'Which fig varieties ripen where you live, from growers’ own harvest reports.',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        background_color: '#faf6ef',
+        theme_color: '#552c48',
+        icons: [
+          { src: '/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icon-512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
+        ],
+      },
+      workbox: {
+        // The shell and every page chunk (MapLibre's worker included), the Latin fonts; not the
+        // precompressed copies (the server picks those) nor the older woff files.
+        globPatterns: ['**/*.{js,mjs,css,html,svg,png,webmanifest}', 'assets/fira-sans-latin-*.woff2'],
+        maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//, /^\/tiles\//, /^\/uploads\//, /^\/metrics/],
+        // Base map tiles already seen stay usable offline (the map opens where the grower last looked).
+        runtimeCaching: [
+          {
+            urlPattern: ({ url }) => url.pathname.startsWith('/tiles/'),
+            handler: 'StaleWhileRevalidate',
+            options: { cacheName: 'syconium-tiles', expiration: { maxEntries: 600 } },
+          },
+        ],
+      },
+    }),
+    // Brotli and gzip copies of every text asset at build time; the server sends the one the browser takes.
+    compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|svg|json|webmanifest)$/, threshold: 1024 }),
+  ],
   resolve: {
     alias: { '@shared': path.resolve(import.meta.dirname, 'shared') },
   },
@@ -19,7 +111,7 @@ export default defineConfig({
   },
   build: {
     outDir: 'dist',
-    chunkSizeWarningLimit: 2500,
+    chunkSizeWarningLimit: 1100,
   },
   test: {
     projects: [

@@ -160,6 +160,7 @@ const server = await startServerProcess(
     SMTP_HOST: '',
     SESSION_SECRET: randomBytes(32).toString('hex'),
     SYCONIUM_LOOP_STATS: '1', // server/lib/loop-stats.ts: printed at shutdown
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn', // a JSON line per request would be ~100,000 lines kept in this process
   },
   // At shutdown the server prints its loop figures and writes its profile: give it time.
   { nodeArgs: profileArgs, startTimeoutMs: 90_000, stopGraceMs: 60_000 },

@@ -2,8 +2,6 @@ import { createAccuracyRouter } from './accuracy/accuracy.router';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
-import fs from 'node:fs';
-import path from 'node:path';
 import type { Config } from './lib/config';
 import type { Db } from './db/client';
 import { createAuthRouter, type AuthRouterDeps } from './auth/auth.router';
@@ -39,6 +37,10 @@ import { jsonOrMultipartOnly } from './middleware/json-only';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { serveClient } from './client/serve-client';
+import { createHealthRouter, createMetricsRouter } from './ops/ops.router';
+import { createLogger, requestLogger } from './ops/request-log';
+import type { Logger } from 'pino';
 
 export interface AppDeps {
   db: Db;
@@ -51,6 +53,8 @@ export interface AppDeps {
   photoUploadLimit?: ReportsRouterDeps['photoUploadLimit'];
   /** The payment provider for contributions (server/support/payments.ts starts it); without one, contributions are off. */
   payments?: Payments;
+  /** Where request logs go (tests capture them); by default stdout at `config.logLevel`. */
+  logger?: Logger;
 }
 
 /** Build the Express app (no listen): middleware, API routers, /api 404, the client, errors last. */
@@ -61,6 +65,7 @@ export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(requestLogger(deps.logger ?? createLogger(config.logLevel)));
 
   app.use(
     helmet({
@@ -105,9 +110,7 @@ export function createApp(deps: AppDeps): Express {
 
   const api = express.Router();
   api.use(csrfGuard, jsonOrMultipartOnly);
-  api.get('/health', (_req, res) => {
-    res.json({ ok: true });
-  });
+  api.use('/health', createHealthRouter({ db }));
   const mail = { db, mailer, appUrl: config.appUrl };
   const onSignedUp = async (user: Express.User) => void (await sendVerificationEmail(mail, user));
   api.use('/auth', createAuthRouter({ db, passport, signInLimit: deps.signInLimit, signUpLimit: deps.signUpLimit, onSignedUp, mail }));
@@ -133,15 +136,12 @@ export function createApp(deps: AppDeps): Express {
   api.use('/support', createSupportRouter(support));
   api.use(apiNotFound);
   app.use('/api', api);
+  app.use(createMetricsRouter({ metricsToken: config.metricsToken }));
   app.use('/uploads', createUploadsRouter({ db, config }));
   app.use('/tiles', createTilesRouter({ tilesDir: config.tilesDir }));
 
-  const indexHtml = path.join(config.clientDir, 'index.html');
-  if (config.env !== 'test' && fs.existsSync(indexHtml)) {
-    app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
-    // Client-side routes: every other GET gets the app shell (not unknown /uploads or /tiles paths: those are 404s).
-    app.get(/^(?!\/(?:api|uploads|tiles)\/).*/, (_req, res) => res.sendFile(indexHtml));
-  }
+  // The built client, precompressed; client-side routes get the app shell (not unknown /uploads or /tiles paths: those are 404s).
+  if (config.env !== 'test') serveClient(app, config.clientDir);
 
   app.use(errorHandler);
   return app;

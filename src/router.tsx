@@ -1,36 +1,40 @@
 import { createBrowserRouter } from 'react-router';
 import { AppShell } from './components/app-shell';
-import AccountRoute from './routes/account';
-import AccuracyRoute from './routes/accuracy';
-import DevMailRoute from './routes/dev-mail';
-import EditorsRoute from './routes/editors';
-import ForgotPasswordRoute from './routes/forgot-password';
-import EditorsOverviewRoute from './routes/editors-overview';
-import EditorsPeopleRoute from './routes/editors-people';
-import EditorsVarietiesRoute from './routes/editors-varieties';
-import EditorsWaspAreasRoute from './routes/editors-wasp-areas';
-import EditorsModerationRoute from './routes/editors-moderation';
-import EditorsAuditRoute from './routes/editors-audit';
-import EditorsStationsRoute from './routes/editors-stations';
-import HereRoute from './routes/here';
-import HomeRoute from './routes/home';
-import MyReportsRoute from './routes/my-reports';
-import NotFoundRoute from './routes/not-found';
-import ReportDetailRoute from './routes/report-detail';
-import ReportEditRoute from './routes/report-edit';
-import ReportImportRoute from './routes/report-import';
-import ReportNewRoute from './routes/report-new';
-import ResetPasswordRoute from './routes/reset-password';
-import SignInRoute from './routes/sign-in';
-import SignUpRoute from './routes/sign-up';
-import SupportRoute from './routes/support';
-import SupportThanksRoute from './routes/support-thanks';
-import EditorsSupportersRoute from './routes/editors-supporters';
-import UnsubscribeRoute from './routes/unsubscribe';
-import VerifyRoute from './routes/verify';
-import WhyNoFigsRoute from './routes/why-no-figs';
-import VarietyRoute from './routes/variety';
-import HereCompareRoute from './routes/here-compare';
+import { lazyPage } from './components/lazy-page';
+
+// Every page is its own chunk, fetched when first opened (the map, charts, editors' workspace and forms
+// are large): the first screen loads only the shell and its own page. index.html preloads the atlas.
+const AccountRoute = lazyPage(() => import('./routes/account'));
+const DevMailRoute = lazyPage(() => import('./routes/dev-mail'));
+const EditorsRoute = lazyPage(() => import('./routes/editors'));
+const ForgotPasswordRoute = lazyPage(() => import('./routes/forgot-password'));
+const EditorsOverviewRoute = lazyPage(() => import('./routes/editors-overview'));
+const EditorsPeopleRoute = lazyPage(() => import('./routes/editors-people'));
+const EditorsVarietiesRoute = lazyPage(() => import('./routes/editors-varieties'));
+const EditorsWaspAreasRoute = lazyPage(() => import('./routes/editors-wasp-areas'));
+const EditorsModerationRoute = lazyPage(() => import('./routes/editors-moderation'));
+const EditorsAuditRoute = lazyPage(() => import('./routes/editors-audit'));
+const EditorsStationsRoute = lazyPage(() => import('./routes/editors-stations'));
+const HereRoute = lazyPage(() => import('./routes/here'));
+const HomeRoute = lazyPage(() => import('./routes/home'));
+const MyReportsRoute = lazyPage(() => import('./routes/my-reports'));
+const NotFoundRoute = lazyPage(() => import('./routes/not-found'));
+const ReportDetailRoute = lazyPage(() => import('./routes/report-detail'));
+const ReportEditRoute = lazyPage(() => import('./routes/report-edit'));
+const ReportImportRoute = lazyPage(() => import('./routes/report-import'));
+const ReportNewRoute = lazyPage(() => import('./routes/report-new'));
+const ResetPasswordRoute = lazyPage(() => import('./routes/reset-password'));
+const SignInRoute = lazyPage(() => import('./routes/sign-in'));
+const SignUpRoute = lazyPage(() => import('./routes/sign-up'));
+const UnsubscribeRoute = lazyPage(() => import('./routes/unsubscribe'));
+const VerifyRoute = lazyPage(() => import('./routes/verify'));
+const WhyNoFigsRoute = lazyPage(() => import('./routes/why-no-figs'));
+const AccuracyRoute = lazyPage(() => import('./routes/accuracy'));
+const SupportRoute = lazyPage(() => import('./routes/support'));
+const SupportThanksRoute = lazyPage(() => import('./routes/support-thanks'));
+const EditorsSupportersRoute = lazyPage(() => import('./routes/editors-supporters'));
+const VarietyRoute = lazyPage(() => import('./routes/variety'));
+const HereCompareRoute = lazyPage(() => import('./routes/here-compare'));
 
 /** Every page of the client. Route files stay thin: they compose features. */
 export const routes = [

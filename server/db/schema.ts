@@ -550,3 +550,19 @@ export const modelAccuracy = sqliteTable('model_accuracy', {
   /** The ModelAccuracy answer (shared/schemas/accuracy.ts) as JSON. */
   body: text('body').notNull(),
 });
+
+/** The id a phone gave a report it sent from its outbox (drizzle/0019): a re-send gets the stored report back. */
+export const reportClientIds = sqliteTable(
+  'report_client_ids',
+  {
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    clientId: text('client_id').notNull(),
+    reportId: integer('report_id')
+      .notNull()
+      .references(() => reports.id, { onDelete: 'cascade' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.clientId] }), index('report_client_ids_report').on(t.reportId)],
+);

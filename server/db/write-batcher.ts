@@ -1,5 +1,6 @@
 import type { Db } from './client';
 import { perDb } from './prepared';
+import { writeBatchesTotal, writeBatchItems } from '../ops/metrics';
 
 /*
  * Group commit. Each write transaction ends in a COMMIT that appends every page it touched to the
@@ -79,6 +80,8 @@ export function createWriteBatcher(db: Db, { maxItems = 64 }: { maxItems?: numbe
     }
     stats.batches++;
     stats.items += batch.length;
+    writeBatchesTotal.inc({ outcome: failure ? 'failed' : 'committed' });
+    writeBatchItems.observe(batch.length);
 
     batch.forEach((item, i) => {
       const outcome = outcomes[i];

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Db } from '../db/client';
 import { ensureJob, finishJob, leaseJob } from './jobs.repo';
+import { jobRunDuration, jobRunsTotal, secondsSince } from '../ops/metrics';
 
 export interface JobDefinition<S = unknown> {
   name: string;
@@ -39,6 +40,7 @@ export function createScheduler(db: Db, definitions: JobDefinition<any>[], optio
       if (!row) continue;
       let lastError: string | null = null;
       let state = row.state;
+      const start = performance.now();
       try {
         const result = await job.run({ now, state: row.state ?? null });
         if (result !== undefined) state = result;
@@ -46,6 +48,8 @@ export function createScheduler(db: Db, definitions: JobDefinition<any>[], optio
         lastError = err instanceof Error ? err.message : String(err);
         console.error(`job ${job.name} failed:`, err);
       }
+      jobRunDuration.observe({ job: job.name }, secondsSince(start));
+      jobRunsTotal.inc({ job: job.name, outcome: lastError === null ? 'ok' : 'failed' });
       finishJob(db, job.name, owner, { nextRunAt: now.getTime() + job.everyMs, lastRunAt: now.toISOString(), lastError, state });
       ran.push(job.name);
     }

@@ -35,6 +35,10 @@ export interface Config {
   devPayments: boolean;
   /** Its port; 0 picks a free one. */
   devPaymentsPort: number;
+  /** Request log level (pino): `info` logs every request; `silent` in tests. */
+  logLevel: string;
+  /** Lets /metrics answer a scraper that is not on this machine (`Authorization: Bearer <token>`). */
+  metricsToken?: string;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -66,5 +70,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     payments: { secretKey: env.STRIPE_SECRET_KEY || undefined, webhookSecret: env.STRIPE_WEBHOOK_SECRET || undefined },
     devPayments: env.SYCONIUM_DEV_PAYMENTS ? env.SYCONIUM_DEV_PAYMENTS === 'true' : mode !== 'production',
     devPaymentsPort: Number(env.SYCONIUM_DEV_PAYMENTS_PORT ?? 0),
+    logLevel: env.LOG_LEVEL ?? (mode === 'test' ? 'silent' : 'info'),
+    metricsToken: env.SYCONIUM_METRICS_TOKEN || undefined,
   };
 }

@@ -1,3 +1,4 @@
+import { secondsSince, snapshotRebuildDuration } from '../ops/metrics';
 /*
  * Values computed from the whole atlas (pin indexes, the tree snapshot), kept in memory per key and
  * valid for one data version: checking one costs an O(1) version read per request.
@@ -71,7 +72,9 @@ export function createRebuildingCache<K, V, W extends { close: () => Promise<voi
 
   const computeHere = (id: string, key: K): Entry<V> => {
     const readAt = now();
+    const start = performance.now();
     const { version, value, large } = options.computeHere(key);
+    snapshotRebuildDuration.observe({ cache: options.name, thread: 'request' }, secondsSince(start));
     if (large && options.worker !== false) offThread = true;
     return store(id, { version, value, readAt });
   };
@@ -81,9 +84,13 @@ export function createRebuildingCache<K, V, W extends { close: () => Promise<voi
     if (inFlight) return inFlight;
     const readAt = now();
     worker ??= options.startWorker();
+    const start = performance.now();
     const promise = options
       .computeInWorker(key, worker)
-      .then(({ version, value }) => store(id, { version, value, readAt }))
+      .then(({ version, value }) => {
+        snapshotRebuildDuration.observe({ cache: options.name, thread: 'worker' }, secondsSince(start));
+        return store(id, { version, value, readAt });
+      })
       .catch((error: unknown) => {
         console.error(`The ${options.name} worker thread failed; computing it in the request thread:`, error);
         void worker?.close();

@@ -439,3 +439,13 @@ export function findPhotoByFile(db: Db, name: string): { report: ReportRow } | u
   return report ? { report } : undefined;
 }
 
+
+/** The report a grower's outbox already sent under this id, if any (drizzle/0019). */
+export function reportIdForClientId(db: Db, userId: number, clientId: string): number | undefined {
+  const row = db.sqlite.prepare('SELECT report_id AS reportId FROM report_client_ids WHERE user_id = ? AND client_id = ?').get(userId, clientId) as { reportId: number } | undefined;
+  return row?.reportId;
+}
+
+export function rememberClientId(db: Db, userId: number, clientId: string, reportId: number): void {
+  db.sqlite.prepare('INSERT INTO report_client_ids (user_id, client_id, report_id, created_at) VALUES (?, ?, ?, ?)').run(userId, clientId, reportId, new Date().toISOString());
+}

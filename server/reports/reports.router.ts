@@ -64,7 +64,10 @@ import {
   toReport,
   updateReportRow,
   type ReportRow,
+  reportIdForClientId,
+  rememberClientId,
 } from './reports.repo';
+import { reportClientIdInputSchema } from '../../shared/schemas/report-outbox';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const photoParamsSchema = z.object({ id: z.coerce.number().int().positive(), photoId: z.coerce.number().int().positive() });
@@ -173,18 +176,28 @@ export function createReportsRouter({ db, config, photoUploadLimit = PHOTO_UPLOA
 
   router.post('/', requireSignedIn, async (req, res) => {
     const input = createReportInputSchema.parse(req.body);
+    const { clientId } = reportClientIdInputSchema.parse(req.body);
     const user = req.user!;
     const status = user.emailVerified ? 'published' : 'draft';
     // Group commit: posts of the same event-loop turn share one transaction, each in its own
     // savepoint (a refused post rolls back alone); the answer waits for the shared COMMIT.
     const report = await writeBatcher(db).run(() => {
+      // A re-send from the outbox (same grower, same clientId): the report stored the first time.
+      const sentBefore = clientId ? reportIdForClientId(db, user.id, clientId) : undefined;
+      if (sentBefore !== undefined) return { resent: sentBefore };
       const variety = resolveVariety(db, input, user.id);
       const tree = resolveTree(db, user.id, input.treeId, input.newTreeLabel, variety.name);
       const now = new Date().toISOString();
       const created = insertReport(db, { ...reportColumns(input), userId: user.id, treeId: tree.id, varietyId: variety.varietyId, proposedVarietyName: variety.proposedVarietyName, status, publishedAt: status === 'published' ? now : null, createdAt: now, updatedAt: now, updatedById: user.id });
       recordAudit(db, { actorId: user.id, action: 'report.create', entityType: 'report', entityId: created.id, after: created });
+      if (clientId) rememberClientId(db, user.id, clientId, created.id);
       return toNewReport(db, created, user, { variety: variety.ref, treeLabel: tree.label });
     });
+    if ('resent' in report) {
+      const stored = findReportRow(db, report.resent)!;
+      res.status(200).json(reportResponseSchema.parse({ report: toReport(db, stored, user), notice: stored.status === 'draft' ? DRAFT_NOTICE : undefined }));
+      return;
+    }
     res.status(201).json(reportResponseSchema.parse({ report, notice: status === 'draft' ? DRAFT_NOTICE : undefined }));
   });
 

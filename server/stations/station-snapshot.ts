@@ -3,6 +3,7 @@ import type { LatLon } from '../../shared/domain/geo';
 import type { StationSeason } from '../../shared/domain/season-estimate';
 import type { Db } from '../db/client';
 import { stationsDataVersion } from '../db/data-version';
+import { secondsSince, snapshotRebuildDuration } from '../ops/metrics';
 import { idsInRadiusBoxes } from '../lib/kdbush-radius';
 import { allNormalsStations, type NormalsSnapshotRow } from '../normals/normals.repo';
 import { allStationSeasons, type DailyStationSeason } from './stations.repo';
@@ -115,7 +116,9 @@ export function currentStationSnapshot(db: Db): StationSnapshot {
   const version = stationsDataVersion(db);
   const kept = snapshots.get(db);
   if (kept?.version === version) return kept;
+  const start = performance.now();
   const snapshot = readStationSnapshot(db);
+  snapshotRebuildDuration.observe({ cache: 'stations', thread: 'request' }, secondsSince(start));
   // Read inside an open transaction, it may hold rows that are rolled back, with the counter, to
   // a version a later change reaches again: use it for this call only.
   if (!db.sqlite.inTransaction) snapshots.set(db, snapshot);

@@ -3,6 +3,7 @@ import { NavLink, Outlet, useLocation, useNavigate } from 'react-router';
 import { LABELS } from '@shared/domain/codes';
 import { hasRole, useCurrentUser, useSignOut } from '../features/auth/api';
 import { VerifyBanner } from '../features/email/components/verify-banner';
+import { OutboxStatus } from '../features/report-outbox/components/outbox-status';
 import { Logo } from './logo';
 import { UnitsControl, UnitsMenu } from '../features/units/components/units-control';
 
@@ -116,6 +117,7 @@ export function AppShell() {
         )}
       </header>
       <VerifyBanner />
+      <OutboxStatus />
       {/* Pages scroll inside themselves; clipping here stops a visually hidden table caption from widening the whole page on a phone. */}
       <main className="relative min-h-0 flex-1 overflow-hidden">
         <Outlet />

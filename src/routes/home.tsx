@@ -1,14 +1,25 @@
 import { useQuery } from '@tanstack/react-query';
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { lazy, Suspense, useCallback, useEffect, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router';
 import type { PinFilters } from '@shared/schemas/pins';
 import { useCurrentUser } from '../features/auth/api';
 import { mapQueries } from '../features/map/api';
-import { AtlasMap, type AtlasMapHandle } from '../features/map/components/atlas-map';
+import type { AtlasMapHandle } from '../features/map/components/atlas-map';
+import { PinPreview } from '../features/map/components/pin-preview';
+import { workerUrl } from '../features/map/worker-url';
 import { FiltersPanel } from '../features/map/components/filters-panel';
 import { MapLegend } from '../features/map/components/map-legend';
 import { PlaceSearch } from '../features/map/components/place-search';
 import { atlasUrlParams, DEFAULT_VIEW, parseAtlasUrl, type AtlasUrlState, type MapView, type OverlayName } from '../features/map/url-state';
+
+// MapLibre is most of the first visit's bytes: the page (filters, search, a preview of the pins)
+// draws without it, and its chunk starts downloading as soon as this module runs.
+const loadAtlasMap = () => import('../features/map/components/atlas-map');
+void loadAtlasMap();
+// MapLibre's worker script is otherwise asked for only once the map exists: fetched alongside, it is
+// then read from the HTTP cache (hashed name, cached for good).
+void fetch(workerUrl).then((answer) => answer.arrayBuffer(), () => undefined);
+const AtlasMap = lazy(() => loadAtlasMap().then((m) => ({ default: m.AtlasMap })));
 
 /** The home screen: the atlas map under the header, its filters beside it, all kept in the URL. */
 export default function HomeRoute() {
@@ -88,7 +99,10 @@ export default function HomeRoute() {
           )}
           <PlaceSearch onGo={goTo} />
         </div>
-        <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} home={home.data} />
+        <PinPreview view={initialView} filters={state.filters} />
+        <Suspense>
+          <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} home={home.data} />
+        </Suspense>
         <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
           <MapLegend overlays={state.layers} openAtStart={panelOpen} />
         </div>

@@ -1,22 +1,11 @@
-import { chromium, type Browser, type BrowserContextOptions, type Page } from 'playwright-core';
-import { afterAll, beforeAll } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
+import { afterAll, beforeAll, inject } from 'vitest';
+import { CHROMIUM_ARGS } from '../../scripts/ensure-chromium';
 import { startTempServer, type TempServer } from '../helpers/temp-server';
 
-/** Chromium from Debian's package, never a downloaded browser. */
-const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-  '--disable-quic',
-];
-
 function launchBrowser(): Promise<Browser> {
-  return chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS });
+  // Chromium from Debian's package, never a downloaded browser: global-setup.ts found (or installed) it.
+  return chromium.launch({ executablePath: inject('chromiumPath'), headless: true, args: CHROMIUM_ARGS });
 }
 
 /** The real server and a browser for the tests of one describe block. */
@@ -24,6 +13,8 @@ export interface Site {
   /** The server's address, e.g. http://127.0.0.1:41234. */
   readonly url: string;
   newPage: (options?: BrowserContextOptions) => Promise<Page>;
+  /** A context of its own (one "phone"): its pages share storage, so a page can close and another reopen it. */
+  newContext: (options?: BrowserContextOptions) => Promise<BrowserContext>;
 }
 
 /**
@@ -45,6 +36,7 @@ export function openSite(env: Record<string, string> = {}): Site {
       return server!.process.url;
     },
     newPage: (options) => browser!.newPage(options),
+    newContext: (options) => browser!.newContext(options),
   };
 }
 

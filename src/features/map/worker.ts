@@ -1,5 +1,5 @@
 import { setWorkerUrl } from 'maplibre-gl';
-import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
+import { workerUrl } from './worker-url';
 
 // After bundling, MapLibre cannot find its worker by itself ("Worker failed to load"): point it at
 // the worker file Vite emitted, before the first map is created. Importing this module does that.

@@ -6,7 +6,6 @@ import {
   reportListSchema,
   reportResponseSchema,
   treeListSchema,
-  type CreateReportValues,
   type ReportFilter,
   type ReportListQuery,
   type UpdateReportInput,
@@ -47,7 +46,6 @@ function useReportMutation<TInput, TOutput>(mutationFn: (input: TInput) => Promi
   return useMutation({ mutationFn, onSuccess: () => queryClient.invalidateQueries({ queryKey: reportQueries.all }) });
 }
 
-export const useCreateReport = () => useReportMutation((input: CreateReportValues) => apiFetch('/api/reports', reportResponseSchema, { method: 'POST', json: input }));
 export const useUpdateReport = () =>
   useReportMutation(({ id, ...patch }: UpdateReportInput & { id: number }) => apiFetch(`/api/reports/${id}`, reportResponseSchema, { method: 'PATCH', json: patch }));
 export const useDeleteReport = () => useReportMutation((id: number) => apiFetch(`/api/reports/${id}`, z.undefined(), { method: 'DELETE' }));

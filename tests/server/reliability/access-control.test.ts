@@ -49,6 +49,9 @@ const cell = () => `lat=${snapToGrid(EXACT_LAT)}&lon=${snapToGrid(EXACT_LON)}`;
 
 const CASES: Case[] = [
   { route: 'GET /api/health', expected: everyone(200), call: () => get('/api/health') },
+  { route: 'GET /api/health/live', expected: everyone(200), call: () => get('/api/health/live') },
+  { route: 'GET /api/health/ready', expected: everyone(200), note: 'no data in it: ok and the database state', call: () => get('/api/health/ready') },
+  { route: 'GET /metrics', expected: everyone(200), note: 'from loopback (the test client); from outside only with SYCONIUM_METRICS_TOKEN (tests/server/ops.test.ts)', call: () => get('/metrics') },
   { route: 'GET /api/auth/me', expected: everyone(200), call: () => get('/api/auth/me') },
   { route: 'POST /api/auth/sign-up', fresh: true, expected: everyone(202), call: () => ({ method: 'post', path: '/api/auth/sign-up', body: { email: `${uniqueName('new').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: 'New grower' } }) },
   { route: 'POST /api/auth/sign-in', fresh: true, expected: everyone(200), call: (w) => ({ method: 'post', path: '/api/auth/sign-in', body: { email: w.emails.signInTarget, password: TEST_PASSWORD } }) },

@@ -22,6 +22,7 @@ import {
 } from '../layers';
 import { provideRingImages } from '../pin-rings';
 import { registerSeasonProtocol, SEASON_SOURCE, seasonSurfaceValueAt } from '../season-surface';
+import { estimateViewport, type Viewport } from '../first-view';
 import { createBaseStyle } from '../style';
 import { toBbox, type MapView, type OverlayName } from '../url-state';
 import { MapDetails } from './map-details';
@@ -50,11 +51,6 @@ interface AtlasMapProps {
   home?: { lat: number; lon: number; name: string } | null;
 }
 
-interface Viewport {
-  bbox: string;
-  zoom: number;
-}
-
 function viewportOf(map: MapLibreMap): Viewport {
   const b = map.getBounds();
   return { bbox: toBbox(b.getWest(), b.getSouth(), b.getEast(), b.getNorth()), zoom: Math.floor(map.getZoom()) };
@@ -67,7 +63,8 @@ function viewportOf(map: MapLibreMap): Viewport {
 export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function AtlasMap({ initialView, filters, overlays, onViewChange, onTotalChange, home }, ref) {
   const units = useUnits();
   const mapRef = useRef<MapRef>(null);
-  const [viewport, setViewport] = useState<Viewport | null>(null);
+  // Until the map has loaded, the window's estimate: the pins main.tsx asked for at start-up.
+  const [viewport, setViewport] = useState<Viewport | null>(() => estimateViewport(initialView, window.innerWidth, window.innerHeight));
   const [popup, setPopup] = useState<PopupState | null>(null);
   const [cursor, setCursor] = useState<string>('');
   const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);

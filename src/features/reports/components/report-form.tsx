@@ -1,12 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useQuery } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, PLANT_ORIGINS } from '@shared/domain/codes';
 import { NOTES_MAX, PHOTOS_PER_REPORT, createReportInputSchema, type CreateReportInput, type CreateReportValues, type Report } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
-import { reportQueries, useCreateReport, useDeletePhoto, useUpdateReport, useUploadPhotos } from '../api';
+import { reportQueries, useDeletePhoto, useUpdateReport, useUploadPhotos } from '../api';
+import { useCurrentUser } from '../../auth/api';
+import { submitNewReport } from '../../report-outbox/send';
 import { ChoiceGroup, FormSection, choiceClass } from './fields';
 import { Field, FormField, inputClass, useFocusFirstInvalid } from '../../../components/form-field';
 import { PhotoPicker, checkPhotoFiles } from './photo-picker';
@@ -88,7 +90,7 @@ export interface SavedResult {
 }
 
 /** Post a new harvest report, or edit one: validated with the same schema the server uses. */
-export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (result: SavedResult) => void }) {
+export function ReportForm({ report, onSaved, onKept }: { report?: Report; onSaved: (result: SavedResult) => void; /** A new report kept on the phone (no connection). */ onKept?: () => void }) {
   const editing = !!report;
   const form = useForm<CreateReportInput, unknown, CreateReportValues>({
     resolver: zodResolver(createReportInputSchema),
@@ -102,7 +104,8 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
   const errorCount = Object.keys(errors).length;
   useFocusFirstInvalid(formRef, { submitCount: formState.submitCount, isSubmitting: formState.isSubmitting, hasErrors: errorCount > 0 });
   const trees = useQuery(reportQueries.trees());
-  const create = useCreateReport();
+  const queryClient = useQueryClient();
+  const { user } = useCurrentUser();
   const update = useUpdateReport();
   const upload = useUploadPhotos();
   const deletePhoto = useDeletePhoto();
@@ -141,21 +144,39 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
     if (tree.lastYearPlanted) setValue('yearPlanted', tree.lastYearPlanted);
   };
 
+  const showRefusal = (error: unknown) => {
+    if (error instanceof ApiError && Object.keys(error.fields).length) {
+      for (const [field, messages] of Object.entries(error.fields)) form.setError(field as keyof CreateReportInput, { message: messages[0] });
+      setFormError(error.message);
+    } else {
+      setFormError(error instanceof Error ? error.message : 'The report could not be saved');
+    }
+  };
+
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     const fileProblem = checkPhotoFiles(files, PHOTOS_PER_REPORT - existingPhotos.length);
     if (fileProblem) return setPhotoError(fileProblem);
+    if (!report) {
+      // A new report goes through the phone's outbox: kept first, sent now or when the signal returns.
+      try {
+        const outcome = await submitNewReport(user!.id, values, files, setProgress);
+        if (outcome.kind === 'refused') return showRefusal(outcome.error);
+        if (outcome.kind === 'kept') return onKept?.();
+        await queryClient.invalidateQueries({ queryKey: reportQueries.all });
+        return onSaved({ id: outcome.id, notice: outcome.notice, photoError: outcome.photoError });
+      } catch (error) {
+        return showRefusal(error);
+      } finally {
+        setProgress(null);
+      }
+    }
     let saved: { id: number; notice?: string };
     try {
-      const result = report ? await update.mutateAsync({ id: report.id, ...values }) : await create.mutateAsync(values);
+      const result = await update.mutateAsync({ id: report.id, ...values });
       saved = { id: result.report.id, notice: result.notice };
     } catch (error) {
-      if (error instanceof ApiError && Object.keys(error.fields).length) {
-        for (const [field, messages] of Object.entries(error.fields)) form.setError(field as keyof CreateReportInput, { message: messages[0] });
-        setFormError(error.message);
-      } else {
-        setFormError(error instanceof Error ? error.message : 'The report could not be saved');
-      }
+      showRefusal(error);
       return;
     }
     let uploadProblem: string | undefined;
@@ -172,7 +193,7 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
     onSaved({ ...saved, photoError: uploadProblem });
   });
 
-  const busy = formState.isSubmitting || create.isPending || update.isPending || upload.isPending;
+  const busy = formState.isSubmitting || update.isPending || upload.isPending;
 
   return (
     <form ref={formRef} noValidate className="flex flex-col gap-6" onSubmit={onSubmit} aria-label={editing ? 'Edit report' : 'New report'}>
