@@ -86,7 +86,7 @@ export default function HomeRoute() {
               Filters &amp; layers
             </button>
           )}
-          <PlaceSearch onGo={goTo} />
+          <PlaceSearch onGo={goTo} center={state.view ?? initialView} />
         </div>
         <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} />
         <div className="pointer-events-none absolute bottom-3 left-3 pr-28">

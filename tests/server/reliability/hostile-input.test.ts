@@ -206,7 +206,7 @@ describe('random query strings on every route that reads a query', () => {
     { path: '/api/guidance/ripe-dates', keys: ['varietyId', 'lat', 'lon', 'radiusKm', 'crop'], role: 'visitor' },
     { path: '/api/guidance/season-success', keys: ['form', 'crop', 'varietyId', 'binDays'], role: 'visitor' },
     { path: '/api/guidance/short-season', keys: ['seasonDays', 'form', 'toleranceDays'], role: 'visitor' },
-    { path: '/api/places', keys: ['q', 'limit'], role: 'visitor' },
+    { path: '/api/places', keys: ['q', 'limit', 'near'], role: 'visitor' },
     { path: '/api/reports', keys: ['mine', 'status', 'q', 'page', 'pageSize', 'sort', 'varietyId', 'season', 'outcome'], role: 'owner' },
     { path: '/api/reports/export.csv', keys: ['varietyId', 'season', 'outcome', 'crop'], role: 'visitor' },
     { path: '/api/varieties', keys: ['q', 'status', 'figType'], role: 'visitor' },

@@ -8,6 +8,7 @@ import { Button } from '../../../components/button';
 import { SortableTableHead } from '../../../components/sortable-table-head';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
+import { countOf } from '@shared/domain/plural';
 
 const column = createColumnHelper<ReportListItem>();
 const STATUS_LABEL = { published: 'Published', draft: 'Draft', hidden: 'Hidden by an editor' } as const;
@@ -165,7 +166,7 @@ export function MyReportsTable() {
           )}
           <span>
             {pages > 1 && `Page ${page} of ${pages} · `}
-            {total} report{total === 1 ? '' : 's'}
+            {countOf(total, 'report')}
           </span>
           {pages > 1 && (
             <Button variant="secondary" disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>

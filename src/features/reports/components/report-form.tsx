@@ -10,8 +10,10 @@ import { reportQueries, useCreateReport, useDeletePhoto, useUpdateReport, useUpl
 import { ChoiceGroup, FormSection, choiceClass } from './fields';
 import { Field, FormField, inputClass, useFocusFirstInvalid } from '../../../components/form-field';
 import { PhotoPicker, checkPhotoFiles } from './photo-picker';
-import { PlaceSearch } from './place-search';
+import { WherePicker } from './where-picker';
+import { useHomePlace } from '../../places/api';
 import { VarietyPicker } from './variety-picker';
+import { countOf } from '@shared/domain/plural';
 
 const MiniMap = lazy(() => import('./mini-map'));
 
@@ -83,6 +85,9 @@ function valuesOf(report: Report): CreateReportInput {
 
 export interface SavedResult {
   id: number;
+  /** A new report (posted) or a change to one (saved). */
+  action: 'posted' | 'saved';
+  status?: Report['status'];
   notice?: string;
   photoError?: string;
 }
@@ -102,6 +107,7 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
   const errorCount = Object.keys(errors).length;
   useFocusFirstInvalid(formRef, { submitCount: formState.submitCount, isSubmitting: formState.isSubmitting, hasErrors: errorCount > 0 });
   const trees = useQuery(reportQueries.trees());
+  const home = useHomePlace();
   const create = useCreateReport();
   const update = useUpdateReport();
   const upload = useUploadPhotos();
@@ -145,10 +151,10 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
     setFormError(null);
     const fileProblem = checkPhotoFiles(files, PHOTOS_PER_REPORT - existingPhotos.length);
     if (fileProblem) return setPhotoError(fileProblem);
-    let saved: { id: number; notice?: string };
+    let saved: Omit<SavedResult, 'photoError'>;
     try {
       const result = report ? await update.mutateAsync({ id: report.id, ...values }) : await create.mutateAsync(values);
-      saved = { id: result.report.id, notice: result.notice };
+      saved = { id: result.report.id, notice: result.notice, action: report ? 'saved' : 'posted', status: result.report.status };
     } catch (error) {
       if (error instanceof ApiError && Object.keys(error.fields).length) {
         for (const [field, messages] of Object.entries(error.fields)) form.setError(field as keyof CreateReportInput, { message: messages[0] });
@@ -183,7 +189,7 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
               <option value="">A new tree</option>
               {trees.data?.trees.map((tree) => (
                 <option key={tree.id} value={tree.id}>
-                  {tree.label} ({tree.reportCount} report{tree.reportCount === 1 ? '' : 's'})
+                  {tree.label} ({countOf(tree.reportCount, 'report')})
                 </option>
               ))}
             </select>
@@ -216,22 +222,24 @@ export function ReportForm({ report, onSaved }: { report?: Report; onSaved: (res
       </FormSection>
 
       <FormSection title="Where it grows" intro="Your exact spot stays private: only you and the editors see it. Everyone else sees the report on a grid of about 5 km.">
-        <PlaceSearch
-          onPick={(place) => {
+        <WherePicker
+          onPlace={(place) => {
             setValue('lat', Math.round(place.lat * 1e5) / 1e5, { shouldValidate: true });
             setValue('lon', Math.round(place.lon * 1e5) / 1e5, { shouldValidate: true });
+            if (place.form && !editing) setValue('form', place.form);
             setMapKey((k) => k + 1);
           }}
         />
         <div className="flex flex-col gap-1">
           <Suspense fallback={<div className="h-64 rounded-lg bg-leaf-100/50" />}>
             <MiniMap
-              key={mapKey}
+              key={`${mapKey}-${home?.id ?? 0}`}
               className="h-64"
               label="Click where the tree stands"
               lat={typeof lat === 'number' && Number.isFinite(lat) ? lat : null}
               lon={typeof lon === 'number' && Number.isFinite(lon) ? lon : null}
               zoom={11}
+              startAt={home}
               onPick={(point) => {
                 setValue('lat', point.lat, { shouldValidate: formState.isSubmitted });
                 setValue('lon', point.lon, { shouldValidate: formState.isSubmitted });
