@@ -1,5 +1,6 @@
 import { createBrowserRouter } from 'react-router';
 import { AppShell } from './components/app-shell';
+import AboutRoute from './routes/about';
 import AccountRoute from './routes/account';
 import DevMailRoute from './routes/dev-mail';
 import EditorsRoute from './routes/editors';
@@ -32,6 +33,7 @@ export const routes = [
     element: <AppShell />,
     children: [
       { index: true, element: <HomeRoute /> },
+      { path: 'about', element: <AboutRoute /> },
       { path: 'sign-in', element: <SignInRoute /> },
       { path: 'sign-up', element: <SignUpRoute /> },
       { path: 'account', element: <AccountRoute /> },

@@ -56,7 +56,7 @@ export function createAuthRouter({ db, passport, signInLimit, onSignedUp }: Auth
         email: ['An account with this e-mail already exists'],
       });
     }
-    const row = insertUser(db, { email: input.email, displayName: input.displayName, passwordHash: await hashPassword(input.password) });
+    const row = insertUser(db, { email: input.email, displayName: input.displayName, passwordHash: await hashPassword(input.password), dataLicenceAgreedAt: new Date().toISOString() });
     const user = toCurrentUser(row);
     await logIn(req, user);
     await onSignedUp?.(user);

@@ -35,6 +35,8 @@ export const users = sqliteTable('users', {
   role: text('role', { enum: ROLES }).notNull().default('grower'),
   emailVerifiedAt: text('email_verified_at'),
   isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+  /** When the grower agreed to share published reports under the data licence (shared/domain/data-licence.ts); null = never. */
+  dataLicenceAgreedAt: text('data_licence_agreed_at'),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });

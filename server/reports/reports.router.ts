@@ -64,6 +64,7 @@ import {
   updateReportRow,
   type ReportRow,
 } from './reports.repo';
+import { setLicenceHeaders } from '../lib/data-licence-headers';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const photoParamsSchema = z.object({ id: z.coerce.number().int().positive(), photoId: z.coerce.number().int().positive() });
@@ -134,11 +135,13 @@ export function createReportsRouter({ db, config }: { db: Db; config: Config }):
   router.get('/export.csv', (req, res) => {
     const rows = exportPublicRows(db, reportFilterSchema.parse(req.query));
     const csv = Papa.unparse({ fields: EXPORT_COLUMNS, data: rows.map((row) => EXPORT_COLUMNS.map((column) => row[column])) }, { escapeFormulae: true });
+    setLicenceHeaders(res);
     res.type('text/csv; charset=utf-8').attachment('syconium-reports.csv').send(`${csv}\n`);
   });
 
   router.get('/export.geojson', (req, res) => {
     const rows = exportPublicRows(db, reportFilterSchema.parse(req.query));
+    setLicenceHeaders(res);
     res.type('application/geo+json').attachment('syconium-reports.geojson').send(JSON.stringify(publicRowsToGeoJson(rows)));
   });
 

@@ -32,9 +32,11 @@ export function findUserById(db: Db, id: number): UserRow | undefined {
 
 export function insertUser(
   db: Db,
-  values: { email: string; displayName: string; passwordHash: string; role?: Role; emailVerifiedAt?: string | null; isDemo?: boolean },
+  values: { email: string; displayName: string; passwordHash: string; role?: Role; emailVerifiedAt?: string | null; isDemo?: boolean; dataLicenceAgreedAt?: string | null },
 ): UserRow {
-  return db.insert(users).values({ ...values, email: values.email.toLowerCase() }).returning().get();
+  // Demo accounts are invented: they count as having agreed to the data licence.
+  const dataLicenceAgreedAt = values.dataLicenceAgreedAt ?? (values.isDemo ? new Date().toISOString() : null);
+  return db.insert(users).values({ ...values, email: values.email.toLowerCase(), dataLicenceAgreedAt }).returning().get();
 }
 
 export function listUsers(db: Db): UserRow[] {

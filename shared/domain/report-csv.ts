@@ -4,6 +4,7 @@
  * Pure: the server imports and exports with it, the client shows the column list and the template.
  */
 import type { Crop, FigType, GrowingForm, Outcome, PlantOrigin } from './codes';
+import { DATA_LICENCE, DATA_LICENCE_NOTICE } from './data-licence';
 
 export interface CsvColumn {
   name: string;
@@ -140,6 +141,10 @@ export const EXPORT_COLUMNS: (keyof PublicReportRow)[] = [
 export function publicRowsToGeoJson(rows: PublicReportRow[]) {
   return {
     type: 'FeatureCollection' as const,
+    // Foreign members (RFC 7946 §6.1): the licence and credit travel with the file.
+    licence: { name: DATA_LICENCE.name, title: DATA_LICENCE.title, url: DATA_LICENCE.url },
+    attribution: DATA_LICENCE.attribution,
+    notice: DATA_LICENCE_NOTICE,
     features: rows.map(({ gridLat, gridLon, ...properties }) => ({
       type: 'Feature' as const,
       id: properties.reportId,

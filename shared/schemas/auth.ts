@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ROLES } from '../domain/codes';
+import { DATA_LICENCE } from '../domain/data-licence';
 
 export const emailSchema = z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' }).max(254));
 
@@ -12,6 +13,8 @@ export const signUpInputSchema = z.object({
   email: emailSchema,
   displayName: z.string().trim().min(2, { message: 'Use at least 2 characters' }).max(60, { message: 'Use at most 60 characters' }),
   password: passwordSchema,
+  /** The grower agrees that their published reports are open data under DATA_LICENCE (required to join). */
+  acceptDataLicence: z.literal(true, { message: `Agree to share your published reports under ${DATA_LICENCE.name} to join` }),
 });
 export type SignUpInput = z.infer<typeof signUpInputSchema>;
 

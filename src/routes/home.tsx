@@ -50,30 +50,9 @@ export default function HomeRoute() {
 
   return (
     <div className="absolute inset-0 flex">
-      <aside
-        id="atlas-filters"
-        aria-label="Filters and layers"
-        className={`${panelOpen ? 'flex' : 'hidden'} absolute inset-y-0 left-0 z-10 w-[min(20rem,88vw)] flex-col border-r border-fig-100 bg-paper shadow-lg md:static md:shadow-none`}
-      >
-        <div className="flex items-center justify-between border-b border-fig-100 px-4 py-3">
-          <h1 className="text-base font-semibold text-fig-900">What ripens where</h1>
-          <button type="button" onClick={() => setPanelOpen(false)} className="rounded-md px-2 py-1 text-sm text-ink/70 hover:bg-fig-50" aria-controls="atlas-filters">
-            Hide
-          </button>
-        </div>
-        <div className="flex-1 overflow-y-auto px-4 py-4">
-          <FiltersPanel
-            filters={state.filters}
-            overlays={state.layers}
-            totalReports={total}
-            onFiltersChange={(filters: PinFilters) => update({ filters })}
-            onOverlaysChange={(layers: OverlayName[]) => update({ layers })}
-          />
-        </div>
-      </aside>
 
       <section className="relative min-w-0 flex-1" aria-label="Atlas map">
-        {/* Before the map in the page order, so Tab reaches the town search before the map canvas. */}
+        {/* Before the map canvas in the page order, so Tab reaches the town search first. */}
         <div className="pointer-events-none absolute inset-x-0 top-0 z-[5] flex items-start gap-2 p-3 pr-14">
           {!panelOpen && (
             <button
@@ -93,6 +72,28 @@ export default function HomeRoute() {
           <MapLegend overlays={state.layers} openAtStart={panelOpen} />
         </div>
       </section>
+      {/* After the map in the page order (shown on its left), so Tab reaches the town search and the map before the filters. */}
+      <aside
+        id="atlas-filters"
+        aria-label="Filters and layers"
+        className={`${panelOpen ? 'flex' : 'hidden'} absolute inset-y-0 left-0 z-10 md:order-first w-[min(20rem,88vw)] flex-col border-r border-fig-100 bg-paper shadow-lg md:static md:shadow-none`}
+      >
+        <div className="flex items-center justify-between border-b border-fig-100 px-4 py-3">
+          <h1 className="text-base font-semibold text-fig-900">What ripens where</h1>
+          <button type="button" onClick={() => setPanelOpen(false)} className="rounded-md px-2 py-1 text-sm text-ink/70 hover:bg-fig-50" aria-controls="atlas-filters">
+            Hide
+          </button>
+        </div>
+        <div className="flex-1 overflow-y-auto px-4 py-4">
+          <FiltersPanel
+            filters={state.filters}
+            overlays={state.layers}
+            totalReports={total}
+            onFiltersChange={(filters: PinFilters) => update({ filters })}
+            onOverlaysChange={(layers: OverlayName[]) => update({ layers })}
+          />
+        </div>
+      </aside>
     </div>
   );
 }

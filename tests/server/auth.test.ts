@@ -6,7 +6,7 @@ describe('accounts', () => {
   it('signs up, says who I am, signs out', async () => {
     const { agent } = createTestContext();
     const a = agent();
-    const signUp = await a.post('/api/auth/sign-up').send({ email: 'Ada@Example.com', displayName: 'Ada', password: 'a long enough password' });
+    const signUp = await a.post('/api/auth/sign-up').send({ email: 'Ada@Example.com', displayName: 'Ada', acceptDataLicence: true, password: 'a long enough password' });
     expect(signUp.status).toBe(201);
     expect(signUp.body.user).toMatchObject({ email: 'ada@example.com', role: 'grower', emailVerified: false });
     expect(signUp.headers['set-cookie']?.[0]).toMatch(/HttpOnly/i);
@@ -19,7 +19,7 @@ describe('accounts', () => {
 
   it('stores an argon2 hash, never the password', async () => {
     const { agent, db } = createTestContext();
-    await agent().post('/api/auth/sign-up').send({ email: 'b@example.com', displayName: 'Bea', password: 'another long password' });
+    await agent().post('/api/auth/sign-up').send({ email: 'b@example.com', displayName: 'Bea', acceptDataLicence: true, password: 'another long password' });
     const row = db.select().from(users).get()!;
     expect(row.passwordHash).toMatch(/^\$argon2id\$/);
     expect(row.passwordHash).not.toContain('another long password');
@@ -27,7 +27,7 @@ describe('accounts', () => {
 
   it('rejects a duplicate e-mail, naming the field', async () => {
     const { agent, db } = createTestContext();
-    const body = { email: 'c@example.com', displayName: 'Cy', password: 'a long enough password' };
+    const body = { email: 'c@example.com', displayName: 'Cy', acceptDataLicence: true, password: 'a long enough password' };
     await agent().post('/api/auth/sign-up').send(body);
     const again = await agent().post('/api/auth/sign-up').send({ ...body, email: 'C@EXAMPLE.COM' });
     expect(again.status).toBe(409);
@@ -78,7 +78,7 @@ describe('accounts', () => {
 describe('validation and errors', () => {
   it('names each bad field and writes nothing', async () => {
     const { agent, db } = createTestContext();
-    const res = await agent().post('/api/auth/sign-up').send({ email: 'not-an-email', displayName: 'x'.repeat(61), password: 'short' });
+    const res = await agent().post('/api/auth/sign-up').send({ email: 'not-an-email', displayName: 'x'.repeat(61), acceptDataLicence: true, password: 'short' });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_input');
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['displayName', 'email', 'password']);
@@ -94,7 +94,7 @@ describe('validation and errors', () => {
 
   it('answers wrong types with a 400 naming the field', async () => {
     const { agent } = createTestContext();
-    const res = await agent().post('/api/auth/sign-up').send({ email: 42, displayName: ['a'], password: true });
+    const res = await agent().post('/api/auth/sign-up').send({ email: 42, displayName: ['a'], acceptDataLicence: true, password: true });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('email');
     expect(res.body.error.fields).toHaveProperty('displayName');
@@ -109,7 +109,7 @@ describe('validation and errors', () => {
 
   it('refuses a write without the CSRF header', async () => {
     const { agent } = createTestContext();
-    const res = await agent().raw.post('/api/auth/sign-up').send({ email: 'g@example.com', displayName: 'Gus', password: 'a long enough password' });
+    const res = await agent().raw.post('/api/auth/sign-up').send({ email: 'g@example.com', displayName: 'Gus', acceptDataLicence: true, password: 'a long enough password' });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('csrf');
   });

@@ -50,7 +50,7 @@ const cell = () => `lat=${snapToGrid(EXACT_LAT)}&lon=${snapToGrid(EXACT_LON)}`;
 const CASES: Case[] = [
   { route: 'GET /api/health', expected: everyone(200), call: () => get('/api/health') },
   { route: 'GET /api/auth/me', expected: everyone(200), call: () => get('/api/auth/me') },
-  { route: 'POST /api/auth/sign-up', fresh: true, expected: everyone(201), call: () => ({ method: 'post', path: '/api/auth/sign-up', body: { email: `${uniqueName('new').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: 'New grower' } }) },
+  { route: 'POST /api/auth/sign-up', fresh: true, expected: everyone(201), call: () => ({ method: 'post', path: '/api/auth/sign-up', body: { email: `${uniqueName('new').replace(/\W+/g, '-')}@example.com`, acceptDataLicence: true, password: TEST_PASSWORD, displayName: 'New grower' } }) },
   { route: 'POST /api/auth/sign-in', fresh: true, expected: everyone(200), call: (w) => ({ method: 'post', path: '/api/auth/sign-in', body: { email: w.emails.signInTarget, password: TEST_PASSWORD } }) },
   { route: 'POST /api/auth/sign-out', fresh: true, expected: everyone(204), call: () => ({ method: 'post', path: '/api/auth/sign-out' }) },
   { route: 'POST /api/auth/verify', expected: everyone(400), note: 'public: the link may be opened signed out', call: () => ({ method: 'post', path: '/api/auth/verify', body: { token: 'x'.repeat(40) } }) },

@@ -57,7 +57,7 @@ describe('security headers (helmet)', () => {
     const user = await ctx.signedIn('grower');
     const res = await user.raw.get('/api/auth/me');
     expect(res.body.user.id).toBe(user.userId);
-    const signUp = await ctx.agent().post('/api/auth/sign-up').send({ email: `cookie-${Date.now()}@example.com`, password: TEST_PASSWORD, displayName: 'Cookie check' });
+    const signUp = await ctx.agent().post('/api/auth/sign-up').send({ email: `cookie-${Date.now()}@example.com`, acceptDataLicence: true, password: TEST_PASSWORD, displayName: 'Cookie check' });
     expect(signUp.status).toBe(201);
     const cookie = String(signUp.headers['set-cookie']?.[0]);
     expect(cookie).toMatch(/^syconium\.sid=/);

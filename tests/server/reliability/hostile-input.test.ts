@@ -48,7 +48,7 @@ interface WriteRoute {
 
 const REPORT_KEYS = Object.keys(validReportBody(1)).concat(['proposedVarietyName', 'treeId', 'origin', 'yearPlanted', 'firstRipeDate', 'lastHarvestDate', 'springFrostDate', 'fallFrostDate', 'pinched', 'pinchedDate', 'winterProtection', 'feeding', 'watering', 'notes']);
 const JSON_WRITES: WriteRoute[] = [
-  { route: 'POST /api/auth/sign-up', role: 'visitor', method: 'post', path: () => '/api/auth/sign-up', keys: ['email', 'password', 'displayName'] },
+  { route: 'POST /api/auth/sign-up', role: 'visitor', method: 'post', path: () => '/api/auth/sign-up', keys: ['email', 'password', 'displayName', 'acceptDataLicence'] },
   { route: 'POST /api/auth/sign-in', role: 'visitor', method: 'post', path: () => '/api/auth/sign-in', keys: ['email', 'password'] },
   { route: 'POST /api/auth/verify', role: 'visitor', method: 'post', path: () => '/api/auth/verify', keys: ['token'] },
   { route: 'POST /api/auth/forgot', role: 'visitor', method: 'post', path: () => '/api/auth/forgot', keys: ['email'] },
@@ -207,7 +207,7 @@ describe('random query strings on every route that reads a query', () => {
     { path: '/api/guidance/season-success', keys: ['form', 'crop', 'varietyId', 'binDays'], role: 'visitor' },
     { path: '/api/guidance/short-season', keys: ['seasonDays', 'form', 'toleranceDays'], role: 'visitor' },
     { path: '/api/places', keys: ['q', 'limit', 'near'], role: 'visitor' },
-    { path: '/api/reports', keys: ['mine', 'status', 'q', 'page', 'pageSize', 'sort', 'varietyId', 'season', 'outcome'], role: 'owner' },
+    { path: '/api/reports', keys: ['mine', 'status', 'q', 'page', 'pageSize', 'sort', 'varietyId', 'season', 'outcome', 'treeId'], role: 'owner' },
     { path: '/api/reports/export.csv', keys: ['varietyId', 'season', 'outcome', 'crop'], role: 'visitor' },
     { path: '/api/varieties', keys: ['q', 'status', 'figType'], role: 'visitor' },
     { path: '/api/varieties/catalogue', keys: ['q', 'status', 'page', 'pageSize', 'sort'], role: 'editor' },
@@ -520,7 +520,7 @@ describe('injection strings in free text are stored verbatim and returned as dat
       expect(station.status, station.text).toBe(201);
       expect(station.text).toContain(JSON.stringify(payload).slice(1, -1));
 
-      const signUp = await ctx.agent().post('/api/auth/sign-up').send({ email: `${uniqueName('inj').replace(/\W+/g, '-')}@example.com`, password: TEST_PASSWORD, displayName: payload.slice(0, 60) });
+      const signUp = await ctx.agent().post('/api/auth/sign-up').send({ email: `${uniqueName('inj').replace(/\W+/g, '-')}@example.com`, acceptDataLicence: true, password: TEST_PASSWORD, displayName: payload.slice(0, 60) });
       expect(signUp.status, signUp.text).toBe(201);
       expect(signUp.body.user.displayName).toBe(payload.slice(0, 60));
     }
