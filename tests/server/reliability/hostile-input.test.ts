@@ -213,6 +213,7 @@ describe('random query strings on every route that reads a query', () => {
     { path: '/api/varieties/catalogue', keys: ['q', 'status', 'page', 'pageSize', 'sort'], role: 'editor' },
     { path: '/api/wasp-areas/records', keys: ['status', 'page', 'pageSize'], role: 'editor' },
     { path: '/api/moderation/queue', keys: ['kind', 'page', 'pageSize'], role: 'editor' },
+    { path: '/api/users', keys: ['q', 'role', 'page', 'pageSize'], role: 'admin' },
     { path: '/api/audit', keys: ['entityType', 'entityId', 'actorId', 'page', 'pageSize', 'action'], role: 'editor' },
   ];
   for (const route of QUERY_ROUTES) {

@@ -6,6 +6,7 @@ import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, REPORT_STATUSES, type Crop, typ
 import type { ReportListItem, ReportListQuery, ReportSort } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { SortableTableHead } from '../../../components/sortable-table-head';
+import { cardLabel } from '../../../components/table-cards';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
 import { countOf } from '@shared/domain/plural';
@@ -133,14 +134,14 @@ export function MyReportsTable() {
       </div>
 
       <div className="overflow-x-auto rounded-lg border border-fig-100 bg-white">
-        <table className="w-full text-left text-sm">
+        <table className="table-cards w-full text-left text-sm">
           <caption className="sr-only">My reports, {total} in all</caption>
           <SortableTableHead table={table} className="bg-fig-50 text-ink/80" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-50 hover:bg-paper">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="whitespace-nowrap px-3 py-2 align-middle">
+                  <td key={cell.id} className="whitespace-nowrap px-3 py-2 align-middle" data-label={cardLabel(cell.column)}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}
