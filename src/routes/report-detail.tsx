@@ -54,7 +54,7 @@ function SavedConfirmation({ saved }: { saved: SavedResult }) {
         </Link>{' '}
         ·{' '}
         <Link to="/my/reports" className="font-medium text-fig-700 underline">
-          My reports
+          See all your reports
         </Link>
       </p>
     </div>

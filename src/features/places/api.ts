@@ -15,9 +15,9 @@ export interface NearPoint {
   lon: number;
 }
 
-/** The bias point rounded to about 10 km, so panning a little reuses the cached answers. */
+/** The bias point rounded to about 1 km, so panning a little reuses the cached answers. */
 function nearParam(near: NearPoint | null | undefined): string | undefined {
-  return near ? `${near.lat.toFixed(1)},${near.lon.toFixed(1)}` : undefined;
+  return near ? `${near.lat.toFixed(2)},${near.lon.toFixed(2)}` : undefined;
 }
 
 export const placeSearchQueries = {
