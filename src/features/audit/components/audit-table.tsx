@@ -79,13 +79,13 @@ export function ChangeList({ before, after, names = NO_NAMES }: { before: unknow
   const changes = auditChanges(before, after);
   if (changes.length === 0) return <span className="text-ink/70">no field changed</span>;
   return (
-    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-xs">
+    <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-0.5 text-xs">
       {changes.slice(0, 12).map((c) => (
         <div key={c.key} className="contents">
           <dt className="font-medium text-ink/80" title={c.key}>
             {fieldLabel(c.key)}
           </dt>
-          <dd className="break-words">
+          <dd className="[overflow-wrap:anywhere]">
             <del className="text-red-800 decoration-red-800/50">{truncate(valueInWords(c.key, c.before, names))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(valueInWords(c.key, c.after, names))}</ins>
           </dd>
         </div>

@@ -100,15 +100,16 @@ function VarietyRow({ v, near }: { v: VarietyEvidence; near: NearResponse }) {
             {!blocked && <span className="block text-xs text-ink/70">{pollination.main.explanation}</span>}
           </dd>
         </div>
-        {v.medianFirstRipeDoy !== null && (
-          <div className="sm:col-span-2">
-            <button type="button" className="text-sm font-medium text-fig-600 underline" aria-expanded={showDates} onClick={() => setShowDates((s) => !s)}>
-              {showDates ? 'Hide' : 'Show'} first-ripe dates nearby
-            </button>
-            {showDates && <RipeDatesChart varietyId={v.varietyId} lat={near.point.lat} lon={near.point.lon} radiusKm={near.radiusKm} />}
-          </div>
-        )}
       </dl>
+      {/* Outside the list of terms: a <dl> may hold only term and description groups (axe: definition-list). */}
+      {v.medianFirstRipeDoy !== null && (
+        <div className="mt-2">
+          <button type="button" className="text-sm font-medium text-fig-600 underline" aria-expanded={showDates} onClick={() => setShowDates((s) => !s)}>
+            {showDates ? 'Hide' : 'Show'} first-ripe dates nearby
+          </button>
+          {showDates && <RipeDatesChart varietyId={v.varietyId} lat={near.point.lat} lon={near.point.lon} radiusKm={near.radiusKm} />}
+        </div>
+      )}
     </li>
   );
 }
