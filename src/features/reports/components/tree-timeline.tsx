@@ -39,7 +39,7 @@ export function TreeTimeline({ report }: { report: Report }) {
             {bySeason.get(season)!.map((r) => {
               const mark = OUTCOME_MARK[r.outcome];
               const current = r.id === report.id;
-              const text = `${LABELS.crop[r.crop]}: ${LABELS.outcome[r.outcome]}`;
+              const text = `${r.crop === 'breba' ? 'Breba' : 'Main crop'}: ${LABELS.outcome[r.outcome]}`;
               return current ? (
                 <span key={r.id} aria-current="page" className={`rounded px-2 py-1 text-xs font-medium ring-2 ring-fig-500 ${mark.className}`}>
                   <span aria-hidden>{mark.shape} </span>
