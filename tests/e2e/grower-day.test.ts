@@ -164,7 +164,7 @@ describe('the grower’s day: town search, report form, phones and admins, licen
       expect(await fitsThePhone(), path).toBe('fits');
       expect(await page.locator('table.table-cards td[data-label]').first().evaluate((td) => getComputedStyle(td, '::before').content), path).not.toBe('none');
     }
-    const tabs = page.getByRole('navigation', { name: /^Editors.s tools$/ });
+    const tabs = page.locator('nav[aria-label^="Editors"]');
     expect(await tabs.evaluate((nav) => getComputedStyle(nav).overflowX)).toBe('auto');
     expect(await tabs.evaluate((nav) => nav.scrollWidth > nav.clientWidth)).toBe(true);
 
