@@ -65,7 +65,7 @@ export function insertSyntheticRows(sqlite: Database.Database, options: Syntheti
   if (varietyIds.length === 0) throw new Error('insertSyntheticData needs at least one accepted variety');
 
   const insertUser = sqlite.prepare(
-    "INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo) VALUES (?, ?, ?, 'grower', strftime('%Y-%m-%dT%H:%M:%fZ','now'), 0)",
+    "INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo, data_licence_agreed_at) VALUES (?, ?, ?, 'grower', strftime('%Y-%m-%dT%H:%M:%fZ','now'), 0, strftime('%Y-%m-%dT%H:%M:%fZ','now'))",
   );
   const insertTree = sqlite.prepare('INSERT INTO trees (user_id, label) VALUES (?, ?)');
   const insertReport = sqlite.prepare(`INSERT INTO reports

@@ -35,6 +35,7 @@ const SupportThanksRoute = lazyPage(() => import('./routes/support-thanks'));
 const EditorsSupportersRoute = lazyPage(() => import('./routes/editors-supporters'));
 const VarietyRoute = lazyPage(() => import('./routes/variety'));
 const HereCompareRoute = lazyPage(() => import('./routes/here-compare'));
+const AboutRoute = lazyPage(() => import('./routes/about'));
 
 /** Every page of the client. Route files stay thin: they compose features. */
 export const routes = [
@@ -42,6 +43,7 @@ export const routes = [
     element: <AppShell />,
     children: [
       { index: true, element: <HomeRoute /> },
+      { path: 'about', element: <AboutRoute /> },
       { path: 'sign-in', element: <SignInRoute /> },
       { path: 'sign-up', element: <SignUpRoute /> },
       { path: 'account', element: <AccountRoute /> },

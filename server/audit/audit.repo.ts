@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, gte, lt, type SQL } from 'drizzle-orm';
+import { AUDIT_USER_ID_KEYS, AUDIT_VARIETY_ID_KEYS } from '../../shared/domain/audit-diff';
 import type { AuditPage, AuditQuery } from '../../shared/schemas/audit';
 import type { Db } from '../db/client';
 import { statement } from '../db/prepared';
@@ -53,7 +54,54 @@ export function listAudit(db: Db, query: AuditQuery): AuditPage {
       .orderBy(asc(users.displayName))
       .all(),
   };
-  return { items: rows.map(({ entry, actor }) => ({ ...entry, actor })), total, facets };
+  const items = rows.map(({ entry, actor }) => ({ ...entry, actor }));
+  const { entityNames, names } = namesFor(db, items);
+  return { items: items.map((item) => ({ ...item, entityName: entityNames.get(`${item.entityType}:${item.entityId}`) ?? null })), total, facets, names };
+}
+
+
+/** The page's records and referenced ids in words, a few batched look-ups per page. */
+function namesFor(db: Db, items: { entityType: string; entityId: number | null; before: unknown; after: unknown }[]) {
+  const varietyIds = new Set<number>();
+  const userIds = new Set<number>();
+  const byType = new Map<string, Set<number>>();
+  for (const item of items) {
+    if (item.entityId !== null) {
+      if (!byType.has(item.entityType)) byType.set(item.entityType, new Set());
+      byType.get(item.entityType)!.add(item.entityId);
+    }
+    for (const side of [item.before, item.after]) {
+      if (typeof side !== 'object' || side === null || Array.isArray(side)) continue;
+      for (const [key, value] of Object.entries(side)) {
+        if (typeof value !== 'number' || !Number.isInteger(value)) continue;
+        if (AUDIT_VARIETY_ID_KEYS.has(key)) varietyIds.add(value);
+        if (AUDIT_USER_ID_KEYS.has(key)) userIds.add(value);
+      }
+    }
+  }
+  const ids = (type: string) => [...(byType.get(type) ?? [])];
+  const lookup = (table: string, nameSql: string, wanted: number[]) =>
+    wanted.length === 0 ? [] : (db.$client.prepare(`SELECT id, ${nameSql} AS name FROM ${table} WHERE id IN (${wanted.map(() => '?').join(',')})`).all(...wanted) as { id: number; name: string }[]);
+  const entityNames = new Map<string, string>();
+  const put = (type: string, rows: { id: number; name: string }[]) => rows.forEach((r) => entityNames.set(`${type}:${r.id}`, r.name));
+  put('variety', lookup('varieties', 'name', ids('variety')));
+  put('user', lookup('users', 'display_name', ids('user')));
+  put('station', lookup('stations', 'name', ids('station')));
+  put('wasp-area', lookup('wasp_areas', 'name', ids('wasp-area')));
+  put(
+    'report',
+    lookup(
+      'reports',
+      "coalesce((SELECT name FROM varieties v WHERE v.id = reports.variety_id), reports.proposed_variety_name, 'Unnamed variety') || ', ' || reports.season || ' ' || CASE reports.crop WHEN 'breba' THEN 'breba' ELSE 'main crop' END",
+      ids('report'),
+    ),
+  );
+  put(
+    'report-flag',
+    lookup('report_flags', "'flag on ' || coalesce((SELECT coalesce((SELECT name FROM varieties v WHERE v.id = r.variety_id), r.proposed_variety_name) || ', ' || r.season FROM reports r WHERE r.id = report_flags.report_id), 'a deleted report')", ids('report-flag')),
+  );
+  const toRecord = (rows: { id: number; name: string }[]) => Object.fromEntries(rows.map((r) => [String(r.id), r.name]));
+  return { entityNames, names: { varieties: toRecord(lookup('varieties', 'name', [...varietyIds])), users: toRecord(lookup('users', 'display_name', [...userIds])) } };
 }
 
 function nextDay(date: string): string {

@@ -93,7 +93,7 @@ export function createAuthRouter({ db, passport, signInLimit, signUpLimit, onSig
     let created: Express.User | undefined;
     if (!existing) {
       try {
-        created = toCurrentUser(insertUser(db, { email: input.email, displayName: input.displayName, passwordHash }));
+        created = toCurrentUser(insertUser(db, { email: input.email, displayName: input.displayName, passwordHash, dataLicenceAgreedAt: new Date().toISOString() }));
       } catch (error) {
         // Two sign-ups for one new address at once: the other one made it.
         if ((error as { code?: string }).code !== 'SQLITE_CONSTRAINT_UNIQUE') throw error;

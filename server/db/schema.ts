@@ -45,6 +45,8 @@ export const users = sqliteTable('users', {
   temperatureUnit: text('temperature_unit', { enum: TEMPERATURE_UNITS }),
   distanceUnit: text('distance_unit', { enum: DISTANCE_UNITS }),
   dateLocale: text('date_locale'),
+  /** When the grower agreed to share published reports under the data licence (shared/domain/data-licence.ts); null = never. */
+  dataLicenceAgreedAt: text('data_licence_agreed_at'),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });

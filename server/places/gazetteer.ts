@@ -41,9 +41,22 @@ function countryName(code: string): string {
 
 export interface Gazetteer {
   size: number;
-  search: (q: string, limit: number) => Place[];
+  /** Towns whose name (or a later word of it) starts with q; with `near`, nearby towns before far ones. */
+  search: (q: string, limit: number, near?: { lat: number; lon: number }) => Place[];
   /** The town nearest a point within maxKm (towns of 1,000+ people), or null. */
   nearest: (point: { lat: number; lon: number }, maxKm: number) => { place: Place; distanceKm: number } | null;
+}
+
+/**
+ * How well a town answers a search made near a point: its size (orders of magnitude of people) less
+ * a distance penalty that grows with the logarithm of the distance, so a town of 100,000 next door
+ * beats a namesake of the same size across the ocean, while a city of millions 200 km away still
+ * comes before a hamlet 20 km away. An exact name earns half an order of magnitude. The weights are
+ * our own choice (tested on the cases in tests/server/places.test.ts), not a published formula.
+ */
+export function nearScore(place: Place, exact: boolean, near: { lat: number; lon: number }): number {
+  const km = distanceKm(near, place);
+  return Math.log10(Math.max(place.population, 1)) + (exact ? 0.5 : 0) - 2 * Math.log10(1 + km / 50);
 }
 
 /** Every name of a town, and each of its later words ("new york city" is also found as "york"). */
@@ -103,7 +116,7 @@ export function createGazetteer(rows: CityRow[]): Gazetteer {
         null
       );
     },
-    search(q, limit) {
+    search(q, limit, near) {
       const wanted = foldName(q);
       if (!wanted) return [];
       let lo = 0;
@@ -115,8 +128,15 @@ export function createGazetteer(rows: CityRow[]): Gazetteer {
       }
       const found = new Set<number>();
       for (let i = lo; i < keys.length && i < lo + MAX_SCAN && keys[i]!.key.startsWith(wanted); i++) found.add(keys[i]!.index);
-      // A town named exactly so comes first, then the larger towns.
       const rank = (index: number) => (folded[index] === wanted ? 1 : 0);
+      if (near) {
+        const score = new Map([...found].map((index) => [index, nearScore(places[index]!, rank(index) === 1, near)]));
+        return [...found]
+          .sort((a, b) => score.get(b)! - score.get(a)!)
+          .slice(0, limit)
+          .map((index) => places[index]!);
+      }
+      // Without a point: a town named exactly so comes first, then the larger towns.
       return [...found]
         .sort((a, b) => rank(b) - rank(a) || places[b]!.population - places[a]!.population)
         .slice(0, limit)

@@ -6,9 +6,9 @@ import { worldGazetteer, type Gazetteer } from './gazetteer';
 export function createPlacesRouter({ gazetteer = worldGazetteer }: { gazetteer?: () => Gazetteer } = {}): Router {
   const router = Router();
   router.get('/', (req, res) => {
-    const { q, limit } = placeSearchQuerySchema.parse(req.query);
+    const { q, limit, near } = placeSearchQuerySchema.parse(req.query);
     res.setHeader('Cache-Control', 'public, max-age=3600');
-    res.json(placeSearchResponseSchema.parse({ places: gazetteer().search(q, limit) }));
+    res.json(placeSearchResponseSchema.parse({ places: gazetteer().search(q, limit, near) }));
   });
   // The town that names a point ("near Albany, NY") for What ripens here and the compare page.
   router.get('/nearest', (req, res) => {

@@ -176,6 +176,7 @@ export interface ListOptions extends ReportFilter {
   mine: boolean;
   status?: ReportRow['status'];
   q?: string;
+  treeId?: number;
   sort: ReportSort;
   dir: 'asc' | 'desc';
   page: number;
@@ -188,6 +189,7 @@ export interface ListOptions extends ReportFilter {
  */
 export function listReports(db: Db, options: ListOptions, viewer: Viewer): { reports: ReportListItem[]; total: number } {
   const conditions = filterConditions(options);
+  if (options.treeId !== undefined) conditions.push(eq(reports.treeId, options.treeId));
   if (options.mine) {
     conditions.push(eq(reports.userId, viewer!.id));
     if (options.status) conditions.push(eq(reports.status, options.status));

@@ -68,6 +68,7 @@ import {
   rememberClientId,
 } from './reports.repo';
 import { reportClientIdInputSchema } from '../../shared/schemas/report-outbox';
+import { setLicenceHeaders } from '../lib/data-licence-headers';
 
 const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const photoParamsSchema = z.object({ id: z.coerce.number().int().positive(), photoId: z.coerce.number().int().positive() });
@@ -155,11 +156,13 @@ export function createReportsRouter({ db, config, photoUploadLimit = PHOTO_UPLOA
 
   router.get('/export.csv', (req, res) => {
     const rows = exportPublicRows(db, reportFilterSchema.parse(req.query));
+    setLicenceHeaders(res);
     res.type('text/csv; charset=utf-8').attachment('syconium-reports.csv').send(publicRowsToCsv(rows));
   });
 
   router.get('/export.geojson', (req, res) => {
     const rows = exportPublicRows(db, reportFilterSchema.parse(req.query));
+    setLicenceHeaders(res);
     res.type('application/geo+json').attachment('syconium-reports.geojson').send(JSON.stringify(publicRowsToGeoJson(rows)));
   });
 

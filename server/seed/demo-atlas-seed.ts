@@ -36,7 +36,7 @@ export function seedDemoAtlas(db: Db): void {
     const varietyIds = new Map((sqlite.prepare('SELECT id, name FROM varieties').all() as { id: number; name: string }[]).map((v) => [v.name, v.id]));
 
     const verifiedAt = new Date().toISOString();
-    const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo) VALUES (?, ?, ?, 'grower', ?, 1)");
+    const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo, data_licence_agreed_at) VALUES (?, ?, ?, 'grower', ?, 1, strftime('%Y-%m-%dT%H:%M:%fZ','now'))");
     const userIds = atlas.growers.map((g) => Number(insertUser.run(g.email, `${g.name} (demo)`, story.passwordHash, g.verified ? verifiedAt : null).lastInsertRowid));
 
     const insertTree = sqlite.prepare('INSERT INTO trees (user_id, label, created_at) VALUES (?, ?, ?)');

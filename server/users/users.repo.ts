@@ -1,4 +1,4 @@
-import { asc, eq, sql } from 'drizzle-orm';
+import { and, asc, count, eq, sql } from 'drizzle-orm';
 import type { CurrentUser } from '../../shared/schemas/auth';
 import type { Role } from '../../shared/domain/codes';
 import type { Db } from '../db/client';
@@ -32,13 +32,32 @@ export function findUserById(db: Db, id: number): UserRow | undefined {
 
 export function insertUser(
   db: Db,
-  values: { email: string; displayName: string; passwordHash: string; role?: Role; emailVerifiedAt?: string | null; isDemo?: boolean },
+  values: { email: string; displayName: string; passwordHash: string; role?: Role; emailVerifiedAt?: string | null; isDemo?: boolean; dataLicenceAgreedAt?: string | null },
 ): UserRow {
-  return db.insert(users).values({ ...values, email: values.email.toLowerCase() }).returning().get();
+  // Demo accounts are invented: they count as having agreed to the data licence.
+  const dataLicenceAgreedAt = values.dataLicenceAgreedAt ?? (values.isDemo ? new Date().toISOString() : null);
+  return db.insert(users).values({ ...values, email: values.email.toLowerCase(), dataLicenceAgreedAt }).returning().get();
 }
 
-export function listUsers(db: Db): UserRow[] {
-  return db.select().from(users).orderBy(asc(users.id)).all();
+/** One page of accounts, by name or e-mail containing q (case-insensitive), oldest first. */
+export function listUsers(db: Db, options: { q?: string; role?: Role; page: number; pageSize: number }): { rows: UserRow[]; total: number } {
+  const conditions = [];
+  if (options.q) {
+    const pattern = `%${options.q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    conditions.push(sql`(lower(${users.displayName}) LIKE ${pattern} ESCAPE '\\' OR ${users.email} LIKE ${pattern} ESCAPE '\\')`);
+  }
+  if (options.role) conditions.push(eq(users.role, options.role));
+  const where = and(...conditions);
+  const total = db.select({ n: count() }).from(users).where(where).get()!.n;
+  const rows = db
+    .select()
+    .from(users)
+    .where(where)
+    .orderBy(asc(users.id))
+    .limit(options.pageSize)
+    .offset((options.page - 1) * options.pageSize)
+    .all();
+  return { rows, total };
 }
 
 export function setUserRole(db: Db, id: number, role: Role): UserRow | undefined {

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { changeRoleInputSchema, userListSchema } from '../../shared/schemas/auth';
+import { changeRoleInputSchema, userListQuerySchema, userListSchema } from '../../shared/schemas/auth';
 import type { Db } from '../db/client';
 import { recordAudit } from '../audit/audit.repo';
 import { notFound } from '../lib/http-error';
@@ -14,8 +14,10 @@ export function createUsersRouter({ db }: { db: Db }): Router {
   const router = Router();
   router.use(requireRole('admin'));
 
-  router.get('/', (_req, res) => {
-    res.json(userListSchema.parse({ users: listUsers(db).map(toCurrentUser) }));
+  router.get('/', (req, res) => {
+    const query = userListQuerySchema.parse(req.query);
+    const { rows, total } = listUsers(db, query);
+    res.json(userListSchema.parse({ users: rows.map(toCurrentUser), total, page: query.page, pageSize: query.pageSize }));
   });
 
   router.patch('/:id/role', (req, res) => {

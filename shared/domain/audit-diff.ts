@@ -1,3 +1,7 @@
+/** Keys inside an audit entry's before/after that hold a variety's or a person's id: the log shows their names. */
+export const AUDIT_VARIETY_ID_KEYS: ReadonlySet<string> = new Set(['varietyId', 'mergedIntoId', 'targetId', 'intoId']);
+export const AUDIT_USER_ID_KEYS: ReadonlySet<string> = new Set(['userId', 'reviewedBy', 'reviewedById', 'proposedById', 'createdBy', 'flaggedBy', 'actorId']);
+
 /** One changed key between an audit entry's before and after. */
 export interface AuditChange {
   key: string;

@@ -9,6 +9,7 @@
  */
 import type { FigType } from './codes';
 import type { FitResponse, NearResponse } from '../schemas/atlas';
+import { countOf } from './plural';
 import {
   diagnosisAnswersSchema,
   diagnosisLocalDataSchema,
@@ -313,7 +314,7 @@ export function diagnose(answersInput: DiagnosisAnswersInput, localInput: Diagno
     add(
       'variety-struggles-here',
       local.varietyShare < 0.15 ? 2.5 : 1.5,
-      `Near you, ${Math.round(local.varietyShare * 100)} % of ${Math.round(local.varietyTrees)} trees of this variety ripened fruit.`,
+      `Near you, ${Math.round(local.varietyShare * 100)} % of ${countOf(Math.round(local.varietyTrees), 'tree')} of this variety ripened fruit.`,
       ['Look at “What ripens here” for varieties with a better record near you.'],
     );
   }

@@ -6,6 +6,7 @@
 import { decimalNumber } from '../schemas/text-number';
 import type { Crop, FigType, GrowingForm, Outcome, PlantOrigin } from './codes';
 import { toSpreadsheetCsv, type CsvColumnKind } from './spreadsheet-csv';
+import { DATA_LICENCE, DATA_LICENCE_NOTICE } from './data-licence';
 
 export interface CsvColumn {
   name: string;
@@ -155,6 +156,10 @@ export function publicRowsToCsv(rows: PublicReportRow[]): string {
 export function publicRowsToGeoJson(rows: PublicReportRow[]) {
   return {
     type: 'FeatureCollection' as const,
+    // Foreign members (RFC 7946 §6.1): the licence and credit travel with the file.
+    licence: { name: DATA_LICENCE.name, title: DATA_LICENCE.title, url: DATA_LICENCE.url },
+    attribution: DATA_LICENCE.attribution,
+    notice: DATA_LICENCE_NOTICE,
     features: rows.map(({ gridLat, gridLon, ...properties }) => ({
       type: 'Feature' as const,
       id: properties.reportId,

@@ -1,5 +1,6 @@
 import type { GrowingForm, RipeningClass } from './codes';
 import type { SeasonFit } from '../schemas/atlas';
+import { countOf } from './plural';
 
 /**
  * Season fit: does the local frost-free season leave room for a variety's main crop to ripen, and
@@ -103,7 +104,7 @@ export function seasonFit(input: SeasonFitInput): SeasonFit {
   if (input.neededDaysFromReports !== null && input.reportsBehindNeed >= MIN_TREES_FOR_REPORTED_NEED) {
     neededDays = Math.round(input.neededDaysFromReports);
     neededFrom = 'reports';
-    neededWords = `Reports from ${input.reportsBehindNeed} ${input.reportsBehindNeed === 1 ? 'tree' : 'trees'} in the ground (nearby and elsewhere) show about ${neededDays} days from the last spring frost to the first ripe fig`;
+    neededWords = `Reports from ${countOf(input.reportsBehindNeed, 'tree')} in the ground (nearby and elsewhere) show about ${neededDays} days from the last spring frost to the first ripe fig`;
   } else if (input.typicalDaysToRipen !== null) {
     neededDays = Math.round(input.typicalDaysToRipen);
     neededFrom = 'catalogue';

@@ -21,6 +21,8 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   entityType: z.string(),
   entityId: z.number().int().nullable(),
+  /** The record in words (a variety's or person's name, a report's variety and season); null when gone. */
+  entityName: z.string().nullable().default(null),
   before: z.unknown(),
   after: z.unknown(),
   createdAt: z.string(),
@@ -30,6 +32,8 @@ export type AuditEntryView = z.infer<typeof auditEntrySchema>;
 export const auditPageSchema = z.object({
   items: z.array(auditEntrySchema),
   total: z.number().int(),
+  /** Names for the ids inside before/after: variety ids (varietyId, mergedIntoId...) and person ids (userId...). */
+  names: z.object({ varieties: z.record(z.string(), z.string()), users: z.record(z.string(), z.string()) }).default({ varieties: {}, users: {} }),
   /** Values for the filter menus. */
   facets: z.object({
     actions: z.array(z.string()),

@@ -1,13 +1,30 @@
 import { z } from 'zod';
-import { numberFromText } from './text-number';
+import { blankToUndefined, numberFromText } from './text-number';
 
-/** GET /api/places?q=: towns whose name starts with q, largest first (GeoNames, CC-BY 4.0). */
+/** GET /api/places?q=&near=: towns whose name starts with q, largest first or, with near, nearest and largest first (GeoNames, CC-BY 4.0). */
 export const placeSearchQuerySchema = z.object({
   q: z
     .string({ message: 'q is required: a town name' })
     .trim()
     .min(2, { message: 'q must have at least 2 letters' })
     .max(80, { message: 'q must have at most 80 characters' }),
+  /** "lat,lon" of the map's centre or the grower's home: nearer towns come first. */
+  near: z.preprocess(
+    blankToUndefined,
+    z
+    .string()
+    .trim()
+    .regex(/^-?\d+(\.\d+)?,-?\d+(\.\d+)?$/, { message: 'near must be "lat,lon" in decimal degrees' })
+    .transform((text, ctx) => {
+      const [lat, lon] = text.split(',').map(Number) as [number, number];
+      if (Math.abs(lat) > 90 || Math.abs(lon) > 180) {
+        ctx.addIssue({ code: 'custom', message: 'near must be a latitude within ±90 and a longitude within ±180' });
+        return z.NEVER;
+      }
+      return { lat, lon };
+    })
+    .optional(),
+  ),
   limit: numberFromText(z.coerce.number({ message: 'limit must be a number' }).int().min(1, { message: 'limit must be at least 1' }).max(20, { message: 'limit must be at most 20' }).default(8)),
 });
 export type PlaceSearchQuery = z.infer<typeof placeSearchQuerySchema>;

@@ -256,6 +256,8 @@ export const reportListQuerySchema = reportFilterSchema.extend({
     .transform((value) => value === 'true'),
   /** Only with mine=true. */
   status: z.enum(REPORT_STATUSES).optional(),
+  /** One tree's reports (its seasons together): published ones, or all of them with mine=true. */
+  treeId: optionalInt('treeId'),
   /** Variety name or tree label contains this (case-insensitive). */
   q: z.string().trim().max(100).optional(),
   sort: z.enum(REPORT_SORTS).default('createdAt'),

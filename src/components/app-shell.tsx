@@ -33,6 +33,9 @@ export function AppShell() {
       <NavLink to="/why-no-figs" className={navClass}>
         Why no figs?
       </NavLink>
+      <NavLink to="/about" className={navClass}>
+        About
+      </NavLink>
       {user && (
         <NavLink to="/my/reports" className={navClass}>
           My reports
@@ -80,6 +83,10 @@ export function AppShell() {
 
   return (
     <div className="flex h-full flex-col">
+      {/* The first stop of the Tab key: straight past the header to the page (on the atlas, the town search and the map). */}
+      <a href="#main" className="sr-only z-50 rounded-md bg-fig-700 px-3 py-2 text-sm font-medium text-white focus:not-sr-only focus:absolute focus:left-2 focus:top-2">
+        Skip to the page
+      </a>
       <header className="z-20 border-b border-fig-100 bg-paper/95 backdrop-blur">
         <div className="flex items-center gap-x-4 px-4 py-2">
           <NavLink to="/" className="flex items-center gap-2" aria-label="Syconium home">
@@ -119,7 +126,7 @@ export function AppShell() {
       <VerifyBanner />
       <OutboxStatus />
       {/* Pages scroll inside themselves; clipping here stops a visually hidden table caption from widening the whole page on a phone. */}
-      <main className="relative min-h-0 flex-1 overflow-hidden">
+      <main id="main" tabIndex={-1} className="relative min-h-0 flex-1 overflow-hidden focus:outline-none">
         <Outlet />
       </main>
     </div>

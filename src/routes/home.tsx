@@ -61,10 +61,35 @@ export default function HomeRoute() {
 
   return (
     <div className="absolute inset-0 flex">
+      <section className="relative min-w-0 flex-1" aria-label="Atlas map">
+        {/* Before the map canvas in the page order, so Tab reaches the town search first. */}
+        <div className="pointer-events-none absolute inset-x-0 top-0 z-[5] flex items-start gap-2 p-3 pr-14">
+          {!panelOpen && (
+            <button
+              type="button"
+              onClick={() => setPanelOpen(true)}
+              aria-controls="atlas-filters"
+              aria-expanded={false}
+              className="pointer-events-auto shrink-0 rounded-lg border border-fig-100 bg-paper/95 px-3 py-2 text-sm font-medium text-fig-700 shadow-sm hover:bg-fig-50"
+            >
+              Filters &amp; layers
+            </button>
+          )}
+          <PlaceSearch onGo={goTo} center={state.view ?? initialView} />
+        </div>
+        <PinPreview view={initialView} filters={state.filters} />
+        <Suspense>
+          <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} home={home.data} />
+        </Suspense>
+        <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
+          <MapLegend overlays={state.layers} openAtStart={panelOpen} />
+        </div>
+      </section>
+      {/* After the map in the page order (shown on its left), so Tab reaches the town search and the map before the filters. */}
       <aside
         id="atlas-filters"
         aria-label="Filters and layers"
-        className={`${panelOpen ? 'flex' : 'hidden'} absolute inset-y-0 left-0 z-10 w-[min(20rem,88vw)] flex-col border-r border-fig-100 bg-paper shadow-lg md:static md:shadow-none`}
+        className={`${panelOpen ? 'flex' : 'hidden'} absolute inset-y-0 left-0 z-10 md:order-first w-[min(20rem,88vw)] flex-col border-r border-fig-100 bg-paper shadow-lg md:static md:shadow-none`}
       >
         <div className="flex items-center justify-between border-b border-fig-100 px-4 py-3">
           <h1 className="text-base font-semibold text-fig-900">What ripens where</h1>
@@ -82,31 +107,6 @@ export default function HomeRoute() {
           />
         </div>
       </aside>
-
-      <section className="relative min-w-0 flex-1" aria-label="Atlas map">
-        {/* Before the map in the page order, so Tab reaches the town search before the map canvas. */}
-        <div className="pointer-events-none absolute inset-x-0 top-0 z-[5] flex items-start gap-2 p-3 pr-14">
-          {!panelOpen && (
-            <button
-              type="button"
-              onClick={() => setPanelOpen(true)}
-              aria-controls="atlas-filters"
-              aria-expanded={false}
-              className="pointer-events-auto shrink-0 rounded-lg border border-fig-100 bg-paper/95 px-3 py-2 text-sm font-medium text-fig-700 shadow-sm hover:bg-fig-50"
-            >
-              Filters &amp; layers
-            </button>
-          )}
-          <PlaceSearch onGo={goTo} />
-        </div>
-        <PinPreview view={initialView} filters={state.filters} />
-        <Suspense>
-          <AtlasMap ref={mapRef} initialView={initialView} filters={state.filters} overlays={state.layers} onViewChange={onViewChange} onTotalChange={setTotal} home={home.data} />
-        </Suspense>
-        <div className="pointer-events-none absolute bottom-3 left-3 pr-28">
-          <MapLegend overlays={state.layers} openAtStart={panelOpen} />
-        </div>
-      </section>
     </div>
   );
 }

@@ -65,9 +65,19 @@ describe('WaspAreaForm', () => {
 describe('ChangeList', () => {
   it('shows only the changed keys, before and after', () => {
     render(<ChangeList before={{ name: 'Old', status: 'active' }} after={{ name: 'New', status: 'active' }} />);
-    expect(screen.getByText('name')).toBeVisible();
+    expect(screen.getByText('Name')).toBeVisible();
     expect(screen.getByText('Old')).toBeVisible();
     expect(screen.getByText('New')).toBeVisible();
-    expect(screen.queryByText('status')).toBeNull();
+    expect(screen.queryByText('Status')).toBeNull();
+  });
+
+  it('speaks in words: field labels, names for ids, labels for codes', () => {
+    render(<ChangeList before={{ varietyId: 3, outcome: 'unripe', hiddenReason: null }} after={{ varietyId: 4, outcome: 'ripened', hiddenReason: 'spam' }} names={{ varieties: { '3': 'Amber Dome', '4': 'Violet Keel' }, users: {} }} />);
+    expect(screen.getByText('Variety')).toBeVisible();
+    expect(screen.getByText('Amber Dome')).toBeVisible();
+    expect(screen.getByText('Violet Keel')).toBeVisible();
+    expect(screen.getByText('Outcome')).toBeVisible();
+    expect(screen.getByText('Reason for hiding')).toBeVisible();
+    expect(screen.queryByText('varietyId')).toBeNull();
   });
 });

@@ -85,6 +85,7 @@ describe('e-mail in the browser, through the development mail server', () => {
     await page.getByLabel('Name shown with your reports').fill('Wren');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('a long enough password');
+    await page.getByRole('checkbox', { name: /I agree that my published reports are shared/ }).check();
     await page.getByRole('button', { name: 'Create account' }).click();
     const banner = page.getByText('Please confirm your e-mail address.');
     await lateVisitor.delivered;

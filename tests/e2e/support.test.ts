@@ -18,6 +18,7 @@ describe('supporting the atlas in the browser', () => {
     await page.getByLabel('Name shown with your reports').fill('Juniper Member');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('a long enough passphrase');
+    await page.getByRole('checkbox', { name: /I agree that my published reports are shared/ }).check();
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/sign-up'));
 

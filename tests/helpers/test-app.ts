@@ -82,8 +82,9 @@ export function createTestContext(deps: Partial<AppDeps> = {}, configOverrides: 
  * Join as the client does: POST /api/auth/sign-up (the same 202 whether or not the address is taken,
  * and no session), then sign in with the same details. Answers the sign-in response.
  */
-export async function signUpAndIn(agent: TestAgent, body: { email: string; displayName: string; password: string }): Promise<supertest.Response> {
-  const joined = await agent.post('/api/auth/sign-up').send(body);
+export async function signUpAndIn(agent: TestAgent, body: { email: string; displayName: string; password: string; acceptDataLicence?: boolean }): Promise<supertest.Response> {
+  // Joining means agreeing to the open-data licence, as the sign-up form asks.
+  const joined = await agent.post('/api/auth/sign-up').send({ acceptDataLicence: true, ...body });
   if (joined.status !== 202) throw new Error(`sign-up answered ${joined.status} ${JSON.stringify(joined.body)}`);
   return agent.post('/api/auth/sign-in').send({ email: body.email, password: body.password });
 }

@@ -6,7 +6,7 @@ describe('accounts', () => {
   it('signs up (no session yet), signs in with the same details, says who I am, signs out', async () => {
     const { agent } = createTestContext();
     const a = agent();
-    const signUp = await a.post('/api/auth/sign-up').send({ email: 'Ada@Example.com', displayName: 'Ada', password: 'a long enough password' });
+    const signUp = await a.post('/api/auth/sign-up').send({ email: 'Ada@Example.com', displayName: 'Ada', acceptDataLicence: true, password: 'a long enough password' });
     expect(signUp.status).toBe(202);
     expect(signUp.headers['set-cookie']).toBeUndefined();
     expect((await a.get('/api/auth/me')).body.user).toBeNull();
@@ -22,7 +22,7 @@ describe('accounts', () => {
 
   it('stores an argon2 hash, never the password', async () => {
     const { agent, db } = createTestContext();
-    await agent().post('/api/auth/sign-up').send({ email: 'b@example.com', displayName: 'Bea', password: 'another long password' });
+    await agent().post('/api/auth/sign-up').send({ email: 'b@example.com', displayName: 'Bea', acceptDataLicence: true, password: 'another long password' });
     const row = db.select().from(users).get()!;
     expect(row.passwordHash).toMatch(/^\$argon2id\$/);
     expect(row.passwordHash).not.toContain('another long password');
@@ -30,7 +30,7 @@ describe('accounts', () => {
 
   it('a taken address gets the same answer as a new one, and creates nothing', async () => {
     const { agent, db } = createTestContext();
-    const body = { email: 'c@example.com', displayName: 'Cy', password: 'a long enough password' };
+    const body = { email: 'c@example.com', displayName: 'Cy', acceptDataLicence: true, password: 'a long enough password' };
     const first = await agent().post('/api/auth/sign-up').send(body);
     const again = await agent().post('/api/auth/sign-up').send({ ...body, displayName: 'Someone else', email: 'C@EXAMPLE.COM' });
     expect(again.status).toBe(first.status);
@@ -74,7 +74,7 @@ describe('accounts', () => {
 describe('validation and errors', () => {
   it('names each bad field and writes nothing', async () => {
     const { agent, db } = createTestContext();
-    const res = await agent().post('/api/auth/sign-up').send({ email: 'not-an-email', displayName: 'x'.repeat(61), password: 'short' });
+    const res = await agent().post('/api/auth/sign-up').send({ email: 'not-an-email', displayName: 'x'.repeat(61), acceptDataLicence: true, password: 'short' });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_input');
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['displayName', 'email', 'password']);
@@ -90,7 +90,7 @@ describe('validation and errors', () => {
 
   it('answers wrong types with a 400 naming the field', async () => {
     const { agent } = createTestContext();
-    const res = await agent().post('/api/auth/sign-up').send({ email: 42, displayName: ['a'], password: true });
+    const res = await agent().post('/api/auth/sign-up').send({ email: 42, displayName: ['a'], acceptDataLicence: true, password: true });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('email');
     expect(res.body.error.fields).toHaveProperty('displayName');
@@ -105,7 +105,7 @@ describe('validation and errors', () => {
 
   it('refuses a write without the CSRF header', async () => {
     const { agent } = createTestContext();
-    const res = await agent().raw.post('/api/auth/sign-up').send({ email: 'g@example.com', displayName: 'Gus', password: 'a long enough password' });
+    const res = await agent().raw.post('/api/auth/sign-up').send({ email: 'g@example.com', displayName: 'Gus', acceptDataLicence: true, password: 'a long enough password' });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('csrf');
   });

@@ -12,7 +12,7 @@ describe('development mailbox', async () => {
   const ctx = await createMailTestContext();
 
   it('lists and shows every message the local server received, with both parts', async () => {
-    await join(ctx, ctx.agent(), { email: 'box@example.com', displayName: 'Box <b>', password: 'a long enough password' });
+    await join(ctx, ctx.agent(), { email: 'box@example.com', displayName: 'Box <b>', acceptDataLicence: true, password: 'a long enough password' });
     const list = await ctx.agent().get('/api/dev/mail');
     expect(list.status).toBe(200);
     expect(list.body.messages).toHaveLength(1);

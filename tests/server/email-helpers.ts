@@ -52,7 +52,7 @@ export function linkToken(text: string | null, path: string): string {
  * Join as the client does (sign-up, then sign-in with the same details; tests/helpers/test-app.ts)
  * and wait for the confirmation message, which is sent after the answer.
  */
-export async function join(ctx: MailTestContext, agent: TestAgent, body: { email: string; displayName: string; password: string }) {
+export async function join(ctx: MailTestContext, agent: TestAgent, body: { email: string; displayName: string; password: string; acceptDataLicence?: boolean }) {
   const before = ctx.inbox(body.email.toLowerCase()).length;
   const signIn = await signUpAndIn(agent, body);
   await expect.poll(() => ctx.inbox(body.email.toLowerCase()).length, { timeout: 10_000 }).toBeGreaterThan(before);

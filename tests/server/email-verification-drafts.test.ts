@@ -27,7 +27,7 @@ describe('confirming the e-mail address publishes the grower’s drafts', async 
 
   it('turns every draft into a published report with published_at, an audit entry, and a place on the atlas', async () => {
     const grower = ctx.agent();
-    expect((await join(ctx, grower, { email: 'drafts@example.com', displayName: 'Dora', password: 'a long enough password' })).status).toBe(200);
+    expect((await join(ctx, grower, { email: 'drafts@example.com', displayName: 'Dora', acceptDataLicence: true, password: 'a long enough password' })).status).toBe(200);
     const token = linkToken(ctx.inbox('drafts@example.com')[0]!.text, '/verify');
     expect(ctx.inbox('drafts@example.com')[0]!.text).toMatch(/published as soon as\s+the address is\s+confirmed/);
 

@@ -8,7 +8,7 @@ describe('e-mail verification, through the local SMTP server', async () => {
 
   it('sends a link at sign-up that verifies the address once', async () => {
     const a = ctx.agent();
-    const signUp = await join(ctx, a, { email: 'Vera@Example.com', displayName: 'Vera', password: 'a long enough password' });
+    const signUp = await join(ctx, a, { email: 'Vera@Example.com', displayName: 'Vera', acceptDataLicence: true, password: 'a long enough password' });
     expect(signUp.status).toBe(200);
     expect(signUp.body.user.emailVerified).toBe(false);
 
@@ -38,9 +38,9 @@ describe('e-mail verification, through the local SMTP server', async () => {
     // The page writes this answer into its cache: a GET /me answered just before the confirmation must
     // not decide what the page shows (tests/client/current-user-race.test.tsx, tests/e2e/email.test.ts).
     const a = ctx.agent();
-    await join(ctx, a, { email: 'same@example.com', displayName: 'Same', password: 'a long enough password' });
+    await join(ctx, a, { email: 'same@example.com', displayName: 'Same', acceptDataLicence: true, password: 'a long enough password' });
     const other = ctx.agent();
-    await join(ctx, other, { email: 'other@example.com', displayName: 'Other', password: 'a long enough password' });
+    await join(ctx, other, { email: 'other@example.com', displayName: 'Other', acceptDataLicence: true, password: 'a long enough password' });
 
     const own = await a.post('/api/auth/verify').send({ token: linkToken(ctx.inbox('same@example.com')[0]!.text, '/verify') });
     expect(own.status).toBe(200);
@@ -49,7 +49,7 @@ describe('e-mail verification, through the local SMTP server', async () => {
 
     // A third grower's link opened where Other is signed in: the third is confirmed, and Other's own
     // account comes back, unchanged.
-    await join(ctx, ctx.agent(), { email: 'third@example.com', displayName: 'Third', password: 'a long enough password' });
+    await join(ctx, ctx.agent(), { email: 'third@example.com', displayName: 'Third', acceptDataLicence: true, password: 'a long enough password' });
     const foreign = await other.post('/api/auth/verify').send({ token: linkToken(ctx.inbox('third@example.com')[0]!.text, '/verify') });
     expect(foreign.status).toBe(200);
     expect(foreign.body.user).toMatchObject({ email: 'other@example.com', emailVerified: false });
@@ -58,7 +58,7 @@ describe('e-mail verification, through the local SMTP server', async () => {
 
   it('rejects an expired link and an unknown one', async () => {
     const a = ctx.agent();
-    await join(ctx, a, { email: 'late@example.com', displayName: 'Late', password: 'a long enough password' });
+    await join(ctx, a, { email: 'late@example.com', displayName: 'Late', acceptDataLicence: true, password: 'a long enough password' });
     const token = linkToken(ctx.inbox('late@example.com')[0]!.text, '/verify');
     const user = ctx.db.select().from(users).where(eq(users.email, 'late@example.com')).get()!;
     // 48 hours later: move the stored expiry into the past.
@@ -79,7 +79,7 @@ describe('e-mail verification, through the local SMTP server', async () => {
 
   it('resends a fresh link to a signed-in unverified grower, and refuses when already verified', async () => {
     const a = ctx.agent();
-    await join(ctx, a, { email: 'resend@example.com', displayName: 'Res', password: 'a long enough password' });
+    await join(ctx, a, { email: 'resend@example.com', displayName: 'Res', acceptDataLicence: true, password: 'a long enough password' });
     const resend = await a.post('/api/auth/verify/resend');
     expect(resend.status).toBe(200);
     const messages = ctx.inbox('resend@example.com');

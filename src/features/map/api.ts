@@ -1,6 +1,5 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { cellResponseSchema, pinsResponseSchema, type PinFilters } from '@shared/schemas/pins';
-import { placeSearchResponseSchema } from '@shared/schemas/places';
 import { seasonAtResponseSchema } from '@shared/schemas/season-surface';
 import { savedPlaceListSchema } from '@shared/schemas/saved-places';
 import { stationListSchema } from '@shared/schemas/stations';
@@ -64,12 +63,5 @@ export const mapQueries = {
       },
       staleTime: 5 * 60_000,
       retry: false,
-    }),
-  placeSearch: (q: string) =>
-    queryOptions({
-      queryKey: [...mapQueries.all, 'places', q.trim().toLowerCase()],
-      queryFn: ({ signal }) => apiFetch(`/api/places?${new URLSearchParams({ q: q.trim() })}`, placeSearchResponseSchema, { signal }),
-      enabled: q.trim().length >= 2,
-      staleTime: 10 * 60_000,
     }),
 };

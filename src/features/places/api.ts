@@ -1,6 +1,7 @@
-import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { nearestPlaceResponseSchema, placeSearchResponseSchema, type Place } from '@shared/schemas/places';
+import { useCurrentUser } from '../auth/api';
 import { savedPlaceListSchema, savedPlaceResponseSchema, type SavedPlaceInput, type SavedPlacePatch } from '@shared/schemas/saved-places';
 import { apiFetch } from '../../lib/api-client';
 
@@ -9,15 +10,28 @@ export const savedPlaceQueries = {
   list: () => queryOptions({ queryKey: [...savedPlaceQueries.all, 'list'], queryFn: () => apiFetch('/api/saved-places', savedPlaceListSchema) }),
 };
 
+export interface NearPoint {
+  lat: number;
+  lon: number;
+}
+
+/** The bias point rounded to about 1 km, so panning a little reuses the cached answers. */
+function nearParam(near: NearPoint | null | undefined): string | undefined {
+  return near ? `${near.lat.toFixed(2)},${near.lon.toFixed(2)}` : undefined;
+}
+
 export const placeSearchQueries = {
   all: ['places'] as const,
-  search: (q: string) =>
-    queryOptions({
-      queryKey: [...placeSearchQueries.all, 'search', q],
-      queryFn: () => apiFetch(`/api/places?${new URLSearchParams({ q })}`, placeSearchResponseSchema),
-      enabled: q.trim().length >= 2,
-      staleTime: 5 * 60_000,
-    }),
+  search: (q: string, near?: NearPoint | null) => {
+    const text = q.trim();
+    const nearText = nearParam(near);
+    return queryOptions({
+      queryKey: [...placeSearchQueries.all, 'search', text.toLowerCase(), nearText ?? ''],
+      queryFn: ({ signal }) => apiFetch(`/api/places?${new URLSearchParams({ q: text, ...(nearText ? { near: nearText } : {}) })}`, placeSearchResponseSchema, { signal }),
+      enabled: text.length >= 2,
+      staleTime: 10 * 60_000,
+    });
+  },
   /** The town that names a point ("near Albany, NY"); the answer is cached by the server for an hour. */
   nearest: (lat: number, lon: number) =>
     queryOptions({
@@ -31,6 +45,13 @@ export const placeSearchQueries = {
 export function placeLabel(place: Pick<Place, 'name' | 'context' | 'country'>): string {
   const [first, ...rest] = place.context.split(', ');
   return place.country === 'US' && rest.length ? `${place.name}, ${first}` : `${place.name}, ${place.context}`;
+}
+
+/** The signed-in grower's home place (the saved place marked home), or null. */
+export function useHomePlace() {
+  const { user } = useCurrentUser();
+  const saved = useQuery({ ...savedPlaceQueries.list(), enabled: !!user });
+  return saved.data?.places.find((p) => p.isHome) ?? null;
 }
 
 export function useSavePlace() {

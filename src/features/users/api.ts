@@ -1,13 +1,18 @@
-import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { currentUserSchema, userListSchema } from '@shared/schemas/auth';
+import { currentUserSchema, userListSchema, type UserListQuery } from '@shared/schemas/auth';
 import type { Role } from '@shared/domain/codes';
 import { apiFetch } from '../../lib/api-client';
 import { authQueries, showCurrentUser } from '../auth/api';
 
 export const userQueries = {
   all: ['users'] as const,
-  list: () => queryOptions({ queryKey: [...userQueries.all, 'list'], queryFn: () => apiFetch('/api/users', userListSchema) }),
+  list: (query: UserListQuery = {}) =>
+    queryOptions({
+      queryKey: [...userQueries.all, 'list', query],
+      queryFn: () => apiFetch(`/api/users?${new URLSearchParams(Object.entries(query).flatMap(([k, v]) => (v === undefined || v === '' ? [] : [[k, String(v)]])))}`, userListSchema),
+      placeholderData: keepPreviousData,
+    }),
 };
 
 export function useChangeRole() {

@@ -53,7 +53,7 @@ interface WriteRoute {
 
 const REPORT_KEYS = Object.keys(validReportBody(1)).concat(['proposedVarietyName', 'treeId', 'origin', 'yearPlanted', 'firstRipeDate', 'lastHarvestDate', 'springFrostDate', 'fallFrostDate', 'pinched', 'pinchedDate', 'winterProtection', 'feeding', 'watering', 'notes']);
 const JSON_WRITES: WriteRoute[] = [
-  { route: 'POST /api/auth/sign-up', role: 'visitor', method: 'post', path: () => '/api/auth/sign-up', keys: ['email', 'password', 'displayName'] },
+  { route: 'POST /api/auth/sign-up', role: 'visitor', method: 'post', path: () => '/api/auth/sign-up', keys: ['email', 'password', 'displayName', 'acceptDataLicence'] },
   { route: 'POST /api/auth/sign-in', role: 'visitor', method: 'post', path: () => '/api/auth/sign-in', keys: ['email', 'password'] },
   { route: 'POST /api/auth/verify', role: 'visitor', method: 'post', path: () => '/api/auth/verify', keys: ['token'] },
   { route: 'POST /api/auth/forgot', role: 'visitor', method: 'post', path: () => '/api/auth/forgot', keys: ['email'] },
@@ -264,13 +264,14 @@ describe('random query strings on every route that reads a query', () => {
     { path: '/api/guidance/ripe-dates', keys: ['varietyId', 'lat', 'lon', 'radiusKm', 'crop'], role: 'visitor' },
     { path: '/api/guidance/season-success', keys: ['form', 'crop', 'varietyId', 'binDays'], role: 'visitor' },
     { path: '/api/guidance/short-season', keys: ['seasonDays', 'form', 'toleranceDays'], role: 'visitor' },
-    { path: '/api/places', keys: ['q', 'limit'], role: 'visitor' },
-    { path: '/api/reports', keys: ['mine', 'status', 'q', 'page', 'pageSize', 'sort', 'varietyId', 'season', 'outcome'], role: 'owner' },
+    { path: '/api/places', keys: ['q', 'limit', 'near'], role: 'visitor' },
+    { path: '/api/reports', keys: ['mine', 'status', 'q', 'page', 'pageSize', 'sort', 'varietyId', 'season', 'outcome', 'treeId'], role: 'owner' },
     { path: '/api/reports/export.csv', keys: ['varietyId', 'season', 'outcome', 'crop'], role: 'visitor' },
     { path: '/api/varieties', keys: ['q', 'status', 'figType'], role: 'visitor' },
     { path: '/api/varieties/catalogue', keys: ['q', 'status', 'page', 'pageSize', 'sort'], role: 'editor' },
     { path: '/api/wasp-areas/records', keys: ['status', 'page', 'pageSize'], role: 'editor' },
     { path: '/api/moderation/queue', keys: ['kind', 'page', 'pageSize'], role: 'editor' },
+    { path: '/api/users', keys: ['q', 'role', 'page', 'pageSize'], role: 'admin' },
     { path: '/api/audit', keys: ['entityType', 'entityId', 'actorId', 'page', 'pageSize', 'action'], role: 'editor' },
   ];
   for (const route of QUERY_ROUTES) {

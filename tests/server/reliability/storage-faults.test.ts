@@ -50,7 +50,7 @@ describe('a read-only database file', () => {
       as(supertest(app).post('/api/reports')).send(validReportBody(varietyId, { notes: 'never stored' })),
       as(supertest(app).patch(`/api/reports/${created.body.report.id}`)).send({ notes: 'never changed' }),
       as(supertest(app).delete(`/api/reports/${created.body.report.id}`)),
-      supertest(app).post('/api/auth/sign-up').set('X-Syconium-Request', '1').send({ email: `ro-${Date.now()}@example.com`, password: TEST_PASSWORD, displayName: 'Read only' }),
+      supertest(app).post('/api/auth/sign-up').set('X-Syconium-Request', '1').send({ email: `ro-${Date.now()}@example.com`, acceptDataLicence: true, password: TEST_PASSWORD, displayName: 'Read only' }),
     ];
     for (const write of writes) {
       const res = await write;

@@ -2,8 +2,9 @@ import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router';
-import { auditChanges } from '@shared/domain/audit-diff';
-import type { AuditEntryView } from '@shared/schemas/audit';
+import { AUDIT_USER_ID_KEYS, AUDIT_VARIETY_ID_KEYS, auditChanges } from '@shared/domain/audit-diff';
+import type { AuditEntryView, AuditPage } from '@shared/schemas/audit';
+import { fieldLabel, valueLabel } from '../field-labels';
 import { DataTable, filterClass, type PageState } from '../../editors/components/data-table';
 import { auditQueries } from '../api';
 import { DateText } from '../../units/components/date-text';
@@ -58,6 +59,7 @@ function entityHref(type: string, id: number | null): string | null {
   if (id === null) return null;
   if (type === 'report') return `/reports/${id}`;
   if (type === 'station') return `/editors/stations/${id}`;
+  if (type === 'variety') return `/editors/varieties`;
   return null;
 }
 
@@ -65,17 +67,29 @@ const ISO_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
 /** Timestamps in before/after read as local dates and times, not raw ISO strings. */
 const readable = (s: string, dateTime: (iso: string) => string) => (ISO_TIME.test(s) && !Number.isNaN(Date.parse(s)) ? dateTime(s) : s);
 
-/** Before → after for the keys that changed, one line each. */
-export function ChangeList({ before, after, dateTime = (iso) => formatDateTime(iso, browserLocale()) }: { before: unknown; after: unknown; dateTime?: (iso: string) => string }) {
+type Names = AuditPage['names'];
+const NO_NAMES: Names = { varieties: {}, users: {} };
+
+/** A changed value in words: ids become the variety's or person's name, codes their labels. */
+function valueInWords(key: string, value: string, names: Names, dateTime: (iso: string) => string): string {
+  if (AUDIT_VARIETY_ID_KEYS.has(key) && names.varieties[value]) return names.varieties[value];
+  if (AUDIT_USER_ID_KEYS.has(key) && names.users[value]) return names.users[value];
+  return valueLabel(key, readable(value, dateTime));
+}
+
+/** Before → after for the fields that changed, one line each, in words. */
+export function ChangeList({ before, after, names = NO_NAMES, dateTime = (iso) => formatDateTime(iso, browserLocale()) }: { before: unknown; after: unknown; names?: Names; dateTime?: (iso: string) => string }) {
   const changes = auditChanges(before, after);
   if (changes.length === 0) return <span className="text-ink/70">no field changed</span>;
   return (
-    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-xs">
+    <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-0.5 text-xs">
       {changes.slice(0, 12).map((c) => (
         <div key={c.key} className="contents">
-          <dt className="font-medium text-ink/80">{c.key}</dt>
-          <dd className="break-words">
-            <del className="text-red-800 decoration-red-800/50">{truncate(readable(c.before, dateTime))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(readable(c.after, dateTime))}</ins>
+          <dt className="font-medium text-ink/80" title={c.key}>
+            {fieldLabel(c.key)}
+          </dt>
+          <dd className="[overflow-wrap:anywhere]">
+            <del className="text-red-800 decoration-red-800/50">{truncate(valueInWords(c.key, c.before, names, dateTime))}</del> <span aria-hidden="true">→</span> <ins className="text-leaf-700 no-underline">{truncate(valueInWords(c.key, c.after, names, dateTime))}</ins>
           </dd>
         </div>
       ))}
@@ -93,6 +107,7 @@ export function AuditTable() {
   const { data, isLoading, error } = useQuery(
     auditQueries.page({ ...page, actorId: filters.actorId ? Number(filters.actorId) : undefined, action: filters.action || undefined, entityType: filters.entityType || undefined, from: filters.from || undefined, to: filters.to || undefined }),
   );
+  const names = data?.names ?? NO_NAMES;
   const set = (key: keyof typeof filters) => (e: { target: { value: string } }) => {
     setFilters((f) => ({ ...f, [key]: e.target.value }));
     setPage((p) => ({ ...p, offset: 0 }));
@@ -108,21 +123,21 @@ export function AuditTable() {
         id: 'entity',
         header: 'On',
         cell: (c) => {
-          const { entityType, entityId } = c.row.original;
-          const text = `${entityLabel(entityType)}${entityId ? ` #${entityId}` : ''}`;
+          const { entityType, entityId, entityName } = c.row.original;
+          const text = `${entityLabel(entityType)}${entityName ? `: ${entityName}` : entityId ? ` #${entityId}` : ''}`;
           const href = entityHref(entityType, entityId);
           return href ? (
-            <Link to={href} className="whitespace-nowrap text-fig-700 underline">
+            <Link to={href} className="text-fig-700 underline">
               {text}
             </Link>
           ) : (
-            <span className="whitespace-nowrap">{text}</span>
+            <span>{text}</span>
           );
         },
       }),
-      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} dateTime={units.dateTime} /> }),
+      column.display({ id: 'changes', header: 'Before → after', cell: (c) => <ChangeList before={c.row.original.before} after={c.row.original.after} names={names} dateTime={units.dateTime} /> }),
     ],
-    [units.dateTime],
+    [names, units.dateTime],
   );
 
   return (

@@ -1,5 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router';
+import { DATA_LICENCE } from '@shared/domain/data-licence';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signUpInputSchema, type SignUpInput } from '@shared/schemas/auth';
 import { Button } from '../../../components/button';
@@ -58,6 +59,29 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
         error={errors.password?.message ?? serverFields.password?.[0]}
         {...form.register('password')}
       />
+      <div className="flex flex-col gap-1">
+        <label className="flex items-start gap-2 text-sm">
+          <input type="checkbox" className="mt-0.5 h-4 w-4 shrink-0 accent-fig-600" aria-invalid={errors.acceptDataLicence ? true : undefined} aria-describedby="licence-hint" {...form.register('acceptDataLicence')} />
+          <span>
+            I agree that my published reports are shared as open data under{' '}
+            <a href={DATA_LICENCE.url} target="_blank" rel="license noreferrer" className="font-medium text-fig-700 underline">
+              {DATA_LICENCE.title} ({DATA_LICENCE.name})
+            </a>
+            , credited to “{DATA_LICENCE.attribution}”.
+          </span>
+        </label>
+        <p id="licence-hint" className="text-xs text-ink/70">
+          Only the ~5 km grid cell of a report is ever shared, never your exact place, name or e-mail.{' '}
+          <Link to="/about" className="underline">
+            About the data
+          </Link>
+        </p>
+        {(errors.acceptDataLicence?.message ?? serverFields.acceptDataLicence?.[0]) && (
+          <p role="alert" className="text-sm text-red-700">
+            {errors.acceptDataLicence?.message ?? serverFields.acceptDataLicence?.[0]}
+          </p>
+        )}
+      </div>
       {signUp.error && !Object.keys(serverFields).length && (
         <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
           {signUp.error.message}

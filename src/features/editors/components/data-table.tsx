@@ -1,6 +1,7 @@
 import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type ColumnDef, type OnChangeFn, type SortingState } from '@tanstack/react-table';
 import { useState, type ReactNode } from 'react';
 import { SortableTableHead } from '../../../components/sortable-table-head';
+import { cardLabel } from '../../../components/table-cards';
 
 export interface PageState {
   limit: number;
@@ -47,14 +48,14 @@ export function DataTable<T>({ caption, columns, rows, total, page, onPageChange
   return (
     <div className="rounded-lg border border-fig-100 bg-white">
       <div className="overflow-x-auto">
-        <table className="w-full text-left text-sm">
+        <table className="table-cards w-full text-left text-sm">
           <caption className="sr-only">{caption}</caption>
           <SortableTableHead table={table} className="bg-fig-50 text-ink/70" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-100 align-top hover:bg-paper">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2">
+                  <td key={cell.id} className="px-3 py-2" data-label={cardLabel(cell.column)}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}

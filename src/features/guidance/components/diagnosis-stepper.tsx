@@ -16,10 +16,12 @@ import {
 } from '@shared/schemas/diagnosis';
 import { Button } from '../../../components/button';
 import { useCurrentUser } from '../../auth/api';
-import { placeSearchQueries, savedPlaceQueries } from '../../places/api';
+import { savedPlaceQueries } from '../../places/api';
+import { PlaceSearch, placeLabel, useResolvePlace } from '../../places/components/place-search';
 import { guidanceQueries } from '../api';
 import { CauseList } from './cause-list';
 import { CautionBox } from './caution-box';
+import { countOf } from '@shared/domain/plural';
 
 const SYMPTOM_TEXT: Record<Symptom, { title: string; hint: string }> = {
   'no-fruit': { title: 'No fruit formed', hint: 'The tree grew leaves but no little figs appeared.' },
@@ -66,7 +68,7 @@ function Choice<T extends string>({ name, legend, value, options, onChange }: { 
       {legend && <legend className="mb-1 text-sm font-medium">{legend}</legend>}
       {(Object.keys(options) as T[]).map((key) => (
         <label key={key} className={`flex cursor-pointer items-center gap-3 rounded-md border px-3 py-2 ${value === key ? 'border-fig-500 bg-fig-50' : 'border-fig-100 bg-white hover:bg-fig-50'}`}>
-          <input type="radio" name={name} value={key} checked={value === key} onChange={() => onChange(key)} />
+          <input type="radio" name={name} value={key} checked={value === key} onChange={() => onChange(key)} className="h-4 w-4 shrink-0 accent-fig-600" />
           {options[key]}
         </label>
       ))}
@@ -80,6 +82,22 @@ export function DiagnosisStepper() {
   const [step, setStep] = useState(0); // 0 = what did you see; 1..n = questions; n+1 = result
   const [place, setPlace] = useState<{ lat: number; lon: number; name: string } | null>(null);
   const set = (patch: Draft) => setDraft((d) => ({ ...d, ...patch }));
+  // A town typed but not picked is looked up when the grower moves on, never dropped.
+  const [pendingTown, setPendingTown] = useState<string | null>(null);
+  const [townProblem, setTownProblem] = useState<string | null>(null);
+  const resolveTown = useResolvePlace();
+  const next = async () => {
+    if (question === 'place' && pendingTown) {
+      const found = await resolveTown(pendingTown).catch(() => null);
+      if (!found) {
+        setTownProblem(`No town called “${pendingTown}” was found. Pick one from the list, or clear the box to go on without a place.`);
+        return;
+      }
+      setPlace({ lat: found.lat, lon: found.lon, name: placeLabel(found) });
+    }
+    setTownProblem(null);
+    setStep(step + 1);
+  };
   // Each step replaces the button just pressed: move focus to the new step's heading so keyboard and
   // screen-reader users continue from the question, not from the top of the page.
   const stepsRef = useRef<HTMLDivElement>(null);
@@ -137,12 +155,17 @@ export function DiagnosisStepper() {
           <h2 id="q-title" tabIndex={-1} className="focus:outline-none text-lg font-semibold text-fig-900">
             {TITLES[question]}
           </h2>
-          <QuestionBody question={question} draft={draft} set={set} place={place} setPlace={setPlace} />
+          <QuestionBody question={question} draft={draft} set={set} place={place} setPlace={setPlace} onPendingTown={setPendingTown} />
+          {townProblem && pendingTown && (
+            <p role="alert" className="text-sm text-red-700">
+              {townProblem}
+            </p>
+          )}
           <div className="flex gap-2">
             <Button type="button" variant="secondary" onClick={() => setStep(step - 1)}>
               Back
             </Button>
-            <Button type="button" onClick={() => setStep(step + 1)}>
+            <Button type="button" onClick={() => void next()}>
               {step === total ? 'See likely causes' : 'Next'}
             </Button>
           </div>
@@ -171,12 +194,14 @@ function QuestionBody({
   set,
   place,
   setPlace,
+  onPendingTown,
 }: {
   question: QuestionKey;
   draft: Draft;
   set: (p: Draft) => void;
   place: { lat: number; lon: number; name: string } | null;
   setPlace: (p: { lat: number; lon: number; name: string } | null) => void;
+  onPendingTown: (text: string | null) => void;
 }) {
   switch (question) {
     case 'variety':
@@ -228,7 +253,7 @@ function QuestionBody({
         </>
       );
     case 'place':
-      return <PlaceQuestion place={place} setPlace={setPlace} />;
+      return <PlaceQuestion place={place} setPlace={setPlace} onPendingText={onPendingTown} />;
   }
 }
 
@@ -267,11 +292,17 @@ function VarietyQuestion({ draft, set }: { draft: Draft; set: (p: Draft) => void
   );
 }
 
-function PlaceQuestion({ place, setPlace }: { place: { lat: number; lon: number; name: string } | null; setPlace: (p: { lat: number; lon: number; name: string } | null) => void }) {
+function PlaceQuestion({
+  place,
+  setPlace,
+  onPendingText,
+}: {
+  place: { lat: number; lon: number; name: string } | null;
+  setPlace: (p: { lat: number; lon: number; name: string } | null) => void;
+  onPendingText: (text: string | null) => void;
+}) {
   const { user } = useCurrentUser();
   const saved = useQuery({ ...savedPlaceQueries.list(), enabled: !!user });
-  const [q, setQ] = useState('');
-  const search = useQuery(placeSearchQueries.search(q.trim()));
   return (
     <div className="flex flex-col gap-3">
       <p className="text-sm text-ink/80">With a place, we add its frost-free season, whether the fig wasp lives there, and how your variety did nearby. You can skip this.</p>
@@ -293,30 +324,11 @@ function PlaceQuestion({ place, setPlace }: { place: { lat: number; lon: number;
           ))}
         </div>
       )}
-      <div className="flex flex-col gap-1">
-        <label htmlFor="place-q" className="text-sm font-medium">
-          Find a town
-        </label>
-        <input id="place-q" type="search" value={q} onChange={(e) => setQ(e.target.value)} className="rounded-md border border-fig-200 px-3 py-2" />
-        {search.data && (
-          <ul className="mt-1 rounded-md border border-fig-100">
-            {search.data.places.map((p) => (
-              <li key={p.id}>
-                <button
-                  type="button"
-                  className="w-full px-3 py-2 text-left text-sm hover:bg-fig-50"
-                  onClick={() => {
-                    setPlace({ lat: p.lat, lon: p.lon, name: `${p.name}, ${p.context}` });
-                    setQ('');
-                  }}
-                >
-                  {p.name} <span className="text-ink/70">{p.context}</span>
-                </button>
-              </li>
-            ))}
-          </ul>
-        )}
-      </div>
+      <PlaceSearch
+        onPick={(p) => setPlace({ lat: p.lat, lon: p.lon, name: placeLabel(p) })}
+        onPendingText={onPendingText}
+        hint="Type two letters or more, then pick a town (Enter takes the best match)."
+      />
     </div>
   );
 }
@@ -337,7 +349,7 @@ function DiagnosisResult({ answers, place, onRestart, onBack }: { answers: Diagn
     <>
       For {place!.name}: {local.seasonDays50 !== null ? `about ${Math.round(local.seasonDays50)} frost-free days in a typical year` : 'no season data in range'}; the fig wasp is{' '}
       {local.waspEstablished ? 'recorded' : 'not recorded'} there
-      {local.varietyTrees !== null ? `; ${local.varietyTrees} trees of your variety were reported nearby` : ''}.
+      {local.varietyTrees !== null ? `; ${countOf(local.varietyTrees, 'tree')} of your variety ${local.varietyTrees === 1 ? 'was' : 'were'} reported nearby` : ''}.
     </>
   );
   return (
@@ -351,9 +363,8 @@ function DiagnosisResult({ answers, place, onRestart, onBack }: { answers: Diagn
         </p>
       </div>
       <CauseList causes={causes} />
-      <CautionBox kinds={['spray', 'ladder']}>
-        <p className="mt-1 text-xs text-ink/70">This check gives likely causes from common growing practice and the atlas’s reports; it is not a diagnosis of pests or disease. Your local extension service can look at your tree.</p>
-      </CautionBox>
+      {/* Each cause carries the cautions its advice needs; this note is about the check itself. */}
+      <p className="text-xs text-ink/70">This check gives likely causes from common growing practice and the atlas’s reports; it is not a diagnosis of pests or disease. Your local extension service can look at your tree.</p>
       <div className="flex flex-wrap gap-2">
         <Button type="button" variant="secondary" onClick={onBack}>
           Change my answers

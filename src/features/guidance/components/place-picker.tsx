@@ -3,7 +3,8 @@ import { useEffect, useId, useState } from 'react';
 import { GROWING_FORMS, LABELS, type GrowingForm } from '@shared/domain/codes';
 import { Button } from '../../../components/button';
 import { useCurrentUser } from '../../auth/api';
-import { placeSearchQueries, savedPlaceQueries } from '../../places/api';
+import { savedPlaceQueries } from '../../places/api';
+import { PlaceSearch } from '../../places/components/place-search';
 import { useUnits } from '../../units/use-units';
 
 /** The grower's round radius choices, plus the current one when it is not among them (a link, or the other unit). */
@@ -15,15 +16,6 @@ export function radiusOptions(choices: { km: number; label: string }[], currentK
 export interface PickedPoint {
   lat: number;
   lon: number;
-}
-
-function useDebounced<T>(value: T, ms: number): T {
-  const [debounced, setDebounced] = useState(value);
-  useEffect(() => {
-    const t = setTimeout(() => setDebounced(value), ms);
-    return () => clearTimeout(t);
-  }, [value, ms]);
-  return debounced;
 }
 
 const selectClass = 'rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none';
@@ -47,9 +39,6 @@ export function PlacePicker({
   const id = useId();
   const { user } = useCurrentUser();
   const units = useUnits();
-  const [q, setQ] = useState('');
-  const debounced = useDebounced(q.trim(), 250);
-  const search = useQuery(placeSearchQueries.search(debounced));
   const saved = useQuery({ ...savedPlaceQueries.list(), enabled: !!user });
   const [lat, setLat] = useState(point ? String(point.lat) : '');
   const [lon, setLon] = useState(point ? String(point.lon) : '');
@@ -66,44 +55,11 @@ export function PlacePicker({
 
   return (
     <div className="flex flex-col gap-4 self-start rounded-lg border border-fig-100 bg-white p-4">
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-q`} className="text-sm font-medium">
-          Find a town
-        </label>
-        <input
-          id={`${id}-q`}
-          type="search"
-          value={q}
-          onChange={(e) => setQ(e.target.value)}
-          placeholder="e.g. Albany"
-          aria-describedby={`${id}-q-hint`}
-          className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm focus:border-fig-500 focus:outline-none"
-        />
-        <p id={`${id}-q-hint`} className="text-xs text-ink/70">
-          Type two letters or more. Or click a spot on the atlas map, or use one of your saved places.
-        </p>
-        {debounced.length >= 2 && (
-          <ul aria-label="Matching towns" className="mt-1 flex flex-col divide-y divide-fig-50 rounded-md border border-fig-100">
-            {search.isLoading && <li className="px-3 py-2 text-sm text-ink/70">Searching…</li>}
-            {search.error && <li className="px-3 py-2 text-sm text-red-700">{search.error.message}</li>}
-            {search.data?.places.length === 0 && <li className="px-3 py-2 text-sm text-ink/70">No town by that name.</li>}
-            {search.data?.places.map((p) => (
-              <li key={p.id}>
-                <button
-                  type="button"
-                  className="w-full px-3 py-2 text-left text-sm hover:bg-fig-50"
-                  onClick={() => {
-                    onPoint({ lat: p.lat, lon: p.lon });
-                    setQ('');
-                  }}
-                >
-                  <span className="font-medium">{p.name}</span> <span className="text-ink/70">{p.context}</span>
-                </button>
-              </li>
-            ))}
-          </ul>
-        )}
-      </div>
+      <PlaceSearch
+        near={point ?? undefined}
+        hint="Type two letters or more. Or click a spot on the atlas map, or use one of your saved places."
+        onPick={(p) => onPoint({ lat: p.lat, lon: p.lon })}
+      />
 
       {saved.data && saved.data.places.length > 0 && (
         <div>

@@ -3,7 +3,7 @@ import { Bar, CartesianGrid, ComposedChart, ErrorBar, ReferenceLine, ResponsiveC
 import { LABELS, type GrowingForm } from '@shared/domain/codes';
 import { MethodNote } from '../../../components/method-note';
 import { guidanceQueries } from '../api';
-import { plural } from '@shared/domain/units';
+import { countOf } from '@shared/domain/plural';
 
 /** Ripening success against frost-free season length, across all reports, with 90 % intervals. */
 export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; localDays?: number | null }) {
@@ -28,7 +28,7 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
             <CartesianGrid strokeDasharray="3 3" stroke="#efdfe8" />
             <XAxis dataKey="band" tick={{ fontSize: 11 }} label={{ value: 'Frost-free days in the season', position: 'insideBottom', offset: -8, fontSize: 11, fill: '#2b2230' }} />
             <YAxis domain={[0, 100]} unit=" %" tick={{ fontSize: 11 }} label={{ value: 'Trees that ripened', angle: -90, position: 'insideLeft', offset: 4, dy: 50, fontSize: 11, fill: '#2b2230' }} />
-            <Tooltip formatter={(value, _name, item) => [`${value} % of ${plural(Math.round((item.payload as { trees: number }).trees), 'tree')}`, 'ripened']} labelFormatter={(label) => `${label} frost-free days`} />
+            <Tooltip formatter={(value, _name, item) => [`${value} % of ${countOf((item.payload as { trees: number }).trees, 'tree')}`, 'ripened']} labelFormatter={(label) => `${label} frost-free days`} />
             <Bar dataKey="share" fill="#5e8a57" radius={[3, 3, 0, 0]} maxBarSize={56}>
               <ErrorBar dataKey="err" width={4} stroke="#3d5e39" />
             </Bar>
@@ -40,7 +40,7 @@ export function SeasonSuccessChart({ form, localDays }: { form?: GrowingForm; lo
         <MethodNote
           method={
             <>
-              {plural(data.reports, 'report')}: {data.fromOwnFrostDates} with the grower’s own frost dates, {data.fromStations} from the nearest station; {data.withoutSeason} without a season left
+              {countOf(data.reports, 'report')}: {data.fromOwnFrostDates} with the grower’s own frost dates, {data.fromStations} from the nearest station; {data.withoutSeason} without a season left
               out. {data.method}
             </>
           }

@@ -7,6 +7,8 @@ import { exportUrl } from '../../reports/api';
 import { mapQueries } from '../api';
 import type { OverlayName } from '../url-state';
 import { useUnits } from '../../units/use-units';
+import { DATA_LICENCE } from '@shared/domain/data-licence';
+import { Link } from 'react-router';
 
 const FIRST_SEASON = 2015;
 const seasons = Array.from({ length: new Date().getFullYear() - FIRST_SEASON + 1 }, (_, i) => new Date().getFullYear() - i);
@@ -177,6 +179,16 @@ export function FiltersPanel({ filters, overlays, totalReports, onFiltersChange,
           </a>
         </p>
         <p className="mt-1 text-xs text-ink/70">Every published report the filters match, anywhere on the map, each at its ~5 km grid cell: never a garden’s own place.</p>
+        <p className="mt-1 text-xs text-ink/70" data-testid="export-licence">
+          Open data under{' '}
+          <a className="underline" href={DATA_LICENCE.url} rel="license">
+            {DATA_LICENCE.name}
+          </a>
+          : credit “{DATA_LICENCE.attribution}”.{' '}
+          <Link to="/about" className="underline">
+            About the data
+          </Link>
+        </p>
       </div>
     </div>
   );

@@ -2,10 +2,44 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router';
 import { LABELS } from '@shared/domain/codes';
 import { Button } from '../../../components/button';
-import { savedPlaceQueries, useDeletePlace, useUpdatePlace } from '../api';
+import { savedPlaceQueries, useDeletePlace, useSavePlace, useUpdatePlace } from '../api';
+import { PlaceSearch } from './place-search';
 
-/** The grower's saved places on the account page: open, make home, delete. */
+/** Add a saved place from the town search (named after the town; rename it later by saving again). */
+function AddPlace() {
+  const save = useSavePlace();
+  return (
+    <div className="mt-3 flex flex-col gap-1">
+      <PlaceSearch
+        label="Add a place by town"
+        hint="Saved with the town's name, in the ground; open it in What ripens here to save a garden's own spot."
+        onPick={(place) => save.mutate({ name: `${place.name}, ${place.context}`.slice(0, 80), lat: place.lat, lon: place.lon, form: 'ground', isHome: false })}
+      />
+      {save.isSuccess && (
+        <p role="status" className="text-sm text-leaf-700">
+          Saved “{save.data.place.name}”.
+        </p>
+      )}
+      {save.error && (
+        <p role="alert" className="text-sm text-red-700">
+          {save.error.message}
+        </p>
+      )}
+    </div>
+  );
+}
+
+/** The grower's saved places on the account page: open, make home, delete, add by town. */
 export function SavedPlaceList() {
+  return (
+    <>
+      <SavedPlaces />
+      <AddPlace />
+    </>
+  );
+}
+
+function SavedPlaces() {
   const { data, isLoading, error } = useQuery(savedPlaceQueries.list());
   const update = useUpdatePlace();
   const remove = useDeletePlace();

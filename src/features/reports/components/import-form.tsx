@@ -4,6 +4,7 @@ import { IMPORT_COLUMNS, IMPORT_MAX_ROWS } from '@shared/domain/report-csv';
 import { Button } from '../../../components/button';
 import { ApiError } from '../../../lib/api-client';
 import { importErrorsByLine, useImportReports } from '../api';
+import { countOf } from '@shared/domain/plural';
 
 /** Upload a CSV of past seasons; all rows go in together, or none with a list of what to fix. */
 export function ImportForm() {
@@ -59,7 +60,7 @@ export function ImportForm() {
 
       {importReports.isSuccess && (
         <p role="status" className="rounded-md bg-leaf-100 px-4 py-3 text-sm text-leaf-700">
-          Imported {importReports.data.imported} report{importReports.data.imported === 1 ? '' : 's'}.
+          Imported {countOf(importReports.data.imported, 'report')}.
           {importReports.data.drafts > 0 && ' They are drafts until your e-mail address is verified.'}{' '}
           <Link to="/my/reports" className="underline">
             See them in My reports

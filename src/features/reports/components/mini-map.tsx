@@ -24,20 +24,26 @@ interface MiniMapProps {
   /** Draw the coarse public cell instead of a pin (for everyone but the owner). */
   cell?: boolean;
   zoom?: number;
+  /** Where to open when there is no place yet (the grower's home garden), without a pin. */
+  startAt?: { lat: number; lon: number } | null;
   onPick?: (point: { lat: number; lon: number }) => void;
   label: string;
   className?: string;
 }
 
 /** A small map on Syconium's own offline style: shows a report's place, or lets a grower click one. */
-export default function MiniMap({ lat, lon, cell = false, zoom, onPick, label, className = 'h-56' }: MiniMapProps) {
+export default function MiniMap({ lat, lon, cell = false, zoom, startAt, onPick, label, className = 'h-56' }: MiniMapProps) {
   const mapStyle = useMemo(() => createBaseStyle(window.location.origin), []);
   const mapRef = useRef<MapRef>(null);
   // Where the map was moved to (for tests: Near me and panning show here).
   const [centreLon, setCentreLon] = useState('');
   const has = lat !== null && lon !== null && Number.isFinite(lat) && Number.isFinite(lon);
   const polygon = useMemo(() => (has && cell ? cellPolygon(lat, lon) : null), [has, cell, lat, lon]);
-  const initialViewState = has ? { latitude: lat, longitude: lon, zoom: zoom ?? (cell ? 9.5 : 10) } : { latitude: 40, longitude: -90, zoom: 2.5 };
+  const initialViewState = has
+    ? { latitude: lat, longitude: lon, zoom: zoom ?? (cell ? 9.5 : 10) }
+    : startAt
+      ? { latitude: startAt.lat, longitude: startAt.lon, zoom: zoom ?? 11 }
+      : { latitude: 40, longitude: -90, zoom: 2.5 };
   return (
     <div className={`relative overflow-hidden rounded-lg border border-fig-100 ${className}`} role="region" aria-label={label} data-testid="mini-map" data-centre-lon={centreLon}>
       <MapGL

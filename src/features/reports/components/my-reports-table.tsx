@@ -6,10 +6,12 @@ import { CROPS, GROWING_FORMS, LABELS, OUTCOMES, REPORT_STATUSES, type Crop, typ
 import type { ReportListItem, ReportListQuery, ReportSort } from '@shared/schemas/reports';
 import { Button } from '../../../components/button';
 import { SortableTableHead } from '../../../components/sortable-table-head';
+import { cardLabel } from '../../../components/table-cards';
 import { reportQueries, useDeleteReport, usePublishReport } from '../api';
 import { inputClass } from '../../../components/form-field';
 import { DateText } from '../../units/components/date-text';
 import { VarietyLink } from '../../varieties/components/variety-link';
+import { countOf } from '@shared/domain/plural';
 
 const column = createColumnHelper<ReportListItem>();
 const STATUS_LABEL = { published: 'Published', draft: 'Draft', hidden: 'Hidden by an editor' } as const;
@@ -137,14 +139,14 @@ export function MyReportsTable() {
       </div>
 
       <div className="overflow-x-auto rounded-lg border border-fig-100 bg-white">
-        <table className="w-full text-left text-sm">
+        <table className="table-cards w-full text-left text-sm">
           <caption className="sr-only">My reports, {total} in all</caption>
           <SortableTableHead table={table} className="bg-fig-50 text-ink/80" />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-fig-50 hover:bg-paper">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="whitespace-nowrap px-3 py-2 align-middle">
+                  <td key={cell.id} className="whitespace-nowrap px-3 py-2 align-middle" data-label={cardLabel(cell.column)}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}
@@ -170,7 +172,7 @@ export function MyReportsTable() {
           )}
           <span>
             {pages > 1 && `Page ${page} of ${pages} · `}
-            {total} report{total === 1 ? '' : 's'}
+            {countOf(total, 'report')}
           </span>
           {pages > 1 && (
             <Button variant="secondary" disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>

@@ -1,4 +1,5 @@
 import { useEffect, useId, useMemo } from 'react';
+import { countOf } from '@shared/domain/plural';
 import { PHOTO_MAX_BYTES, PHOTOS_PER_REPORT, type ReportPhoto } from '@shared/schemas/reports';
 
 const ACCEPT = 'image/jpeg,image/png,image/webp';
@@ -58,22 +59,32 @@ export function PhotoPicker({ files, onChange, existing = [], onDeleteExisting, 
           ))}
         </ul>
       )}
-      <label htmlFor={id} className="text-sm font-medium text-ink">
-        Add photos
-      </label>
-      <input
-        id={id}
-        type="file"
-        accept={ACCEPT}
-        multiple
-        disabled={room <= 0}
-        className="text-sm file:mr-3 file:rounded-md file:border-0 file:bg-fig-100 file:px-3 file:py-1.5 file:text-fig-700"
-        onChange={(e) => {
-          const chosen = Array.from(e.target.files ?? []);
-          e.target.value = '';
-          onChange([...files, ...chosen]);
-        }}
-      />
+      {/* The browser's own file button keeps saying "No file chosen" once the photos are shown above: a button of our own says what is chosen instead. */}
+      <div className="flex flex-wrap items-center gap-3">
+        <label
+          htmlFor={id}
+          className={`inline-flex items-center gap-2 rounded-md border border-fig-200 bg-white px-4 py-2 text-sm font-medium text-fig-700 focus-within:ring-2 focus-within:ring-fig-500 ${room <= 0 ? 'cursor-not-allowed opacity-45' : 'cursor-pointer hover:bg-fig-50'}`}
+        >
+          <span aria-hidden>＋</span> {files.length ? 'Add more photos' : 'Add photos'}
+          <input
+            id={id}
+            type="file"
+            accept={ACCEPT}
+            multiple
+            disabled={room <= 0}
+            className="sr-only"
+            onChange={(e) => {
+              const chosen = Array.from(e.target.files ?? []);
+              e.target.value = '';
+              onChange([...files, ...chosen]);
+            }}
+          />
+        </label>
+        <span className="text-sm text-ink/75" aria-live="polite" data-testid="photo-count">
+          {files.length === 0 ? 'No photos chosen yet.' : `${countOf(files.length, 'photo')} chosen, sent with the report.`}
+          {room <= 0 ? ' No room for more.' : ''}
+        </span>
+      </div>
       <p className="text-xs text-ink/70">
         Up to {PHOTOS_PER_REPORT} photos (JPEG, PNG or WebP, {PHOTO_MAX_BYTES / 1024 / 1024} MB each): the tree, the fruit, a cut fig. Location and camera details are removed from every photo before it is stored.
       </p>

@@ -8,6 +8,7 @@ import { useCurrentUser } from '../../auth/api';
 import { useDeleteReport, useFlagReport, useHideReport, usePublishReport, useRestoreReport } from '../api';
 import { inputClass } from '../../../components/form-field';
 import { NearbyEvidence } from './nearby-evidence';
+import { TreeTimeline } from './tree-timeline';
 import { ReportMapSnippet } from './report-map-snippet';
 import { useUnits } from '../../units/use-units';
 import { VarietyLink } from '../../varieties/components/variety-link';
@@ -97,6 +98,8 @@ export function ReportDetails({ report }: { report: Report }) {
           </p>
         </div>
       </div>
+
+      <TreeTimeline report={report} />
 
       <section className="rounded-lg border border-fig-100 bg-white p-5">
         <h2 className="text-lg font-semibold text-fig-900">Nearby evidence for {reportTitle(report)}</h2>

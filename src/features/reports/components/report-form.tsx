@@ -12,8 +12,10 @@ import { submitNewReport } from '../../report-outbox/send';
 import { ChoiceGroup, FormSection, choiceClass } from './fields';
 import { Field, FormField, inputClass, useFocusFirstInvalid } from '../../../components/form-field';
 import { PhotoPicker, checkPhotoFiles } from './photo-picker';
-import { PlaceSearch } from './place-search';
+import { WherePicker } from './where-picker';
+import { useHomePlace } from '../../places/api';
 import { VarietyPicker } from './variety-picker';
+import { countOf } from '@shared/domain/plural';
 
 const MiniMap = lazy(() => import('./mini-map'));
 
@@ -85,6 +87,9 @@ function valuesOf(report: Report): CreateReportInput {
 
 export interface SavedResult {
   id: number;
+  /** A new report (posted) or a change to one (saved). */
+  action: 'posted' | 'saved';
+  status?: Report['status'];
   notice?: string;
   photoError?: string;
 }
@@ -106,6 +111,7 @@ export function ReportForm({ report, onSaved, onKept }: { report?: Report; onSav
   const trees = useQuery(reportQueries.trees());
   const queryClient = useQueryClient();
   const { user } = useCurrentUser();
+  const home = useHomePlace();
   const update = useUpdateReport();
   const upload = useUploadPhotos();
   const deletePhoto = useDeletePhoto();
@@ -164,17 +170,17 @@ export function ReportForm({ report, onSaved, onKept }: { report?: Report; onSav
         if (outcome.kind === 'refused') return showRefusal(outcome.error);
         if (outcome.kind === 'kept') return onKept?.();
         await queryClient.invalidateQueries({ queryKey: reportQueries.all });
-        return onSaved({ id: outcome.id, notice: outcome.notice, photoError: outcome.photoError });
+        return onSaved({ id: outcome.id, notice: outcome.notice, photoError: outcome.photoError, action: 'posted' });
       } catch (error) {
         return showRefusal(error);
       } finally {
         setProgress(null);
       }
     }
-    let saved: { id: number; notice?: string };
+    let saved: Omit<SavedResult, 'photoError'>;
     try {
       const result = await update.mutateAsync({ id: report.id, ...values });
-      saved = { id: result.report.id, notice: result.notice };
+      saved = { id: result.report.id, notice: result.notice, action: 'saved', status: result.report.status };
     } catch (error) {
       showRefusal(error);
       return;
@@ -204,7 +210,7 @@ export function ReportForm({ report, onSaved, onKept }: { report?: Report; onSav
               <option value="">A new tree</option>
               {trees.data?.trees.map((tree) => (
                 <option key={tree.id} value={tree.id}>
-                  {tree.label} ({tree.reportCount} report{tree.reportCount === 1 ? '' : 's'})
+                  {tree.label} ({countOf(tree.reportCount, 'report')})
                 </option>
               ))}
             </select>
@@ -237,22 +243,24 @@ export function ReportForm({ report, onSaved, onKept }: { report?: Report; onSav
       </FormSection>
 
       <FormSection title="Where it grows" intro="Your exact spot stays private: only you and the editors see it. Everyone else sees the report on a grid of about 5 km.">
-        <PlaceSearch
-          onPick={(place) => {
+        <WherePicker
+          onPlace={(place) => {
             setValue('lat', Math.round(place.lat * 1e5) / 1e5, { shouldValidate: true });
             setValue('lon', Math.round(place.lon * 1e5) / 1e5, { shouldValidate: true });
+            if (place.form && !editing) setValue('form', place.form);
             setMapKey((k) => k + 1);
           }}
         />
         <div className="flex flex-col gap-1">
           <Suspense fallback={<div className="h-64 rounded-lg bg-leaf-100/50" />}>
             <MiniMap
-              key={mapKey}
+              key={`${mapKey}-${home?.id ?? 0}`}
               className="h-64"
               label="Click where the tree stands"
               lat={typeof lat === 'number' && Number.isFinite(lat) ? lat : null}
               lon={typeof lon === 'number' && Number.isFinite(lon) ? lon : null}
               zoom={11}
+              startAt={home}
               onPick={(point) => {
                 setValue('lat', point.lat, { shouldValidate: formState.isSubmitted });
                 setValue('lon', point.lon, { shouldValidate: formState.isSubmitted });

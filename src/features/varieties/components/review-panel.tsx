@@ -5,6 +5,7 @@ import { inputClass } from '../../../components/form-field';
 import { useAcceptVariety, useRejectVariety } from '../api';
 import { MergePanel } from './merge-panel';
 import { VarietyForm } from './variety-form';
+import { countOf } from '@shared/domain/plural';
 
 type Choice = 'accept' | 'merge' | 'reject';
 
@@ -18,7 +19,7 @@ export function ReviewPanel({ variety, onDone, onCancel }: { variety: CatalogueE
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm text-ink/80">
-        {variety.status === 'rejected' ? 'Rejected earlier; you can still accept or merge it. ' : ''}Proposed{variety.proposedBy ? ` by ${variety.proposedBy}` : ''} with {variety.reportCount} report{variety.reportCount === 1 ? '' : 's'}.
+        {variety.status === 'rejected' ? 'Rejected earlier; you can still accept or merge it. ' : ''}Proposed{variety.proposedBy ? ` by ${variety.proposedBy}` : ''} with {countOf(variety.reportCount, 'report')}.
         {variety.notes && <> Note: {variety.notes}</>}
       </p>
       <div role="radiogroup" aria-label="Decision" className="flex flex-wrap gap-2">
