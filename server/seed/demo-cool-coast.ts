@@ -21,7 +21,7 @@ export function seedDemoCoolCoast(db: Db): void {
   const reports = buildDemoReports(DEMO_COOL_COAST_GROWERS.length, DEMO_VARIETIES, 40_802, [DEMO_COOL_COAST_TOWN]);
   const verified = new Date().toISOString();
   db.transaction(() => {
-    const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo) VALUES (?, ?, ?, 'grower', ?, 1)");
+    const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role, email_verified_at, is_demo, data_licence_agreed_at) VALUES (?, ?, ?, 'grower', ?, 1, strftime('%Y-%m-%dT%H:%M:%fZ','now'))");
     const growerIds = DEMO_COOL_COAST_GROWERS.map((name) => Number(insertUser.run(`${name.toLowerCase().replace(/[^a-z]+/g, '.')}@${DEMO_COOL_COAST_EMAIL_DOMAIN}`, `${name} (demo)`, story.passwordHash, verified).lastInsertRowid));
     const insertTree = sqlite.prepare('INSERT INTO trees (user_id, label) VALUES (?, ?)');
     const insertReport = sqlite.prepare(

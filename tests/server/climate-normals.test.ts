@@ -44,7 +44,7 @@ describe('NOAA normals shipped with the app', () => {
     expect(station).toMatchObject({ lastSpringDoy90: doy('04-16'), firstFallDoy90: doy('10-23') });
 
     // The near answer at the airport, with only that station in range.
-    const near = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=3`).expect(200)).body);
+    const near = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=8`).expect(200)).body);
     expect(near.season).toMatchObject({ days50: 163, days10: 144, days90: null, lastSpringDoy50: doy('04-28'), firstFallDoy50: doy('10-10'), gdd50F: 2649, stationCount: 1 });
     expect(near.season.sources).toEqual([{ source: 'normals', period: '1981-2010', stations: 1 }]);
     expect(near.season.stations[0]).toMatchObject({ code: 'USW00014735', source: 'normals', period: '1981-2010' });
@@ -56,7 +56,7 @@ describe('NOAA normals shipped with the app', () => {
     const station = normalsStationSchema.parse((await ctx.agent().get('/api/stations/normals/AQW00061705').expect(200)).body);
     expect(station).toMatchObject({ freezeNote: 'never', lastSpringDoy50: null, firstFallDoy50: null, seasonDays50: 365 });
     expect(station.freezeWords).toContain('frost-free all year');
-    const near = nearResponseSchema.parse((await ctx.agent().get('/api/atlas/near?lat=-14.3306&lon=-170.7136&radiusKm=3').expect(200)).body);
+    const near = nearResponseSchema.parse((await ctx.agent().get('/api/atlas/near?lat=-14.3306&lon=-170.7136&radiusKm=8').expect(200)).body);
     expect(near.season).toMatchObject({ freezeNote: 'never', lastSpringDoy50: null, firstFallDoy50: null, days50: 365 });
     expect(near.season.method).toContain('Frost-free all year');
   });
@@ -66,17 +66,17 @@ describe('NOAA normals shipped with the app', () => {
     const station = normalsStationSchema.parse((await ctx.agent().get('/api/stations/normals/USC00020678').expect(200)).body);
     expect(station).toMatchObject({ freezeNote: 'any-month', lastSpringDoy50: null, firstFallDoy50: null, lastSpringDoy90: null, firstFallDoy90: null });
     expect(station.freezeWords).toContain('no frost-free season defined');
-    const near = nearResponseSchema.parse((await ctx.agent().get('/api/atlas/near?lat=35.23&lon=-111.8214&radiusKm=3').expect(200)).body);
+    const near = nearResponseSchema.parse((await ctx.agent().get('/api/atlas/near?lat=35.23&lon=-111.8214&radiusKm=8').expect(200)).body);
     expect(near.season).toMatchObject({ freezeNote: 'any-month', days50: null, lastSpringDoy50: null, firstFallDoy50: null });
     expect(near.season.method).toContain('No frost-free season defined');
   });
 
   it("prefers Albany's own daily record, and it agrees with the normals within the days the periods explain", async () => {
-    const normals = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=3`)).body).season;
+    const normals = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=8`)).body).season;
     const { file, meta } = REAL_DEMO_STATIONS[0]!;
     const days = readRealStationDays(file);
     saveStation(ctx.db, meta, { days, ...computeFreezeTables(days, meta.lat, 'ghcn-tenths') }, null);
-    const daily = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=3`)).body).season;
+    const daily = nearResponseSchema.parse((await ctx.agent().get(`/api/atlas/near?lat=${ALBANY.lat}&lon=${ALBANY.lon}&radiusKm=8`)).body).season;
     // One station, the same code: the daily record (1991 on, 20+ complete years) is used, not both.
     expect(daily.stationCount).toBe(1);
     expect(daily.stations[0]).toMatchObject({ code: 'USW00014735', source: 'daily' });

@@ -18,7 +18,7 @@ describe('the open-data licence of published reports', () => {
 
     const before = Date.now();
     const joined = await ctx.agent().post('/api/auth/sign-up').send({ email: 'licence@example.com', displayName: 'Licensed', password: 'a long enough password', acceptDataLicence: true });
-    expect(joined.status).toBe(201);
+    expect(joined.status).toBe(202);
     const row = ctx.db.select().from(users).where(eq(users.email, 'licence@example.com')).get()!;
     expect(Date.parse(row.dataLicenceAgreedAt!)).toBeGreaterThanOrEqual(before - 1000);
   });

@@ -86,8 +86,8 @@ describe('sign-up does not tell whether an address has an account', async () => 
 
   it('answers a taken address exactly as a new one, without a session, and mails the owner instead', async () => {
     await ctx.signedIn('grower', 'owner@example.com');
-    const taken = await ctx.agent().post('/api/auth/sign-up').send({ email: 'Owner@Example.com', displayName: 'Intruder', password: 'a long enough password' });
-    const fresh = await ctx.agent().post('/api/auth/sign-up').send({ email: 'newcomer@example.com', displayName: 'Newcomer', password: 'a long enough password' });
+    const taken = await ctx.agent().post('/api/auth/sign-up').send({ email: 'Owner@Example.com', displayName: 'Intruder', acceptDataLicence: true, password: 'a long enough password' });
+    const fresh = await ctx.agent().post('/api/auth/sign-up').send({ email: 'newcomer@example.com', displayName: 'Newcomer', acceptDataLicence: true, password: 'a long enough password' });
     for (const res of [taken, fresh]) {
       expect(res.status).toBe(202);
       expect(res.body).toEqual({ message: SIGN_UP_ANSWER });
@@ -113,7 +113,7 @@ describe('sign-up does not tell whether an address has an account', async () => 
 
   it('sends the owner one notice an hour at most, however many attempts', async () => {
     await ctx.signedIn('grower', 'busy@example.com');
-    for (let i = 0; i < 5; i++) expect((await ctx.agent().post('/api/auth/sign-up').send({ email: 'busy@example.com', displayName: 'Flood', password: 'a long enough password' })).status).toBe(202);
+    for (let i = 0; i < 5; i++) expect((await ctx.agent().post('/api/auth/sign-up').send({ email: 'busy@example.com', displayName: 'Flood', acceptDataLicence: true, password: 'a long enough password' })).status).toBe(202);
     await expect.poll(() => ctx.inbox('busy@example.com').length, { timeout: 10_000 }).toBe(1);
     await new Promise((r) => setTimeout(r, 300));
     expect(ctx.inbox('busy@example.com')).toHaveLength(1);
@@ -124,7 +124,7 @@ describe('sign-up is limited per client address', () => {
   it('answers 429 with Retry-After past the limit, for new and taken addresses alike', async () => {
     const ctx = createTestContext({ signUpLimit: { windowMs: 60 * 60_000, perAddress: 3 } });
     await ctx.signedIn('grower', 'taken@example.com');
-    const join = (email: string, address = '192.0.2.40') => ctx.agent().post('/api/auth/sign-up').set(from(address)).send({ email, displayName: 'Joiner', password: 'a long enough password' });
+    const join = (email: string, address = '192.0.2.40') => ctx.agent().post('/api/auth/sign-up').set(from(address)).send({ email, displayName: 'Joiner', acceptDataLicence: true, password: 'a long enough password' });
     expect((await join('a1@example.com')).status).toBe(202);
     expect((await join('taken@example.com')).status).toBe(202);
     expect((await join('a2@example.com')).status).toBe(202);
