@@ -176,6 +176,7 @@ const PARAMETERS: Record<string, { paths: Paths; note?: string }> = {
 const NOT_PUBLIC: Record<string, string> = {
   'GET /api/dev/mail': 'the development mailbox: loopback only, not mounted in production (the digest it would show is compared below)',
   'GET /api/dev/mail/:id': 'the development mailbox, as above',
+  'GET /metrics': 'operations: answers only loopback or a token holder; request counts and timings per route pattern, no place (tests/server/ops.test.ts)',
 };
 
 const ROUTES_CHECKED = new Set<string>();
