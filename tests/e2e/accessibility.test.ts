@@ -63,12 +63,13 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
       const page = await site.newPage({ viewport: size, bypassCSP: true });
       page.setDefaultTimeout(60_000);
       const reportId = await page.goto(`${site.url}/api/reports?pageSize=1`).then((r) => r!.json()).then((b: { reports: { id: number }[] }) => b.reports[0]!.id);
-      const screens = ['/', '/?lat=42.65&lon=-73.75&zoom=10', '/here', '/here?lat=42.65&lon=-73.75&form=ground', '/why-no-figs', '/about', '/sign-in', '/sign-up', '/forgot-password', `/reports/${reportId}`, '/no-such-page'];
+      const varietyId = await page.goto(`${site.url}/api/varieties`).then((r) => r!.json()).then((b: { varieties: { id: number }[] }) => b.varieties[0]!.id);
+      const screens = ['/', '/?lat=42.65&lon=-73.75&zoom=10', '/here', '/here?lat=42.65&lon=-73.75&form=ground', '/here/compare?a=42.65,-73.75&b=43.04,-87.91&form=ground', `/varieties/${varietyId}`, '/accuracy', '/support', '/why-no-figs', '/about', '/sign-in', '/sign-up', '/forgot-password', `/reports/${reportId}`, '/no-such-page'];
       for (const path of screens) for (const v of await check(page, `${site.url}${path}`)) problems.push(`${size.width}px ${path}: ${v}`);
       // The town search with its list open, and Why no figs' result.
       await page.goto(`${site.url}/here`);
       await page.getByRole('combobox', { name: 'Find a town' }).fill('Alban');
-      await page.getByRole('option').first().waitFor();
+      await page.getByRole('listbox', { name: 'Matching towns' }).getByRole('option').first().waitFor();
       for (const v of await seriousViolations(page)) problems.push(`${size.width}px /here with the town list open: ${v}`);
       await page.goto(`${site.url}/why-no-figs`);
       await page.getByRole('button', { name: /No fruit formed/ }).click();
@@ -88,14 +89,14 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
         const page = await site.newPage({ viewport: size, bypassCSP: true });
         page.setDefaultTimeout(60_000);
         await signIn(page, site.url, `${role}@demo.syconium.test`, DEMO_PASSWORD);
-        const screens = ['/', '/here?lat=42.65&lon=-73.75&form=ground', '/why-no-figs', '/account', '/reports/new', '/my/reports', '/my/reports/import', '/about'];
+        const screens = ['/', '/here?lat=42.65&lon=-73.75&form=ground', '/why-no-figs', '/account', '/reports/new', '/my/reports', '/my/reports/import', '/about', '/support'];
         if (role === 'grower') {
           const own = await page.evaluate(() => fetch('/api/reports?mine=true&pageSize=1').then((r) => r.json()));
           const id = (own as { reports: { id: number }[] }).reports[0]!.id;
           screens.push(`/reports/${id}`, `/reports/${id}/edit`);
         } else {
           screens.push('/editors', '/editors/varieties', '/editors/wasp-areas', '/editors/stations', '/editors/moderation', '/editors/audit');
-          if (role === 'admin') screens.push('/editors/people');
+          if (role === 'admin') screens.push('/editors/people', '/editors/supporters');
         }
         for (const path of screens) for (const v of await check(page, `${site.url}${path}`)) problems.push(`${size.width}px ${path}: ${v}`);
         if (role === 'admin') {

@@ -76,7 +76,7 @@ describe('the grower’s day: town search, report form, phones and admins, licen
     await toPlaceQuestion(page);
     const box = page.getByRole('combobox', { name: 'Find a town' });
     await box.fill('Alban');
-    await expect.poll(() => page.getByRole('option').first().textContent(), { timeout: 30_000 }).toContain('Albany');
+    await expect.poll(() => page.getByRole('listbox', { name: 'Matching towns' }).getByRole('option').first().textContent(), { timeout: 30_000 }).toContain('Albany');
     await box.press('Tab');
     const flag = page.getByTestId('place-search-flag');
     await expect.poll(() => flag.textContent(), { timeout: 15_000 }).toContain('“Alban” is not chosen yet');
@@ -276,6 +276,8 @@ describe('the grower’s day: town search, report form, phones and admins, licen
     expect(exported.attribution).toBe('Syconium contributors');
 
     await page.goto(`${site.url}/about`);
+    // Pages load as their own chunks: wait for the page itself, not the "Loading…" in its place.
+    await page.getByText('How the numbers are made').first().waitFor();
     const text = await page.locator('main').innerText();
     for (const source of ['CC BY 4.0', 'Syconium contributors', 'NOAA', 'GeoNames', 'Natural Earth', 'US Census', 'lakes and rivers', 'How the numbers are made']) expect(text, source).toContain(source);
     // The atlas's download links say the licence too.
