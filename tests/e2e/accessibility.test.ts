@@ -148,7 +148,7 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
     for (let i = 0; i < 10; i++) {
       if (await page.getByRole('heading', { name: 'Likely causes, most likely first' }).isVisible()) break;
       // Each step's first choice by arrow key where there are radios, then on to the next step.
-      await tabTo(page, /^(Next|See likely causes)$/);
+      await tabTo(page, /^(Next|See likely causes)$/, 120);
       await page.keyboard.press('Enter');
     }
     await expect.poll(() => page.getByRole('heading', { name: 'Likely causes, most likely first' }).isVisible()).toBe(true);

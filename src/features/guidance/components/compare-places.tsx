@@ -102,8 +102,8 @@ export function ComparePlaces({ a, b, form, radiusKm, onPoint, onForm, onRadius 
                   <td className="px-3 py-2">
                     <VarietyLink id={id} name={r.name} />
                   </td>
-                  <td className="px-3 py-2">{r.a ? <ChanceCell v={r.a} barClassName="hidden sm:block w-20" /> : <span className="text-ink/50">not reported</span>}</td>
-                  <td className="px-3 py-2">{r.b ? <ChanceCell v={r.b} barClassName="hidden sm:block w-20" /> : <span className="text-ink/50">not reported</span>}</td>
+                  <td className="px-3 py-2">{r.a ? <ChanceCell v={r.a} barClassName="hidden sm:block w-20" /> : <span className="text-ink/70">not reported</span>}</td>
+                  <td className="px-3 py-2">{r.b ? <ChanceCell v={r.b} barClassName="hidden sm:block w-20" /> : <span className="text-ink/70">not reported</span>}</td>
                 </tr>
               ))}
             </tbody>

@@ -59,7 +59,7 @@ export function ChanceCell({ v, barClassName = 'w-12 sm:w-20' }: { v: VarietyEvi
   const c = chanceOf(v);
   if (c.tooLittle)
     return (
-      <span className="text-sm text-ink/60" data-testid="chance-too-little">
+      <span className="text-sm text-ink/70" data-testid="chance-too-little">
         too little evidence ({plural(c.trees, 'tree')})
       </span>
     );
@@ -81,7 +81,7 @@ function MarginCell({ v }: { v: VarietyEvidence }) {
     <div className="flex flex-col items-start gap-0.5">
       <span className={`hidden rounded-full px-2 py-0.5 text-xs font-medium whitespace-nowrap sm:inline ${VERDICT_STYLE[fit.verdict]}`}>{LABELS.verdict[fit.verdict]}</span>
       {/* On a phone the verdict is the colour of the margin itself (the words are in the details). */}
-      {fit.verdict === 'unknown' && <span className="text-xs text-ink/60 sm:hidden">—</span>}
+      {fit.verdict === 'unknown' && <span className="text-xs text-ink/70 sm:hidden">—</span>}
       {fit.marginDays !== null && (
         <span className={`whitespace-nowrap rounded px-1 text-xs tabular-nums sm:bg-transparent sm:px-0 sm:text-ink/80 ${VERDICT_STYLE[fit.verdict]}`} title={LABELS.verdict[fit.verdict]}>
           {fit.marginDays > 0 ? '+' : ''}
@@ -179,7 +179,7 @@ export function VarietyTable({ near, onlyIds }: { near: NearResponse; onlyIds?: 
           return (
             <div className="flex flex-col">
               <VarietyLink id={v.varietyId} name={v.name} className="sm:whitespace-nowrap" />
-              <span className="hidden whitespace-nowrap text-xs text-ink/60 sm:inline">
+              <span className="hidden whitespace-nowrap text-xs text-ink/70 sm:inline">
                 {v.isFictional ? 'fictional' : ''}
                 {blocked ? `${v.isFictional ? ' · ' : ''}needs the wasp` : ''}
               </span>
@@ -205,7 +205,7 @@ export function VarietyTable({ near, onlyIds }: { near: NearResponse; onlyIds?: 
         header: 'Trees / growers',
         sortDescFirst: true,
         cell: ({ row: { original: v } }) => (
-          <span className={`whitespace-nowrap tabular-nums ${Math.round(v.all.trees) <= THIN_TREES ? 'text-ink/60' : ''}`} title={`${plural(Math.round(v.all.trees), 'tree')} from ${plural(v.growers, 'grower')}`}>
+          <span className={`whitespace-nowrap tabular-nums ${Math.round(v.all.trees) <= THIN_TREES ? 'text-ink/70' : ''}`} title={`${plural(Math.round(v.all.trees), 'tree')} from ${plural(v.growers, 'grower')}`}>
             {Math.round(v.all.trees)} / {v.growers}
           </span>
         ),

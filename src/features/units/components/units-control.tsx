@@ -8,8 +8,9 @@ export function UnitsMenu() {
   const { prefs } = useUnits();
   return (
     <details className="relative" data-testid="units-menu">
-      <summary className="cursor-pointer list-none rounded-md px-2 py-1.5 text-sm text-ink/80 hover:bg-fig-50" aria-label={`Units: °${prefs.temperature}, ${prefs.distance === 'mi' ? 'miles' : 'km'}. Change`}>
-        °{prefs.temperature} · {prefs.distance} <span aria-hidden="true">▾</span>
+      <summary className="cursor-pointer list-none rounded-md px-2 py-1.5 text-sm text-ink/80 hover:bg-fig-50">
+        {/* The visible text is part of the name (axe: label-content-name-mismatch). */}
+        <span className="sr-only">Units: </span>°{prefs.temperature} · {prefs.distance} <span aria-hidden="true">▾</span>
       </summary>
       <div className="absolute right-0 z-30 mt-1 rounded-md border border-fig-100 bg-white p-3 shadow-lg">
         <UnitsControl compact />
