@@ -45,10 +45,21 @@ describe('harvest reports in the browser', () => {
     await page.goto(`${site.url}/?lat=44.075&lon=-103.225&zoom=9`);
     const canvas = page.locator('canvas.maplibregl-canvas').first();
     const link = page.locator(`a[href="/reports/${reportId}"]`);
+    // Click the pin where the map draws it (the ring pins sit in their own layer).
+    const pinAt = () =>
+      page.evaluate(() => {
+        const map = (window as unknown as { syconiumMap?: { queryRenderedFeatures: (g: undefined, o: { layers: string[] }) => { geometry: { coordinates: [number, number] } }[]; project: (c: [number, number]) => { x: number; y: number }; getStyle: () => { layers: { id: string }[] } } }).syconiumMap;
+        if (!map || !map.getStyle().layers.some((l) => l.id === 'pins-cells')) return null;
+        const f = map.queryRenderedFeatures(undefined, { layers: ['pins-cells'] })[0];
+        return f ? map.project(f.geometry.coordinates) : null;
+      });
+    await expect.poll(pinAt, { timeout: 60_000 }).not.toBeNull();
     await expect
       .poll(
         async () => {
-          await canvas.click({ timeout: 5_000 }).catch(() => undefined);
+          const at = await pinAt();
+          const box = await canvas.boundingBox();
+          if (at && box) await page.mouse.click(box.x + at.x, box.y + at.y);
           return link.isVisible();
         },
         { timeout: 60_000, interval: 2_000 },

@@ -82,6 +82,9 @@ describe('editors’ climate stations in the browser', () => {
     await page.goto(`${site.url}/here?lat=40.8&lon=-124.16&form=ground`);
     await expect.poll(() => page.getByTestId('season-extras').textContent(), { timeout: 60_000 }).toContain('growing degree days');
     expect(await page.getByText(/NOAA normals 1981-2010/).first().isVisible()).toBe(true);
+    // The fit's words sit in each row's details: open them all.
+    const closed = page.getByRole('button', { name: /^Show details of/ });
+    for (let i = 0; i < 20 && (await closed.count()) > 0; i++) await closed.first().click();
     await expect.poll(() => page.getByText(/Enough days, too little heat/).first().isVisible()).toBe(true);
   });
 });

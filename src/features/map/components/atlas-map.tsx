@@ -103,10 +103,15 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
     onViewChange({ lat: c.lat, lon: c.wrap().lng, zoom: map.getZoom() });
   }, [onViewChange]);
 
+  // The ring images are drawn on demand by a resolver set at 'load': the pins layer comes after it, or
+  // with the first view's pins already fetched (main.tsx) it would ask for images nobody can draw yet.
+  const [loaded, setLoaded] = useState(false);
+
   const onLoad = useCallback(() => {
     const map = mapRef.current?.getMap();
     if (!map) return;
     provideRingImages(map);
+    setLoaded(true);
     setViewport(viewportOf(map));
     // For browser tests and debugging: the live map instance and the season surface's reading.
     const w = window as unknown as { syconiumMap?: MapLibreMap; syconiumSeasonAt?: typeof seasonSurfaceValueAt };
@@ -204,22 +209,24 @@ export const AtlasMap = forwardRef<AtlasMapHandle, AtlasMapProps>(function Atlas
 
         {/* Layer order, whichever layer is switched on first: the season surface under the water
             and labels, wasp areas and climate stations under the report pins, the pins on top. */}
-        <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
-          <Layer {...PIN_CELL_LAYER} />
-          <Layer {...PIN_CLUSTER_LAYER} />
-        </Source>
+        {loaded && (
+          <Source id={SOURCE_IDS.pins} type="geojson" data={(pins.data ?? { type: 'FeatureCollection', features: [] }) as FeatureCollection}>
+            <Layer {...PIN_CELL_LAYER} />
+            <Layer {...PIN_CLUSTER_LAYER} />
+          </Source>
+        )}
         {showFrost && (
           <Source id={SOURCE_IDS.season} {...SEASON_SOURCE}>
             <Layer {...SEASON_SURFACE_LAYER} beforeId={SEASON_SURFACE_BEFORE} />
           </Source>
         )}
-        {showWasp && wasp.data && (
+        {loaded && showWasp && wasp.data && (
           <Source id={SOURCE_IDS.wasp} type="geojson" data={wasp.data as FeatureCollection}>
             <Layer {...WASP_FILL_LAYER} beforeId={PIN_CELL_LAYER.id} />
             <Layer {...WASP_OUTLINE_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
         )}
-        {showFrost && (
+        {loaded && showFrost && (
           <Source id={SOURCE_IDS.frost} type="geojson" data={stationData}>
             <Layer {...FROST_STATION_LAYER} beforeId={PIN_CELL_LAYER.id} />
           </Source>
