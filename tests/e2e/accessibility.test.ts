@@ -145,11 +145,14 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
     await page.goto(`${site.url}/why-no-figs`);
     await tabTo(page, /Fruit formed, then dropped/);
     await page.keyboard.press('Enter');
+    const stepTitle = () => page.locator('main h2').first().textContent();
     for (let i = 0; i < 10; i++) {
       if (await page.getByRole('heading', { name: 'Likely causes, most likely first' }).isVisible()) break;
-      // Each step's first choice by arrow key where there are radios, then on to the next step.
+      // On to the next step by Tab and Enter, once the step on screen is the new one.
+      const title = await stepTitle();
       await tabTo(page, /^(Next|See likely causes)$/, 120);
       await page.keyboard.press('Enter');
+      await expect.poll(stepTitle, { timeout: 10_000 }).not.toBe(title);
     }
     await expect.poll(() => page.getByRole('heading', { name: 'Likely causes, most likely first' }).isVisible()).toBe(true);
 
