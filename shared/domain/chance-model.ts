@@ -395,16 +395,7 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
     }
     listFor(byVariety, v.id).push(r);
     listFor(byGrower, r.userId).push(r);
-    const t = rate.get(v.id) ?? { s: 0, n: 0, sumF: 0, trees: 0, sumX: 0, nX: 0 };
-    t.s += r.edible;
-    t.n += r.seasons;
-    t.sumF += r.reports > 0 ? r.ripened / r.reports : 0;
-    t.trees++;
-    if (x !== null) {
-      t.sumX += x * r.seasons;
-      t.nX += r.seasons;
-    }
-    rate.set(v.id, t);
+    tallyVarietyRate(rate, v.id, r, x);
     const c = classRate.get(classOf(v)) ?? { s: 0, n: 0 };
     c.s += r.edible;
     c.n += r.seasons;
@@ -437,16 +428,7 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
         touchedClasses.get(key)!.add(x, r.edible, r.seasons, -1);
         touchedVarieties.get(v.id)!.add(x, r.edible, r.seasons, -1);
       }
-      const t = ownRate.get(v.id) ?? { s: 0, n: 0, sumF: 0, trees: 0, sumX: 0, nX: 0 };
-      t.s += r.edible;
-      t.n += r.seasons;
-      t.sumF += r.reports > 0 ? r.ripened / r.reports : 0;
-      t.trees++;
-      if (x !== null) {
-        t.sumX += x * r.seasons;
-        t.nX += r.seasons;
-      }
-      ownRate.set(v.id, t);
+      tallyVarietyRate(ownRate, v.id, r, x);
       const c = ownClass.get(key) ?? { s: 0, n: 0 };
       c.s += r.edible;
       c.n += r.seasons;
@@ -540,4 +522,23 @@ export function accuracyOf(predictions: readonly HeldOutPrediction[]) {
     brierSkillScore: brierSkillScore(result.chance.brier, result.overallRate.brier),
     bins: reliabilityBins(chance, y),
   };
+}
+
+/** Adds one tree record to its variety's running rate (edible seasons, mean share, mean margin). */
+function tallyVarietyRate(
+  rates: Map<number, { s: number; n: number; sumF: number; trees: number; sumX: number; nX: number }>,
+  varietyId: number,
+  r: { edible: number; seasons: number; reports: number; ripened: number },
+  x: number | null,
+): void {
+  const t = rates.get(varietyId) ?? { s: 0, n: 0, sumF: 0, trees: 0, sumX: 0, nX: 0 };
+  t.s += r.edible;
+  t.n += r.seasons;
+  t.sumF += r.reports > 0 ? r.ripened / r.reports : 0;
+  t.trees++;
+  if (x !== null) {
+    t.sumX += x * r.seasons;
+    t.nX += r.seasons;
+  }
+  rates.set(varietyId, t);
 }
