@@ -1,6 +1,7 @@
 // The production server as a child process on a free port: used by the browser and fault tests
 // (through tests/helpers/temp-server.ts) and by `npm run load`.
 import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import net from 'node:net';
 
 export async function freePort(): Promise<number> {
@@ -46,12 +47,13 @@ export interface ServerProcessOptions {
  * (tsx as a loader, not the tsx CLI, which forks a second one) in its own process group, so a signal
  * reaches the process that holds the database and stop() ends everything it started.
  * A cold start seeds the demo (two real station files): the wait allows for a busy machine.
+ * Production refuses to start without SESSION_SECRET: unless the caller or the shell gives one, this process gets its own.
  */
 export async function startServerProcess(env: Record<string, string>, { nodeArgs = [], startTimeoutMs = 180_000, stopGraceMs = 5_000 }: ServerProcessOptions = {}): Promise<ServerProcess> {
   const port = await freePort();
   const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
     detached: true,
-    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ...env },
+    env: { SESSION_SECRET: randomBytes(32).toString('hex'), ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let output = '';

@@ -75,13 +75,13 @@ const kindOfPath = (p: string) =>
 /** Watches the page's responses (for the scripts received before first paint) and sets the throttling. */
 async function watchNetwork(session: CDPSession) {
   const responses = new Map<string, { kind: string; url: string }>();
-  const finished: { kind: string; bytes: number; at: number }[] = [];
+  const finished: { kind: string; bytes: number; at: number; url: string }[] = [];
   const kindOf = (type: string, url: string) => (url.includes('/tiles/') ? 'tile' : /\.(m?js)(\?|$)/.test(url) ? 'script' : type.toLowerCase());
   session.on('Network.responseReceived', (e) => responses.set(e.requestId, { kind: kindOf(e.type ?? 'Other', e.response.url), url: e.response.url }));
   session.on('Network.loadingFinished', (e) => {
     const response = responses.get(e.requestId);
     // encodedDataLength: bytes on the wire (compressed body and headers); `timestamp` in seconds.
-    finished.push({ kind: response?.kind ?? 'other', bytes: e.encodedDataLength, at: e.timestamp * 1000 });
+    finished.push({ kind: response?.kind ?? 'other', bytes: e.encodedDataLength, at: e.timestamp * 1000, url: response?.url ?? '' });
   });
   const conditions = { offline: false, latency: PROFILE.rttMs, downloadThroughput: (PROFILE.downloadKbps * 1000) / 8, uploadThroughput: (PROFILE.uploadKbps * 1000) / 8 };
   await session.send('Network.enable');
@@ -132,6 +132,8 @@ async function measure(browser: Browser, url: string, served: Served[]): Promise
     console.log(await page.evaluate(() => JSON.stringify({ bench: (window as unknown as { __bench: unknown }).__bench, circles: document.querySelectorAll('[data-pin-preview] circle').length, url: location.href })));
     await page.screenshot({ path: `/tmp/client-bench-${Date.now()}.png` });
   }
+  // CLIENT_BENCH_WATERFALL=1: when each answer finished (from navigation start), its bytes and path.
+  if (process.env.CLIENT_BENCH_WATERFALL) for (const f of finished) console.log(`${((f.at - navStart) / 1000).toFixed(2)} s ${(f.bytes / 1000).toFixed(1).padStart(6)} KB  ${f.url.replace(/^https?:\/\/[^/]+/, '').slice(0, 100)}`);
   const marks = await page.evaluate(() => (window as unknown as { __bench: { firstPaint?: number; firstPins?: number; mapPins?: number } }).__bench);
   await context.close();
   const firstPaintMs = marks.firstPaint ?? NaN;

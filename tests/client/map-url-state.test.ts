@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { OUTCOME_RING_COLORS, ringSteps } from '../../src/features/map/pin-rings';
-import { SEASON_RAMP, seasonColor } from '../../src/features/map/season-surface';
+import { SEASON_RAMP } from '../../src/features/map/palette';
+import { seasonColor } from '../../src/features/map/season-surface';
 import { atlasUrlParams, parseAtlasUrl, toBbox } from '../../src/features/map/url-state';
 
 describe('the atlas URL', () => {

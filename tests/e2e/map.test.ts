@@ -83,6 +83,27 @@ describe('the atlas map in the browser', () => {
     await page.close();
   }, 300_000);
 
+  it('draws the first view’s pins before MapLibre’s code has arrived (a phone on a weak signal sees them first)', async () => {
+    const page = await site.newPage({ viewport: { width: 390, height: 844 }, serviceWorkers: 'block' });
+    // Hold back every script that holds MapLibre (its worker pool's name is in its code) and answer the rest.
+    const held: string[] = [];
+    await page.route('**/assets/*.js', async (route) => {
+      const response = await route.fetch();
+      const body = await response.text();
+      if (body.includes('maplibre_preloaded_worker_pool')) {
+        held.push(route.request().url());
+        return; // never answered while the test runs
+      }
+      await route.fulfill({ response, body });
+    });
+    await page.goto(`${site.url}/`, { waitUntil: 'domcontentloaded' });
+    await expect.poll(() => page.locator('[data-pin-preview] circle').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+    // MapLibre is asked for (the page starts it at once) and held: the pins above are the page’s own.
+    await expect.poll(() => held.length, { timeout: 30_000 }).toBeGreaterThan(0);
+    expect(await page.locator('.maplibregl-canvas').count()).toBe(0);
+    await page.close();
+  });
+
   it('keeps a filter in the URL and finds a town by name', async () => {
     const page = await site.newPage({ viewport: { width: 1200, height: 800 } });
     await page.goto(`${site.url}/`);

@@ -2,6 +2,7 @@ import { addProtocol } from 'maplibre-gl';
 import { evidenceStrength, SURFACE_CELLS, SURFACE_MAX_ZOOM, SURFACE_MIN_ZOOM, THIN_EVIDENCE } from '@shared/domain/season-surface';
 import { seasonGridSchema, type SeasonGrid } from '@shared/schemas/season-surface';
 import { apiFetch } from '../../lib/api-client';
+import { SEASON_RAMP } from './palette';
 
 /*
  * The season surface as map tiles: each tile's nodes come from GET /api/atlas/season-grid (the
@@ -13,21 +14,6 @@ import { apiFetch } from '../../lib/api-client';
 export const SEASON_PROTOCOL = 'syconium-season';
 export const SEASON_TILE_URL = `${SEASON_PROTOCOL}://{z}/{x}/{y}`;
 export const SEASON_SOURCE = { type: 'raster' as const, tiles: [SEASON_TILE_URL], tileSize: 256, minzoom: SURFACE_MIN_ZOOM, maxzoom: SURFACE_MAX_ZOOM };
-
-/**
- * Frost-free days to colour: a sequential ramp of our own, from pale straw (short seasons) through
- * sage and sea green to slate and deep fig (long seasons). Lightness falls steadily along it, so
- * longer always reads darker, whatever the colour vision.
- */
-export const SEASON_RAMP: readonly { days: number; color: string }[] = [
-  { days: 90, color: '#f4f0d9' },
-  { days: 140, color: '#dfe3b8' },
-  { days: 180, color: '#b3d0a6' },
-  { days: 215, color: '#7fb1a0' },
-  { days: 250, color: '#5b8a98' },
-  { days: 290, color: '#4f5f86' },
-  { days: 340, color: '#4a3466' },
-];
 
 const RAMP_RGB = SEASON_RAMP.map((s) => ({ days: s.days, rgb: [1, 3, 5].map((k) => parseInt(s.color.slice(k, k + 2), 16)) as [number, number, number] }));
 

@@ -1,7 +1,6 @@
 import { useState } from 'react';
-import { MAP_COLORS as C } from '../palette';
 import { OUTCOME_RING_COLORS } from '../pin-rings';
-import { SEASON_RAMP } from '../season-surface';
+import { MAP_COLORS as C, SEASON_RAMP } from '../palette';
 import type { OverlayName } from '../url-state';
 import { useUnits } from '../../units/use-units';
 import { OutcomeRing } from './outcome-ring';
