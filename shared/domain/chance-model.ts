@@ -108,12 +108,13 @@ export type VarietyCoefficients = {
   meanMargin: number;
 };
 
+/**
+ * The fitted curves. Fitted on tree-seasons pooled over trees, a curve is already the population-
+ * averaged one: the chance for a tree not seen yet, its grower's luck and care included (a tree's own
+ * departure from the curve widens nothing further; attenuating the logit for it as well, as an earlier
+ * version did, read too little into every margin: the demo's calibration was off by up to 0.076).
+ */
 export type ChanceModel = {
-  /**
-   * Variance (logit scale) of a tree's own departure from its variety's curve: the grower, the spot,
-   * the care. A new grower's tree is predicted over it (see marginalFactor), not as an average tree.
-   */
-  treeVariance: number;
   classes: Partial<Record<ClassKey, { coef: [number, number]; cov: LogisticFit['cov'] }>>;
   varieties: Map<number, VarietyCoefficients>;
 };
@@ -198,38 +199,7 @@ export function fitChanceModel(records: readonly TreeRecord[], varieties: Map<nu
     const t = tally.get(id)!;
     out.set(id, { ...fit, trees: t.trees.size, seasons: t.seasons, meanMargin: t.nX > 0 ? t.sumX / t.nX : 0 });
   }
-  return { classes, varieties: out, treeVariance: treeVariance(records, varieties, out) };
-}
-
-/**
- * Moment estimate of the tree-level variance s² on the logit scale: a tree's n seasons share its
- * effect, so Var(edible) ≈ n·e(1 − e) + n(n − 1)·(e(1 − e))²·s² around the curve's e. Summed over
- * trees with two or more seasons: s² = Σ[(y − n·e)² − n·e(1 − e)] / Σ[n(n − 1)(e(1 − e))²], at least 0
- * (the usual overdispersion estimate of a beta-binomial / logit-normal model).
- */
-export function treeVariance(records: readonly TreeRecord[], varieties: Map<number, ModelVariety>, fits: Map<number, { coef: [number, number]; meanMargin: number }>): number {
-  let num = 0;
-  let den = 0;
-  for (const r of records) {
-    const v = varieties.get(r.varietyId);
-    const fit = v && fits.get(v.id);
-    if (!v || !fit || r.seasons < 2) continue;
-    const x = seasonMargin(r.localDays, r.form, v) ?? fit.meanMargin;
-    const e = sigmoid(fit.coef[0] + fit.coef[1] * x);
-    const q = e * (1 - e);
-    num += (r.edible - r.seasons * e) ** 2 - r.seasons * q;
-    den += r.seasons * (r.seasons - 1) * q * q;
-  }
-  return den > 0 ? Math.max(0, num / den) : 0;
-}
-
-/**
- * The factor on the logit that turns a tree-level curve into the chance for a tree not seen yet:
- * E[σ(η + u)], u ~ N(0, s²), ≈ σ(η / √(1 + π s²/8)) (the probit approximation of the logistic-normal
- * integral; MacKay 1992, "The evidence framework applied to classification networks").
- */
-export function marginalFactor(treeVarianceLogit: number): number {
-  return 1 / Math.sqrt(1 + (Math.PI * treeVarianceLogit) / 8);
+  return { classes, varieties: out };
 }
 
 function binsFor<K>(map: Map<K, Bins>, key: K): Bins {
@@ -253,7 +223,6 @@ export function localEvidence(
   point: LatLon,
   bandwidthKm: number,
   fallbackMargin: number,
-  factor = 1,
 ): LocalEvidence {
   let observed = 0;
   let expected = 0;
@@ -271,7 +240,7 @@ export function localEvidence(
     const w = Math.exp(-(d * d) / (2 * bandwidthKm * bandwidthKm));
     const x = seasonMargin(t.localDays, t.form, variety) ?? fallbackMargin;
     observed += (w * t.edible) / t.seasons;
-    expected += w * sigmoid(factor * (coef[0] + coef[1] * x));
+    expected += w * sigmoid(coef[0] + coef[1] * x);
     weight += w;
     if (t.treeId !== lastTree) {
       lastTree = t.treeId;
@@ -329,12 +298,11 @@ export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: read
     return { probability: 0, low: 0, high: 0, enoughEvidence: true, trees, basis: { rule: 'no-crop', modelProbability: 0, localTrees } };
   }
   if (!fit) return null;
-  const k = marginalFactor(model.treeVariance);
-  const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin, k);
+  const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin);
   const trees = Math.max(fit.trees, local.trees);
   const x = seasonMargin(ctx.localDays, ctx.form, variety, ctx.headStartDays) ?? fit.meanMargin;
-  const eta = k * (fit.coef[0] + fit.coef[1] * x);
-  const etaVariance = k * k * (fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1]);
+  const eta = fit.coef[0] + fit.coef[1] * x;
+  const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
   const p0 = sigmoid(eta);
   const { probability, low, high } = updateWithLocal(p0, etaVariance, local);
   return {
@@ -407,9 +375,6 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
   for (const list of byVariety.values()) list.sort((a, b) => a.lat - b.lat);
   const latWindow = VALIDATION_RADIUS_KM / 110.5;
 
-  // The tree-level variance is one scalar of the whole atlas, estimated once on all of it (like the
-  // prior spreads, a setting of the model rather than a fact about any one grower).
-  const k = marginalFactor(fitChanceModel(usable, varieties).treeVariance);
   const out: HeldOutPrediction[] = [];
   for (const [grower, own] of byGrower) {
     const touchedClasses = new Map<ClassKey, Bins>();
@@ -465,9 +430,9 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
       const fit = fits.get(v.id)!;
       const meanMargin = all.nX - mine.nX > 0 ? (all.sumX - mine.sumX) / (all.nX - mine.nX) : 0;
       const x = seasonMargin(r.localDays, r.form, v) ?? meanMargin;
-      const eta = k * (fit.coef[0] + fit.coef[1] * x);
-      const etaVariance = k * k * (fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1]);
-      const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin, k);
+      const eta = fit.coef[0] + fit.coef[1] * x;
+      const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
+      const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin);
       const { probability } = updateWithLocal(sigmoid(eta), etaVariance, local);
       out.push({ chance: probability, overallRate, adjustedShare: adjusted, edible: r.edible, seasons: r.seasons });
     }
