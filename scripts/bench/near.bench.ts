@@ -15,6 +15,7 @@ import { seededRandom } from '../../server/seed/random';
 import { boundingBox } from '../../shared/domain/geo';
 import { toPublicPoint } from '../../shared/domain/public-grid';
 import { CROPS, GROWING_FORMS, OUTCOMES } from '../../shared/domain/codes';
+import { FORM_HEAD_START_DAYS } from '../../shared/domain/season-fit';
 import { bulkLoad } from '../bulk-load';
 import { loadShippedNormals } from '../../server/normals/normals.repo';
 import { COVERAGE_RADIUS_KM, normalsCoverage } from './normals-coverage';
@@ -30,6 +31,11 @@ const SQL_QUERIES = 200;
 const SCAN_QUERIES = 5;
 const RADII = [50, 200] as const;
 const TARGET_MEDIAN_MS: Record<(typeof RADII)[number], number> = { 50: 10, 200: 50 };
+
+/** The bench stations' typical frost-free days at a latitude (before each station's own noise). */
+const benchSeasonDays = (lat: number) => 330 - (lat - 29) * 7;
+/** Bench variety v's days to ripen (v from 0). */
+const benchNeedDays = (v: number) => 120 + (v % 9) * 10;
 
 /** Regions where the synthetic growers live: North America's fig belt and the cool north, and Europe. */
 const REGIONS = [
@@ -57,7 +63,7 @@ export function build(db: Db): { centres: { lat: number; lon: number }[] } {
     for (let v = 0; v < VARIETIES; v++) {
       const figType = v % 11 === 0 ? 'smyrna' : v % 7 === 0 ? 'san-pedro' : 'common';
       const status = v % 20 === 19 ? 'rejected' : 'accepted';
-      insertVariety.run(`Bench variety ${v + 1}`, figType, v % 3 === 0 ? 1 : 0, (['early', 'mid', 'late'] as const)[v % 3], 120 + (v % 9) * 10, status);
+      insertVariety.run(`Bench variety ${v + 1}`, figType, v % 3 === 0 ? 1 : 0, (['early', 'mid', 'late'] as const)[v % 3], benchNeedDays(v), status);
     }
     const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role) VALUES (?, ?, 'x', 'grower')");
     const growerPlaces: { lat: number; lon: number; cluster: number }[] = [];
@@ -84,10 +90,15 @@ export function build(db: Db): { centres: { lat: number; lon: number }[] } {
       const form = GROWING_FORMS[Math.floor(random() * 4)]!;
       const grid = toPublicPoint(place.lat, place.lon);
       const seasons = 1 + Math.floor(random() * SEASONS.length);
+      // Whether a season ripens follows the season, as in a garden: the frost-free days where the tree
+      // stands (the gradient the bench's stations follow), the form's head start and the variety's
+      // need set the odds (a logistic over ±20 days of margin, at most 85 %); the rest is a garden's luck.
+      const margin = benchSeasonDays(place.lat) + FORM_HEAD_START_DAYS[form] - benchNeedDays(varietyId - 1);
+      const ripeOdds = 0.85 / (1 + Math.exp(-margin / 20));
       for (let s = 0; s < seasons && written < REPORTS; s++) {
         const season = SEASONS[SEASONS.length - 1 - s]!;
         const crop = random() < 0.2 ? CROPS[0] : CROPS[1];
-        const outcome = OUTCOMES[random() < 0.55 ? 3 : Math.floor(random() * 3)]!;
+        const outcome = OUTCOMES[random() < ripeOdds ? 3 : Math.floor(random() * 3)]!;
         const spring = 80 + Math.floor(random() * 50);
         const ripe = outcome === 'ripened' ? isoDate(season, spring + 90 + Math.floor(random() * 80)) : null;
         const status = random() < 0.03 ? 'hidden' : 'published';
@@ -100,7 +111,7 @@ export function build(db: Db): { centres: { lat: number; lon: number }[] } {
     for (let s = 0; s < STATIONS; s++) {
       const place = randomPlace();
       const id = Number(insertStation.run(`BENCH${s}`, `Bench station ${s}`, place.lat, place.lon, 100).lastInsertRowid);
-      const days50 = Math.round(330 - (place.lat - 29) * 7 + gauss() * 10);
+      const days50 = Math.round(benchSeasonDays(place.lat) + gauss() * 10);
       for (const thresholdF of [32, 28, 24]) {
         const extra = (32 - thresholdF) * 3;
         const spring50 = Math.round((365 - days50) / 2) - extra;

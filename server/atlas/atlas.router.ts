@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { chanceAt } from '../../shared/domain/chance-model';
 import { bandwidthForRadius, buildFitResponse, buildNearResponse, type VarietyEvidenceInput } from '../../shared/domain/evidence';
 import { fitQuerySchema, fitResponseSchema, nearQuerySchema, type NearResponse } from '../../shared/schemas/atlas';
@@ -13,8 +12,8 @@ import { createTreeSnapshotCache } from './tree-snapshot-cache';
 import { seasonAt } from './season-at';
 import { addSeasonSurfaceRoutes } from './season-surface.router';
 import { treesWithin, type NearTree } from './tree-snapshot';
+import { idParamsSchema } from '../lib/path-params';
 
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const NO_OVERALL = { share: null, neededDays: null, treesBehindNeed: 0 };
 
 function waspAt(db: Db, lat: number, lon: number): NearResponse['wasp'] {

@@ -1,13 +1,11 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { followInputSchema, followListSchema } from '../../shared/schemas/follows';
 import type { Db } from '../db/client';
 import { HttpError, notFound } from '../lib/http-error';
 import { requireSignedIn } from '../middleware/require-role';
 import { findVariety } from '../varieties/varieties.repo';
 import { countFollows, FOLLOW_LIMITS, followPlace, followVariety, listFollows, unfollowPlace, unfollowVariety } from './follows.repo';
-
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /**
  * The signed-in grower's follows: GET /, POST / ({kind:'variety', varietyId} or {kind:'place', name,

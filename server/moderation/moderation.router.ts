@@ -1,11 +1,9 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { moderationQueueQuerySchema, moderationQueueSchema, moderationSummarySchema } from '../../shared/schemas/moderation';
 import type { Db } from '../db/client';
 import { requireRole } from '../middleware/require-role';
 import { clearFlag, markReviewed, moderationQueue, moderationSummary, suspiciousReports } from './moderation.repo';
-
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /**
  * The editors' moderation queue and its actions. Hiding and restoring a report live with the

@@ -69,9 +69,9 @@ import {
 } from './reports.repo';
 import { reportClientIdInputSchema } from '../../shared/schemas/report-outbox';
 import { setLicenceHeaders } from '../lib/data-licence-headers';
+import { idParamsSchema, pathId } from '../lib/path-params';
 
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
-const photoParamsSchema = z.object({ id: z.coerce.number().int().positive(), photoId: z.coerce.number().int().positive() });
+const photoParamsSchema = z.object({ id: pathId, photoId: pathId });
 
 export const DRAFT_NOTICE = 'Saved as a draft: it will be published once your e-mail address is verified. Only you can see it until then.';
 const CSV_MAX_BYTES = 2 * 1024 * 1024;

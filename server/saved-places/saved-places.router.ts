@@ -1,12 +1,10 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { savedPlaceInputSchema, savedPlaceListSchema, savedPlacePatchSchema, savedPlaceResponseSchema } from '../../shared/schemas/saved-places';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
 import { requireSignedIn } from '../middleware/require-role';
 import { deleteSavedPlace, findOwnSavedPlace, insertSavedPlace, listSavedPlaces, updateSavedPlace } from './saved-places.repo';
-
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /**
  * A grower's saved places (signed in, owner only). Someone else's place answers 404, as if it did

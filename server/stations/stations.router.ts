@@ -11,8 +11,8 @@ import { refuseLargeUpload } from '../middleware/refuse-large-body';
 import { requireRole } from '../middleware/require-role';
 import { computeStationData } from './station-import';
 import { deleteStation, findStationDetail, listStations, saveStation } from './stations.repo';
+import { idParamsSchema } from '../lib/path-params';
 
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 const normalsCodeSchema = z.object({ code: z.string().regex(/^[A-Z0-9]{1,20}$/, { message: 'code must be a station id such as USW00014735' }) });
 
 /** A century of daily rows is about 4 MB of CSV; leave room for wide files. */

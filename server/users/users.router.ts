@@ -1,13 +1,11 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { changeRoleInputSchema, userListQuerySchema, userListSchema } from '../../shared/schemas/auth';
 import type { Db } from '../db/client';
 import { recordAudit } from '../audit/audit.repo';
 import { notFound } from '../lib/http-error';
 import { requireRole } from '../middleware/require-role';
 import { findUserById, listUsers, setUserRole, toCurrentUser } from './users.repo';
-
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /** Admin-only user management: list accounts, change a role. */
 export function createUsersRouter({ db }: { db: Db }): Router {

@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { catalogueToCsv, parseCatalogueCsv } from '../../shared/domain/variety-csv';
 import {
   catalogueImportInputSchema,
@@ -16,8 +15,7 @@ import type { Db } from '../db/client';
 import { HttpError } from '../lib/http-error';
 import { requireRole } from '../middleware/require-role';
 import { acceptVariety, createVariety, exportCatalogue, importCatalogue, listCatalogue, mergeVariety, rejectVariety, updateVariety } from './catalogue.repo';
-
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /**
  * Editors' catalogue routes, mounted at /api/varieties ahead of the public reads (which answer

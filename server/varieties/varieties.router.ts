@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { varietyListQuerySchema, varietyListSchema, varietyResponseSchema } from '../../shared/schemas/varieties';
 import type { Db } from '../db/client';
 import { notFound } from '../lib/http-error';
@@ -9,8 +8,7 @@ import { varietyPageSchema } from '../../shared/schemas/variety-page';
 import { isFollowingVariety } from '../follows/follows.repo';
 import { publishedPhotosOfVariety, publishedReportsOfVariety } from './variety-page.repo';
 import { findVariety, findVisibleVariety, listVarieties } from './varieties.repo';
-
-export const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+import { idParamsSchema } from '../lib/path-params';
 
 /** The variety catalogue: public reads (a grower's proposed name only once a published report carries it). */
 export function createVarietiesRouter({ db }: { db: Db }): Router {

@@ -14,9 +14,9 @@ import type { Db } from '../db/client';
 import { HttpError, notFound } from '../lib/http-error';
 import { requireRole } from '../middleware/require-role';
 import { createWaspArea, findWaspAreaRecord, listWaspAreaRecords, listWaspAreas, retireWaspArea, updateWaspArea } from './wasp-areas.repo';
+import { idParamsSchema } from '../lib/path-params';
 
 const listQuerySchema = z.object({ includeRetired: z.enum(['true', 'false']).optional() });
-const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 
 /** Check an uploaded or drawn geometry; a bad one answers 400 naming each problem under `geometry`. */
 function checkedGeometry(input: unknown): WaspAreaGeometry {

@@ -148,6 +148,14 @@ describe('numbers written other than in plain decimals', () => {
     await expectFieldError('/api/atlas/pins?bbox=0x10,-90,180,90&zoom=3', 'bbox');
   });
 
+  it('path ids: digits only, so one record has one address ("0x10" and "1e1" are not 16 and 10)', async () => {
+    for (const id of ['0x10', '1e1', '+1', '1.0', '-1', '0']) {
+      await expectFieldError(`/api/reports/${id}`, 'id');
+      await expectFieldError(`/api/varieties/${id}/page`, 'id');
+    }
+    expect((await ctx.agent().get(`/api/varieties/${variety}/page`)).status).toBe(200);
+  });
+
   it('bodies and CSV cells: "0x10" is a 400 naming the field or cell', async () => {
     const grower = await ctx.signedIn('grower');
     const hex = await grower.post('/api/saved-places').send({ name: 'Hex', lat: '0x10', lon: '3' });
