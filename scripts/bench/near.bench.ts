@@ -18,6 +18,9 @@ import { CROPS, GROWING_FORMS, OUTCOMES } from '../../shared/domain/codes';
 import { FORM_HEAD_START_DAYS } from '../../shared/domain/season-fit';
 import { bulkLoad } from '../bulk-load';
 import { loadShippedNormals } from '../../server/normals/normals.repo';
+import { CELL_SEASON_RADIUS_KM } from '../../server/atlas/chance-data';
+import { readStationSnapshot, stationSeasonsInBoxes } from '../../server/stations/station-snapshot';
+import { estimateSeason } from '../../shared/domain/season-estimate';
 import { COVERAGE_RADIUS_KM, normalsCoverage } from './normals-coverage';
 
 const REPORTS = Number(process.env.NEAR_BENCH_REPORTS ?? 1_000_000);
@@ -51,11 +54,39 @@ function randomPlace(): { lat: number; lon: number } {
   return { lat: region.minLat + random() * (region.maxLat - region.minLat), lon: region.minLon + random() * (region.maxLon - region.minLon) };
 }
 
-/** Fills an empty, migrated database with the benchmark's atlas (the season surface bench builds the same). */
+/**
+ * Fills an empty, migrated database with the benchmark's atlas (the season surface bench builds the
+ * same). The climate comes first: the bench's stations and the shipped NOAA normals, as on every
+ * install. Each grower's seasons then follow the typical season that climate gives at the grower's
+ * public grid cell (the estimator the atlas itself uses), so the synthetic gardens and the atlas's
+ * climate agree, as real gardens and real normals do.
+ */
 export function build(db: Db): { centres: { lat: number; lon: number }[] } {
   const { sqlite } = db;
   const centres = Array.from({ length: CLUSTERS }, randomPlace);
   sqlite.pragma('synchronous = OFF');
+  sqlite.transaction(() => {
+    const insertStation = sqlite.prepare('INSERT INTO stations (code, name, lat, lon, elevation_m, day_count) VALUES (?, ?, ?, ?, ?, 0)');
+    const insertSummary = sqlite.prepare('INSERT INTO station_summaries (station_id, threshold_f, probability, last_spring_doy, first_fall_doy, season_days, years) VALUES (?, ?, ?, ?, ?, ?, 30)');
+    for (let s = 0; s < STATIONS; s++) {
+      const place = randomPlace();
+      const id = Number(insertStation.run(`BENCH${s}`, `Bench station ${s}`, place.lat, place.lon, 100).lastInsertRowid);
+      const days50 = Math.round(benchSeasonDays(place.lat) + gauss() * 10);
+      for (const thresholdF of [32, 28, 24]) {
+        const extra = (32 - thresholdF) * 3;
+        const spring50 = Math.round((365 - days50) / 2) - extra;
+        insertSummary.run(id, thresholdF, 10, spring50 + 12, 365 - spring50 + extra - 12, days50 + extra * 2 - 22);
+        insertSummary.run(id, thresholdF, 50, spring50, 365 - spring50 + extra, days50 + extra * 2);
+        insertSummary.run(id, thresholdF, 90, spring50 - 12, 365 - spring50 + extra + 12, days50 + extra * 2 + 22);
+      }
+    }
+  })();
+  loadShippedNormals(db);
+  const climate = readStationSnapshot(db);
+  /** The typical frost-free days at a grid cell, as the atlas estimates them from its stations. */
+  const typicalDays = (cell: { lat: number; lon: number }) =>
+    estimateSeason({ point: cell, stations: stationSeasonsInBoxes(climate, cell, CELL_SEASON_RADIUS_KM), reportFrostSeasons: [], radiusKm: CELL_SEASON_RADIUS_KM }).days50 ?? benchSeasonDays(cell.lat);
+
   // Bulk load without the per-row triggers (R*Trees, tree_evidence): scripts/bulk-load.ts fills
   // what they would have in one pass afterwards and puts them back as the migrations wrote them.
   bulkLoad(sqlite, () => {
@@ -66,13 +97,15 @@ export function build(db: Db): { centres: { lat: number; lon: number }[] } {
       insertVariety.run(`Bench variety ${v + 1}`, figType, v % 3 === 0 ? 1 : 0, (['early', 'mid', 'late'] as const)[v % 3], benchNeedDays(v), status);
     }
     const insertUser = sqlite.prepare("INSERT INTO users (email, display_name, password_hash, role) VALUES (?, ?, 'x', 'grower')");
-    const growerPlaces: { lat: number; lon: number; cluster: number }[] = [];
+    const growerPlaces: { lat: number; lon: number; cluster: number; grid: { lat: number; lon: number }; days: number }[] = [];
     for (let g = 0; g < GROWERS; g++) {
       insertUser.run(`bench-${g}@bench.test`, `Bench grower ${g}`);
       const cluster = g % CLUSTERS;
       const c = centres[cluster]!;
       // Growers sit within a few tens of km of their cluster's centre (a town and its suburbs).
-      growerPlaces.push({ lat: c.lat + gauss() * 0.12, lon: c.lon + gauss() * 0.16, cluster });
+      const place = { lat: c.lat + gauss() * 0.12, lon: c.lon + gauss() * 0.16 };
+      const grid = toPublicPoint(place.lat, place.lon);
+      growerPlaces.push({ ...place, cluster, grid, days: typicalDays(grid) });
     }
     const insertTree = sqlite.prepare('INSERT INTO trees (user_id, label) VALUES (?, ?)');
     const insertReport = sqlite.prepare(
@@ -88,36 +121,22 @@ export function build(db: Db): { centres: { lat: number; lon: number }[] } {
       // A cluster favours a handful of varieties, as real neighbourhoods share cuttings.
       const varietyId = 1 + ((place.cluster * 7 + Math.floor(random() * 12)) % VARIETIES);
       const form = GROWING_FORMS[Math.floor(random() * 4)]!;
-      const grid = toPublicPoint(place.lat, place.lon);
       const seasons = 1 + Math.floor(random() * SEASONS.length);
-      // Whether a season ripens follows the season, as in a garden: the frost-free days where the tree
-      // stands (the gradient the bench's stations follow), the form's head start and the variety's
-      // need set the odds (a logistic over ±20 days of margin, at most 85 %); the rest is a garden's luck.
-      const margin = benchSeasonDays(place.lat) + FORM_HEAD_START_DAYS[form] - benchNeedDays(varietyId - 1);
-      const ripeOdds = 0.85 / (1 + Math.exp(-margin / 20));
       for (let s = 0; s < seasons && written < REPORTS; s++) {
         const season = SEASONS[SEASONS.length - 1 - s]!;
         const crop = random() < 0.2 ? CROPS[0] : CROPS[1];
-        const outcome = OUTCOMES[random() < ripeOdds ? 3 : Math.floor(random() * 3)]!;
+        // Whether a season ripens follows the season, as in a garden: this year's frost-free days at
+        // the cell (the typical ones, give or take a year's luck), the form's head start and the
+        // variety's need set the odds (a logistic over ±20 days of margin, at most 85 %); the rest
+        // is a garden's luck (no fruit, dropped, unripe).
+        const seasonDays = Math.round(place.days + gauss() * 12);
+        const margin = seasonDays + FORM_HEAD_START_DAYS[form] - benchNeedDays(varietyId - 1);
+        const outcome = OUTCOMES[random() < 0.85 / (1 + Math.exp(-margin / 20)) ? 3 : Math.floor(random() * 3)]!;
         const spring = 80 + Math.floor(random() * 50);
-        const ripe = outcome === 'ripened' ? isoDate(season, spring + 90 + Math.floor(random() * 80)) : null;
+        const ripe = outcome === 'ripened' ? isoDate(season, spring + Math.min(seasonDays - 5, 90 + Math.floor(random() * 80))) : null;
         const status = random() < 0.03 ? 'hidden' : 'published';
-        insertReport.run(grower + 1, treeId, varietyId, place.lat, place.lon, grid.lat, grid.lon, form, season, crop, outcome, ripe, random() < 0.5 ? isoDate(season, spring) : null, random() < 0.5 ? isoDate(season, spring + 170 + Math.floor(random() * 60)) : null, status);
+        insertReport.run(grower + 1, treeId, varietyId, place.lat, place.lon, place.grid.lat, place.grid.lon, form, season, crop, outcome, ripe, random() < 0.5 ? isoDate(season, spring) : null, random() < 0.5 ? isoDate(season, spring + seasonDays) : null, status);
         written++;
-      }
-    }
-    const insertStation = sqlite.prepare('INSERT INTO stations (code, name, lat, lon, elevation_m, day_count) VALUES (?, ?, ?, ?, ?, 0)');
-    const insertSummary = sqlite.prepare('INSERT INTO station_summaries (station_id, threshold_f, probability, last_spring_doy, first_fall_doy, season_days, years) VALUES (?, ?, ?, ?, ?, ?, 30)');
-    for (let s = 0; s < STATIONS; s++) {
-      const place = randomPlace();
-      const id = Number(insertStation.run(`BENCH${s}`, `Bench station ${s}`, place.lat, place.lon, 100).lastInsertRowid);
-      const days50 = Math.round(benchSeasonDays(place.lat) + gauss() * 10);
-      for (const thresholdF of [32, 28, 24]) {
-        const extra = (32 - thresholdF) * 3;
-        const spring50 = Math.round((365 - days50) / 2) - extra;
-        insertSummary.run(id, thresholdF, 10, spring50 + 12, 365 - spring50 + extra - 12, days50 + extra * 2 - 22);
-        insertSummary.run(id, thresholdF, 50, spring50, 365 - spring50 + extra, days50 + extra * 2);
-        insertSummary.run(id, thresholdF, 90, spring50 - 12, 365 - spring50 + extra + 12, days50 + extra * 2 + 22);
       }
     }
   });
@@ -174,7 +193,7 @@ async function main() {
         `${normals.secondLoadMs.toFixed(0)} ms on a later start (already loaded); ${(normals.share * 100).toFixed(1)} % of ${normals.points.toLocaleString()} random points in the contiguous US get a season with its source (a station within ${COVERAGE_RADIUS_KM} km); ` +
         `the season estimate over them takes ${normals.estimateMs[50].toFixed(3)} ms at 50 km and ${normals.estimateMs[200].toFixed(3)} ms at 200 km (median, in process).`,
     );
-    loadShippedNormals(db);
+    loadShippedNormals(db); // a database kept by an older version of this bench may lack them (build() loads them first)
 
     const app = createApp({ db, config: { ...readConfig({ NODE_ENV: 'test' }), seedDemo: false } });
     const server = app.listen(0, '127.0.0.1');

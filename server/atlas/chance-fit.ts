@@ -39,6 +39,7 @@ export interface RecordColumns {
 export interface ChanceFitData {
   version: number;
   classes: ChanceModel['classes'];
+  placeSpread: number;
   varieties: [number, VarietyCoefficients][];
   columns: RecordColumns;
 }
@@ -88,11 +89,11 @@ export function computeChanceFit(sqlite: Database.Database, stations: StationSna
     c.ripened[i] = r.ripened;
   });
   const transfer = Object.values(c).filter((v): v is ArrayBufferView => ArrayBuffer.isView(v)).map((v) => v.buffer as ArrayBuffer);
-  return { data: { version, classes: model.classes, varieties: [...model.varieties], columns: c }, transfer };
+  return { data: { version, classes: model.classes, placeSpread: model.placeSpread, varieties: [...model.varieties], columns: c }, transfer };
 }
 
 export function chanceFitFrom(data: ChanceFitData): ChanceFit {
-  return { version: data.version, model: { classes: data.classes, varieties: new Map(data.varieties) }, columns: data.columns };
+  return { version: data.version, model: { classes: data.classes, placeSpread: data.placeSpread, varieties: new Map(data.varieties) }, columns: data.columns };
 }
 
 /** The records of these trees for one variety (the trees' grid cells, never their exact places). */

@@ -115,6 +115,12 @@ export type VarietyCoefficients = {
  * version did, read too little into every margin: the demo's calibration was off by up to 0.076).
  */
 export type ChanceModel = {
+  /**
+   * How far a place's trees depart together from their variety's curve, as a share of the binomial
+   * variance (see placeSpread): what the curve cannot know about a place (its microclimate, a climate
+   * record that misjudges it). It sets how much nearby trees may move the curve's figure.
+   */
+  placeSpread: number;
   classes: Partial<Record<ClassKey, { coef: [number, number]; cov: LogisticFit['cov'] }>>;
   varieties: Map<number, VarietyCoefficients>;
 };
@@ -199,7 +205,45 @@ export function fitChanceModel(records: readonly TreeRecord[], varieties: Map<nu
     const t = tally.get(id)!;
     out.set(id, { ...fit, trees: t.trees.size, seasons: t.seasons, meanMargin: t.nX > 0 ? t.sumX / t.nX : 0 });
   }
-  return { classes, varieties: out };
+  return { classes, varieties: out, placeSpread: placeSpread(records, varieties, out) };
+}
+
+/**
+ * The intra-class correlation ρ of a variety's trees in one public grid cell around the fitted curve:
+ * the one-way random-effects moment estimate (between-cell variance of the cells' mean edible-crop
+ * fraction beyond what the trees' own scatter explains, over the binomial variance e(1 − e)):
+ *   ρ = Σ n·[(ȳ − ē)² − s²/n] / Σ n·e(1 − e)   over cells with two or more trees of the variety,
+ * with ȳ the trees' mean fraction, ē the curve's mean expectation for them and s² their sample
+ * variance; clamped to [0, 1]. A Beta prior of variance ρ·e(1 − e) is worth 1/ρ − 1 trees.
+ */
+export function placeSpread(records: readonly TreeRecord[], varieties: Map<number, ModelVariety>, fits: Map<number, { coef: [number, number]; meanMargin: number }>): number {
+  const cells = new Map<string, { n: number; sumY: number; sumY2: number; sumE: number; sumQ: number }>();
+  for (const r of records) {
+    const v = varieties.get(r.varietyId);
+    const fit = v && fits.get(v.id);
+    if (!v || !fit || r.seasons === 0) continue;
+    const e = sigmoid(fit.coef[0] + fit.coef[1] * (seasonMargin(r.localDays, r.form, v) ?? fit.meanMargin));
+    const y = r.edible / r.seasons;
+    const key = `${r.varietyId}|${r.lat}|${r.lon}`;
+    let cell = cells.get(key);
+    if (!cell) cells.set(key, (cell = { n: 0, sumY: 0, sumY2: 0, sumE: 0, sumQ: 0 }));
+    cell.n++;
+    cell.sumY += y;
+    cell.sumY2 += y * y;
+    cell.sumE += e;
+    cell.sumQ += e * (1 - e);
+  }
+  let num = 0;
+  let den = 0;
+  for (const c of cells.values()) {
+    if (c.n < 2) continue;
+    const mean = c.sumY / c.n;
+    const s2 = Math.max(0, (c.sumY2 - c.n * mean * mean) / (c.n - 1));
+    const gap = mean - c.sumE / c.n;
+    num += c.n * (gap * gap - s2 / c.n);
+    den += c.sumQ;
+  }
+  return den > 0 ? Math.min(1, Math.max(0, num / den)) : 0;
 }
 
 function binsFor<K>(map: Map<K, Bins>, key: K): Bins {
@@ -255,9 +299,9 @@ export function localEvidence(
  * p₀, bounded by PRIOR_TREES), moved by the local trees' observed-minus-expected; the 80 % interval
  * of the resulting Beta(p·K, (1 − p)·K), K = m + Σw, by its normal approximation on the logit scale.
  */
-export function updateWithLocal(p0: number, etaVariance: number, local: Pick<LocalEvidence, 'observed' | 'expected' | 'weight'>): { probability: number; low: number; high: number } {
+export function updateWithLocal(p0: number, etaVariance: number, local: Pick<LocalEvidence, 'observed' | 'expected' | 'weight'>, spread = 0): { probability: number; low: number; high: number } {
   const q = p0 * (1 - p0);
-  const m = Math.min(PRIOR_TREES.max, Math.max(PRIOR_TREES.min, 1 / (q * etaVariance) - 1));
+  const m = Math.min(PRIOR_TREES.max, Math.max(PRIOR_TREES.min, 1 / (spread + q * etaVariance) - 1));
   const p = Math.min(0.995, Math.max(0.005, p0 + (local.observed - local.expected) / (m + local.weight)));
   const k = m + local.weight;
   const half = Z_INTERVAL * Math.sqrt(1 / (p * (1 - p) * (k + 1)));
@@ -304,7 +348,7 @@ export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: read
   const eta = fit.coef[0] + fit.coef[1] * x;
   const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
   const p0 = sigmoid(eta);
-  const { probability, low, high } = updateWithLocal(p0, etaVariance, local);
+  const { probability, low, high } = updateWithLocal(p0, etaVariance, local, model.placeSpread);
   return {
     probability,
     low,
@@ -374,6 +418,9 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
   // Each variety's records sorted by latitude, for a window search by radius.
   for (const list of byVariety.values()) list.sort((a, b) => a.lat - b.lat);
   const latWindow = VALIDATION_RADIUS_KM / 110.5;
+  // How far places depart from the curve: one scalar of the whole atlas, estimated once on all of it
+  // (like the prior spreads, a setting of the model rather than a fact about any one grower).
+  const spread = fitChanceModel(usable, varieties).placeSpread;
 
   const out: HeldOutPrediction[] = [];
   for (const [grower, own] of byGrower) {
@@ -433,7 +480,7 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
       const eta = fit.coef[0] + fit.coef[1] * x;
       const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
       const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin);
-      const { probability } = updateWithLocal(sigmoid(eta), etaVariance, local);
+      const { probability } = updateWithLocal(sigmoid(eta), etaVariance, local, spread);
       out.push({ chance: probability, overallRate, adjustedShare: adjusted, edible: r.edible, seasons: r.seasons });
     }
   }

@@ -5,7 +5,9 @@ import {
   fitChanceModel,
   leaveOneGrowerOut,
   MIN_TREES_FOR_VERDICT,
+  placeSpread,
   seasonMargin,
+  updateWithLocal,
   type ModelVariety,
   type TreeRecord,
 } from '../../shared/domain/chance-model';
@@ -57,6 +59,30 @@ describe('trees that differ', () => {
     const model = fitChanceModel(records, new Map([[1, v]]));
     const far = { point: { lat: 0, lon: 0 }, localDays: 130, form: 'ground' as const, waspEstablished: false, bandwidthKm: 50 };
     expect(chanceAt(model, v, [], far)!.probability).toBeCloseTo(0.8, 2);
+  });
+});
+
+describe('places that depart from the curve', () => {
+  const v = new Map([[1, { id: 1, figType: 'common' as const, ripeningClass: null, typicalDaysToRipen: null }]]);
+  const flat = new Map([[1, { coef: [0, 0] as [number, number], meanMargin: 0 }]]); // e = 0.5 everywhere
+  const tree = (treeId: number, lat: number, fraction: number): TreeRecord => ({ treeId, userId: treeId, varietyId: 1, form: 'ground', lat, lon: 0, localDays: null, seasons: 2, edible: 2 * fraction, reports: 2, ripened: 2 * fraction });
+
+  it('is the one-way random-effects moment estimate, worked by hand', () => {
+    // Cell A: fractions 1, 1, 0.5 (mean 5/6, s² = 1/12, gap to e = 1/3): 3·(1/9 − 1/36) = 0.25.
+    // Cell B mirrors it: 0.25. Σ e(1 − e) over the six trees: 1.5. ρ = 0.5 / 1.5 = 1/3.
+    const cells = [tree(1, 10, 1), tree(2, 10, 1), tree(3, 10, 0.5), tree(4, 20, 0), tree(5, 20, 0), tree(6, 20, 0.5)];
+    expect(placeSpread(cells, v, flat)).toBeCloseTo(1 / 3, 12);
+    // Cells whose trees scatter as much as their means do: no place effect.
+    expect(placeSpread([tree(1, 10, 1), tree(2, 10, 0.5), tree(3, 20, 0), tree(4, 20, 0.5)], v, flat)).toBe(0);
+  });
+
+  it('lets nearby trees move the figure further where places depart from the curve', () => {
+    // Three trees nearby, all ripened where the model expected half: the prior is worth
+    // 1/(ρ + q·Var η) − 1 trees (a Beta of that variance), 60 at most, 5 at least.
+    const local = { observed: 3, expected: 1.5, weight: 3 };
+    expect(updateWithLocal(0.5, 0.01, local).probability).toBeCloseTo(0.5 + 1.5 / 63, 12);
+    // ρ = 0.1: 1/(0.1 + 0.0025) − 1 = 8.756 trees.
+    expect(updateWithLocal(0.5, 0.01, local, 0.1).probability).toBeCloseTo(0.5 + 1.5 / (1 / 0.1025 - 1 + 3), 12);
   });
 });
 
