@@ -47,3 +47,12 @@ export class SqliteRateLimitStore implements Store {
     this.db.delete(rateLimitHits).where(eq(rateLimitHits.key, this.prefix + key)).run();
   }
 }
+
+/**
+ * Deletes the counters whose window has passed (express-rate-limit's windows and the sign-in pairs'
+ * forgetting time): such a row counts as absent anyway, so only the table's size changes. Run hourly
+ * by the `rate-limit-prune` job; returns how many rows went.
+ */
+export function pruneExpiredRateLimits(db: Db, now: number): number {
+  return db.delete(rateLimitHits).where(sql`${rateLimitHits.resetAt} <= ${now}`).run().changes;
+}

@@ -1,4 +1,5 @@
 import { ACCURACY_CHECK_EVERY_MS, runModelAccuracy } from '../accuracy/accuracy-job';
+import { pruneExpiredRateLimits } from '../auth/rate-limit-store';
 import { runNearbyDigest } from '../email/digest';
 import { EDITOR_ALERT_EVERY_MS, runEditorAlerts, type AlertWatermark } from '../email/editor-alerts';
 import type { MailDeps } from '../email/mailer';
@@ -28,5 +29,13 @@ export function appJobs(deps: MailDeps): JobDefinition<any>[] {
       await runModelAccuracy(deps.db, now);
     },
   };
-  return [editorAlerts, nearbyDigest, modelAccuracy];
+  const rateLimitPrune: JobDefinition = {
+    name: 'rate-limit-prune',
+    // Every sign-in attempt and rate-limited request leaves a row keyed by its address: forget the spent ones.
+    everyMs: 60 * 60_000,
+    run: async ({ now }) => {
+      pruneExpiredRateLimits(deps.db, now.getTime());
+    },
+  };
+  return [editorAlerts, nearbyDigest, modelAccuracy, rateLimitPrune];
 }

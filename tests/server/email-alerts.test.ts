@@ -25,7 +25,7 @@ describe('editor alerts on the database-backed scheduler, through the local SMTP
 
   // The first tick also runs the model-accuracy job (cross-validation in a worker thread): seconds on a busy machine.
   it('sends one message per editor for a burst of five flags and a proposed name', { timeout: 60_000 }, async () => {
-    expect(await instanceA.runDue(start)).toEqual(['editor-alerts', 'nearby-digest', 'model-accuracy']);
+    expect(await instanceA.runDue(start)).toEqual(['editor-alerts', 'nearby-digest', 'model-accuracy', 'rate-limit-prune']);
     expect(ctx.inbox()).toHaveLength(0);
 
     for (let i = 1; i <= 5; i++) ctx.db.insert(reportFlags).values({ reportId, userId: editor.userId, reason: `Flag number ${i}: the dates look odd` }).run();

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { users } from '../../server/db/schema';
-import { pairDelayMs, DEFAULT_PAIR_THROTTLE } from '../../server/auth/sign-in-throttle';
+import { rateLimitHits, users } from '../../server/db/schema';
+import { pairDelayMs, pairWaitMs, recordPairFailure, DEFAULT_PAIR_THROTTLE } from '../../server/auth/sign-in-throttle';
+import { pruneExpiredRateLimits } from '../../server/auth/rate-limit-store';
 import { SIGN_UP_ANSWER } from '../../server/auth/auth.router';
 import { createTestContext, TEST_PASSWORD } from '../helpers/test-app';
 import { createMailTestContext, linkToken } from './email-helpers';
@@ -79,6 +80,22 @@ describe('sign-in limits cannot lock a grower out', () => {
     const res = await ctx.agent().post('/api/auth/sign-in').set(from('192.0.2.30')).send({ email: 'z@example.com', password: 'x' });
     expect(Number(res.headers['retry-after'])).toBeGreaterThan(0);
   }, 60_000);
+});
+
+describe('spent counters are forgotten', () => {
+  it('the hourly prune deletes a pair once its failures are forgotten, and not a moment before', () => {
+    const ctx = createTestContext();
+    const t = Date.parse('2026-12-03T12:00:00Z');
+    for (let i = 0; i < 7; i++) recordPairFailure(ctx.db, 'someone@example.com', '203.0.113.9', DEFAULT_PAIR_THROTTLE, t);
+    const waiting = pairWaitMs(ctx.db, 'someone@example.com', '203.0.113.9', DEFAULT_PAIR_THROTTLE, t);
+    expect(waiting).toBeGreaterThan(0);
+    const rows = () => ctx.db.select().from(rateLimitHits).all().filter((r) => r.key.startsWith('sign-in-pair:'));
+    expect(pruneExpiredRateLimits(ctx.db, t + DEFAULT_PAIR_THROTTLE.forgetAfterMs - 1)).toBe(0);
+    expect(rows()).toHaveLength(1);
+    expect(pruneExpiredRateLimits(ctx.db, t + DEFAULT_PAIR_THROTTLE.forgetAfterMs)).toBe(1);
+    expect(rows()).toHaveLength(0);
+    expect(pairWaitMs(ctx.db, 'someone@example.com', '203.0.113.9', DEFAULT_PAIR_THROTTLE, t + DEFAULT_PAIR_THROTTLE.forgetAfterMs)).toBe(0);
+  });
 });
 
 describe('sign-up does not tell whether an address has an account', async () => {
