@@ -2,7 +2,7 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import path from 'node:path';
-import type { Plugin } from 'vite';
+import { build, type Plugin } from 'vite';
 import { compression } from 'vite-plugin-compression2';
 import { VitePWA } from 'vite-plugin-pwa';
 
@@ -52,6 +52,55 @@ function preloadAtlas(): Plugin {
   };
 }
 
+/**
+ * The atlas home's first pins are asked for by an inline script in index.html's <head>, as soon as
+ * the page is parsed, not after the app's JavaScript (~100 KB on a phone's signal) has arrived.
+ * The script is src/features/map/early-pins.ts, bundled here (the same TypeScript the app uses
+ * to build that request) into a minified classic script. The server allows it by its SHA-256 in
+ * the Content-Security-Policy (server/client/inline-scripts.ts), never by 'unsafe-inline'.
+ */
+function earlyPinsScript(): Plugin {
+  const entry = path.resolve(import.meta.dirname, 'src/features/map/early-pins.ts');
+  let bundled: Promise<{ code: string; modules: string[] }> | null = null;
+  const bundle = async () => {
+    const result = await build({
+      configFile: false,
+      envFile: false,
+      logLevel: 'silent',
+      publicDir: false,
+      resolve: { alias: { '@shared': path.resolve(import.meta.dirname, 'shared') } },
+      build: { write: false, minify: true, lib: { entry, formats: ['iife'], name: 'syconiumEarlyPins' } },
+    });
+    const chunk = (Array.isArray(result) ? result : [result]).flatMap((r) => ('output' in r ? r.output : [])).find((o) => o.type === 'chunk');
+    if (!chunk) throw new Error('early-pins.ts gave no script');
+    const code = chunk.code.trim();
+    if (/<\/script/i.test(code)) throw new Error('early-pins.ts must not contain "</script"');
+    return { code, modules: Object.keys(chunk.modules) };
+  };
+  return {
+    name: 'syconium-early-pins',
+    configureServer(server) {
+      // In dev, built once and again after an edit to any module it is made of.
+      server.watcher.on('change', (file) => {
+        void bundled?.then(({ modules }) => {
+          if (modules.includes(path.resolve(file))) bundled = null;
+        });
+      });
+    },
+    transformIndexHtml: {
+      order: 'pre',
+      async handler() {
+        bundled ??= bundle().catch((error: unknown) => {
+          bundled = null;
+          throw error;
+        });
+        const { code } = await bundled;
+        return [{ tag: 'script', children: code, injectTo: 'head' }];
+      },
+    },
+  };
+}
+
 const apiPort = Number(process.env.PORT ?? 3030);
 
 export default defineConfig({
@@ -59,6 +108,7 @@ export default defineConfig({
     react(),
     tailwindcss(),
     preloadAtlas(),
+    earlyPinsScript(),
     // Installable, with the app shell cached by a Workbox service worker: the pages open with no signal,
     // and the report form keeps what is written offline in IndexedDB (src/features/report-outbox/).
     VitePWA({
