@@ -52,49 +52,62 @@ function preloadAtlas(): Plugin {
   };
 }
 
+const EARLY_PINS_ENTRY = path.resolve(import.meta.dirname, 'src/features/map/early-pins.ts');
+
+/** The inline script's text and the source files it is built from. */
+export interface EarlyPinsScript {
+  code: string;
+  modules: string[];
+}
+
+/**
+ * src/features/map/early-pins.ts (with what it imports: first-view.ts, url-state.ts, pins-url.ts)
+ * bundled into one minified classic script (an IIFE), ready to write inside <script> in index.html.
+ */
+export async function buildEarlyPinsScript(): Promise<EarlyPinsScript> {
+  const result = await build({
+    configFile: false,
+    envFile: false,
+    logLevel: 'silent',
+    publicDir: false,
+    root: import.meta.dirname,
+    resolve: { alias: { '@shared': path.resolve(import.meta.dirname, 'shared') } },
+    build: { write: false, minify: true, lib: { entry: EARLY_PINS_ENTRY, formats: ['iife'], name: 'syconiumEarlyPins' } },
+  });
+  const chunk = (Array.isArray(result) ? result : [result]).flatMap((r) => ('output' in r ? r.output : [])).find((o) => o.type === 'chunk');
+  if (!chunk) throw new Error('early-pins.ts gave no script');
+  const code = chunk.code.trim();
+  if (/<\/script/i.test(code)) throw new Error('early-pins.ts must not contain "</script"');
+  return { code, modules: Object.keys(chunk.modules) };
+}
+
 /**
  * The atlas home's first pins are asked for by an inline script in index.html's <head>, as soon as
  * the page is parsed, not after the app's JavaScript (~100 KB on a phone's signal) has arrived.
- * The script is src/features/map/early-pins.ts, bundled here (the same TypeScript the app uses
- * to build that request) into a minified classic script. The server allows it by its SHA-256 in
- * the Content-Security-Policy (server/client/inline-scripts.ts), never by 'unsafe-inline'.
+ * The script is built from the same TypeScript the app uses for that request, so the two agree;
+ * the server allows it by its SHA-256 in the Content-Security-Policy (server/client/inline-scripts.ts),
+ * never by 'unsafe-inline'. In build and dev alike (dev: built once, again after an edit to its sources).
  */
-function earlyPinsScript(): Plugin {
-  const entry = path.resolve(import.meta.dirname, 'src/features/map/early-pins.ts');
-  let bundled: Promise<{ code: string; modules: string[] }> | null = null;
-  const bundle = async () => {
-    const result = await build({
-      configFile: false,
-      envFile: false,
-      logLevel: 'silent',
-      publicDir: false,
-      resolve: { alias: { '@shared': path.resolve(import.meta.dirname, 'shared') } },
-      build: { write: false, minify: true, lib: { entry, formats: ['iife'], name: 'syconiumEarlyPins' } },
-    });
-    const chunk = (Array.isArray(result) ? result : [result]).flatMap((r) => ('output' in r ? r.output : [])).find((o) => o.type === 'chunk');
-    if (!chunk) throw new Error('early-pins.ts gave no script');
-    const code = chunk.code.trim();
-    if (/<\/script/i.test(code)) throw new Error('early-pins.ts must not contain "</script"');
-    return { code, modules: Object.keys(chunk.modules) };
-  };
+export function earlyPinsScript(): Plugin {
+  let built: Promise<EarlyPinsScript> | null = null;
   return {
     name: 'syconium-early-pins',
     configureServer(server) {
-      // In dev, built once and again after an edit to any module it is made of.
       server.watcher.on('change', (file) => {
-        void bundled?.then(({ modules }) => {
-          if (modules.includes(path.resolve(file))) bundled = null;
+        void built?.then(({ modules }) => {
+          if (modules.includes(path.resolve(file))) built = null;
         });
       });
     },
     transformIndexHtml: {
       order: 'pre',
       async handler() {
-        bundled ??= bundle().catch((error: unknown) => {
-          bundled = null;
+        built ??= buildEarlyPinsScript().catch((error: unknown) => {
+          built = null;
           throw error;
         });
-        const { code } = await bundled;
+        const { code } = await built;
+        // After the viewport <meta>: the script reads the window's size as the page will lay it out.
         return [{ tag: 'script', children: code, injectTo: 'head' }];
       },
     },
