@@ -2,7 +2,7 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import path from 'node:path';
-import type { Plugin } from 'vite';
+import { build, type Plugin } from 'vite';
 import { compression } from 'vite-plugin-compression2';
 import { VitePWA } from 'vite-plugin-pwa';
 
@@ -52,6 +52,68 @@ function preloadAtlas(): Plugin {
   };
 }
 
+const EARLY_PINS_ENTRY = path.resolve(import.meta.dirname, 'src/features/map/early-pins.ts');
+
+/** The inline script's text and the source files it is built from. */
+export interface EarlyPinsScript {
+  code: string;
+  modules: string[];
+}
+
+/**
+ * src/features/map/early-pins.ts (with what it imports: first-view.ts, url-state.ts, pins-url.ts)
+ * bundled into one minified classic script (an IIFE), ready to write inside <script> in index.html.
+ */
+export async function buildEarlyPinsScript(): Promise<EarlyPinsScript> {
+  const result = await build({
+    configFile: false,
+    envFile: false,
+    logLevel: 'silent',
+    publicDir: false,
+    root: import.meta.dirname,
+    resolve: { alias: { '@shared': path.resolve(import.meta.dirname, 'shared') } },
+    build: { write: false, minify: true, lib: { entry: EARLY_PINS_ENTRY, formats: ['iife'], name: 'syconiumEarlyPins' } },
+  });
+  const chunk = (Array.isArray(result) ? result : [result]).flatMap((r) => ('output' in r ? r.output : [])).find((o) => o.type === 'chunk');
+  if (!chunk) throw new Error('early-pins.ts gave no script');
+  const code = chunk.code.trim();
+  if (/<\/script/i.test(code)) throw new Error('early-pins.ts must not contain "</script"');
+  return { code, modules: Object.keys(chunk.modules) };
+}
+
+/**
+ * The atlas home's first pins are asked for by an inline script in index.html's <head>, as soon as
+ * the page is parsed, not after the app's JavaScript (~100 KB on a phone's signal) has arrived.
+ * The script is built from the same TypeScript the app uses for that request, so the two agree;
+ * the server allows it by its SHA-256 in the Content-Security-Policy (server/client/inline-scripts.ts),
+ * never by 'unsafe-inline'. In build and dev alike (dev: built once, again after an edit to its sources).
+ */
+export function earlyPinsScript(): Plugin {
+  let built: Promise<EarlyPinsScript> | null = null;
+  return {
+    name: 'syconium-early-pins',
+    configureServer(server) {
+      server.watcher.on('change', (file) => {
+        void built?.then(({ modules }) => {
+          if (modules.includes(path.resolve(file))) built = null;
+        });
+      });
+    },
+    transformIndexHtml: {
+      order: 'pre',
+      async handler() {
+        built ??= buildEarlyPinsScript().catch((error: unknown) => {
+          built = null;
+          throw error;
+        });
+        const { code } = await built;
+        // After the viewport <meta>: the script reads the window's size as the page will lay it out.
+        return [{ tag: 'script', children: code, injectTo: 'head' }];
+      },
+    },
+  };
+}
+
 const apiPort = Number(process.env.PORT ?? 3030);
 
 export default defineConfig({
@@ -59,6 +121,7 @@ export default defineConfig({
     react(),
     tailwindcss(),
     preloadAtlas(),
+    earlyPinsScript(),
     // Installable, with the app shell cached by a Workbox service worker: the pages open with no signal,
     // and the report form keeps what is written offline in IndexedDB (src/features/report-outbox/).
     VitePWA({

@@ -37,6 +37,7 @@ import { jsonOrMultipartOnly } from './middleware/json-only';
 import { loginSession, SESSION_COOKIE } from './middleware/login-session';
 import { refuseLargeJson } from './middleware/refuse-large-body';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { appShellScriptHashes } from './client/inline-scripts';
 import { serveClient } from './client/serve-client';
 import { createHealthRouter, createMetricsRouter } from './ops/ops.router';
 import { createLogger, requestLogger } from './ops/request-log';
@@ -71,6 +72,8 @@ export function createApp(deps: AppDeps): Express {
     helmet({
       contentSecurityPolicy: {
         directives: {
+          // The app shell's own inline script (the first pins request), allowed by its hash alone.
+          'script-src': ["'self'", ...appShellScriptHashes(config.clientDir)],
           // MapLibre runs its worker from a blob/same-origin URL and draws images from blobs.
           'worker-src': ["'self'", 'blob:'],
           'child-src': ["'self'", 'blob:'],

@@ -3,7 +3,7 @@ import { createRoot } from 'react-dom/client';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider } from 'react-router';
 import { createQueryClient } from './lib/query-client';
-import { prefetchFirstPins } from './features/map/first-view';
+import { prefetchFirstPins } from './features/map/first-pins';
 import { createRouter } from './router';
 import './index.css';
 

@@ -1,6 +1,7 @@
 import type { Page } from 'playwright-core';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
+import { firstPinsRequest } from '../../src/features/map/first-view';
 import { openSite, recordRequests } from './harness';
 
 /** Wait until the map has added our layers, then for it to be idle with its tiles loaded. */
@@ -102,6 +103,47 @@ describe('the atlas map in the browser', () => {
     await expect.poll(() => held.length, { timeout: 30_000 }).toBeGreaterThan(0);
     expect(await page.locator('.maplibregl-canvas').count()).toBe(0);
     await page.close();
+  });
+
+  it('asks for the first view’s pins from index.html before the app’s JavaScript arrives, and only once', async () => {
+    for (const address of ['/', '/?type=common&lat=42.68&lon=-73.80&zoom=7']) {
+      const page = await site.newPage({ viewport: { width: 390, height: 844 } });
+      const pins: string[] = [];
+      const refused: string[] = [];
+      page.on('console', (message) => {
+        if (/Content Security Policy/i.test(message.text())) refused.push(message.text());
+      });
+      // The app's JavaScript is held until the pins have been asked for (10 s at most): only index.html's
+      // own inline script can ask while it is held.
+      let appHeld = true;
+      let release = () => {};
+      const released = new Promise<void>((resolve) => {
+        release = resolve;
+        setTimeout(resolve, 10_000);
+      }).then(() => void (appHeld = false));
+      let askedWhileHeld = false;
+      page.on('request', (request) => {
+        if (new URL(request.url()).pathname !== '/api/atlas/pins') return;
+        pins.push(request.url());
+        if (appHeld) askedWhileHeld = true;
+        release();
+      });
+      await page.route('**/assets/*.js', async (route) => {
+        await released;
+        await route.continue();
+      });
+      await page.goto(`${site.url}${address}`, { waitUntil: 'commit' });
+      await expect.poll(() => page.locator('[data-pin-preview] circle').count(), { timeout: 30_000 }).toBeGreaterThan(0);
+      expect(askedWhileHeld).toBe(true);
+      // It asked what the app's first view asks for (the app's own code computes it here)...
+      const firstView = firstPinsRequest(new URL(`${site.url}${address}`), 390, 844)!;
+      expect(pins[0]).toBe(`${site.url}${firstView.url}`);
+      // ...and the app took that answer: once the map has drawn, that view was asked for once.
+      await waitForMap(page);
+      expect(pins.filter((url) => url === pins[0])).toHaveLength(1);
+      expect(refused).toEqual([]);
+      await page.close();
+    }
   });
 
   it('keeps a filter in the URL and finds a town by name', async () => {

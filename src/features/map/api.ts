@@ -6,10 +6,8 @@ import { stationListSchema } from '@shared/schemas/stations';
 import { varietyListSchema } from '@shared/schemas/varieties';
 import { waspAreaCollectionSchema } from '@shared/schemas/wasp-areas';
 import { ApiError, apiFetch } from '../../lib/api-client';
+import { filterParams, pinsUrl } from './pins-url';
 
-function filterParams(filters: PinFilters): Record<string, string> {
-  return Object.fromEntries(Object.entries(filters).filter(([, v]) => v !== undefined).map(([k, v]) => [k, String(v)]));
-}
 
 /** The atlas map's reads. Keys sit under ['map'] so they never collide with other features' caches. */
 export const mapQueries = {
@@ -17,7 +15,7 @@ export const mapQueries = {
   pins: (bbox: string, zoom: number, filters: PinFilters) =>
     queryOptions({
       queryKey: [...mapQueries.all, 'pins', bbox, zoom, filters],
-      queryFn: ({ signal }) => apiFetch(`/api/atlas/pins?${new URLSearchParams({ bbox, zoom: String(zoom), ...filterParams(filters) })}`, pinsResponseSchema, { signal }),
+      queryFn: ({ signal }) => apiFetch(pinsUrl(bbox, zoom, filters), pinsResponseSchema, { signal }),
       placeholderData: keepPreviousData,
       staleTime: 60_000,
     }),

@@ -1,6 +1,12 @@
-import type { QueryClient } from '@tanstack/react-query';
-import { mapQueries } from './api';
+import type { PinFilters } from '@shared/schemas/pins';
+import { pinsUrl } from './pins-url';
 import { DEFAULT_VIEW, parseAtlasUrl, toBbox, type MapView } from './url-state';
+
+/*
+ * The atlas home's first view, computed before the map exists. Nothing here may import zod,
+ * TanStack Query or React: early-pins.ts, built from this module into an inline script in
+ * index.html, must stay a few hundred bytes.
+ */
 
 /** What the pins query asks for: the bounding box of the view and its whole zoom. */
 export interface Viewport {
@@ -26,16 +32,36 @@ export function estimateViewport(view: MapView, width: number, height: number): 
   return { bbox: toBbox(view.lon - halfLon, latitudeOf(y - halfY), view.lon + halfLon, latitudeOf(y + halfY)), zoom: Math.floor(view.zoom) };
 }
 
-/** The first view of the atlas home for this window (the address's view, else the default). */
-export function firstViewport(search: string): Viewport {
-  const state = parseAtlasUrl(new URLSearchParams(search));
-  return estimateViewport(state.view ?? DEFAULT_VIEW, window.innerWidth, window.innerHeight);
+/** The first view's pins query: its arguments to `mapQueries.pins` and the URL that asks it. */
+export interface FirstPinsRequest extends Viewport {
+  filters: PinFilters;
+  url: string;
 }
 
-/** On the atlas home, ask for the first pins at once, in parallel with the map's code. */
-export function prefetchFirstPins(queryClient: QueryClient): void {
-  if (window.location.pathname !== '/') return;
-  const { bbox, zoom } = firstViewport(window.location.search);
-  const { filters } = parseAtlasUrl(new URLSearchParams(window.location.search));
-  void queryClient.prefetchQuery(mapQueries.pins(bbox, zoom, filters));
+/**
+ * The pins the atlas home's first view shows in a window of `width` x `height` at this address (its
+ * view, else the default; its filters), or null away from the atlas home.
+ */
+export function firstPinsRequest(location: { pathname: string; search: string }, width: number, height: number): FirstPinsRequest | null {
+  if (location.pathname !== '/') return null;
+  const state = parseAtlasUrl(new URLSearchParams(location.search));
+  const { bbox, zoom } = estimateViewport(state.view ?? DEFAULT_VIEW, width, height);
+  return { bbox, zoom, filters: state.filters, url: pinsUrl(bbox, zoom, state.filters) };
+}
+
+/**
+ * What index.html's inline script (early-pins.ts) leaves on `window` under EARLY_PINS_KEY: the URL it
+ * asked for and its parsed JSON answer, null when the request failed or was refused.
+ */
+export interface EarlyPins {
+  url: string;
+  answer: Promise<unknown>;
+}
+
+export const EARLY_PINS_KEY = 'syconiumEarlyPins';
+
+declare global {
+  interface Window {
+    [EARLY_PINS_KEY]?: EarlyPins;
+  }
 }
