@@ -34,7 +34,15 @@ function preloadAtlas(): Plugin {
         };
         visit(home.fileName);
         const entry = chunks.find((c) => c.isEntry);
-        const alreadyPreloaded = new Set([entry?.fileName, ...(entry?.imports ?? [])]);
+        // Vite preloads the entry's imports and theirs: everything the entry reaches statically.
+        const alreadyPreloaded = new Set<string>();
+        const reach = (file: string) => {
+          const chunk = bundle[file];
+          if (!chunk || chunk.type !== 'chunk' || alreadyPreloaded.has(file)) return;
+          alreadyPreloaded.add(file);
+          chunk.imports.forEach(reach);
+        };
+        if (entry) reach(entry.fileName);
         const cssOf = (file: string | undefined) => [...((file && (bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss) || [])];
         const entryCss = new Set(cssOf(entry?.fileName));
         const css = [...files].flatMap(cssOf).filter((file) => !entryCss.has(file));

@@ -84,3 +84,9 @@ export const routes = [
 ];
 
 export const createRouter = () => createBrowserRouter(routes);
+
+/**
+ * The atlas home's code (index.html preloads it): awaited before the first render on `/`, so the
+ * first paint is the page itself, with its pin preview, rather than a "Loading…" line first.
+ */
+export const preloadAtlasHome = () => HomeRoute.preload();

@@ -11,15 +11,28 @@ function PageLoading() {
 
 /**
  * A page loaded on first use (React.lazy), in its own Suspense boundary so the app shell around it
- * paints at once and keeps its header while the page's code is on its way.
+ * paints at once and keeps its header while the page's code is on its way. `preload()` fetches it
+ * ahead: a page already loaded is drawn at once, without a "Loading…" frame first (React.lazy
+ * suspends once even for a module that has arrived). Its module is known before the lazy component
+ * resolves, so a mounted page is always the loaded component and never remounts.
  */
 export function lazyPage(load: () => Promise<{ default: ComponentType }>) {
-  const Page = lazy(load);
-  return function LazyPage() {
+  let Loaded: ComponentType | null = null;
+  const preload = () =>
+    load().then((module) => {
+      Loaded = module.default;
+      return module;
+    });
+  const Lazy = lazy(preload);
+  function Page() {
+    return Loaded ? <Loaded /> : <Lazy />;
+  }
+  function LazyPage() {
     return (
       <Suspense fallback={<PageLoading />}>
         <Page />
       </Suspense>
     );
-  };
+  }
+  return Object.assign(LazyPage, { preload });
 }
