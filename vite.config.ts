@@ -23,26 +23,24 @@ function preloadAtlas(): Plugin {
         const chunks = Object.values(bundle).filter((c) => c.type === 'chunk');
         const home = chunks.find((c) => c.facadeModuleId?.endsWith('/src/routes/home.tsx'));
         if (!home) return [];
-        const files = new Set<string>();
+        /** A chunk and every chunk it imports statically, transitively. */
+        const staticallyReached = (start: string | undefined) => {
+          const reached = new Set<string>();
+          const visit = (file: string) => {
+            const chunk = bundle[file];
+            if (!chunk || chunk.type !== 'chunk' || reached.has(file)) return;
+            reached.add(file);
+            chunk.imports.forEach(visit);
+          };
+          if (start) visit(start);
+          return reached;
+        };
         // Static imports only: the map (MapLibre) is a dynamic import of the page, fetched once it runs,
         // so the page's own small code is not slowed by sharing the link with 390 KB of map.
-        const visit = (file: string) => {
-          const chunk = bundle[file];
-          if (!chunk || chunk.type !== 'chunk' || files.has(file)) return;
-          files.add(file);
-          chunk.imports.forEach(visit);
-        };
-        visit(home.fileName);
+        const files = staticallyReached(home.fileName);
         const entry = chunks.find((c) => c.isEntry);
-        // Vite preloads the entry's imports and theirs: everything the entry reaches statically.
-        const alreadyPreloaded = new Set<string>();
-        const reach = (file: string) => {
-          const chunk = bundle[file];
-          if (!chunk || chunk.type !== 'chunk' || alreadyPreloaded.has(file)) return;
-          alreadyPreloaded.add(file);
-          chunk.imports.forEach(reach);
-        };
-        if (entry) reach(entry.fileName);
+        // Vite preloads what the entry reaches statically.
+        const alreadyPreloaded = staticallyReached(entry?.fileName);
         const cssOf = (file: string | undefined) => [...((file && (bundle[file] as { viteMetadata?: { importedCss: Set<string> } }).viteMetadata?.importedCss) || [])];
         const entryCss = new Set(cssOf(entry?.fileName));
         const css = [...files].flatMap(cssOf).filter((file) => !entryCss.has(file));
