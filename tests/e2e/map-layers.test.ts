@@ -112,6 +112,13 @@ describe('the atlas base map, season surface and phone sheet', () => {
       expect(near.season.days50).not.toBeNull();
       expect(drawn!).toBeCloseTo(near.season.days50!, 6);
     }
+    // The surface stops at the coast: the sea is drawn again above it. Open Atlantic south of Rhode
+    // Island (41.0 N, 71.0 W) is sea; Albany is not.
+    const order = await page.evaluate(() => (window as unknown as { syconiumMap: { getStyle: () => { layers: { id: string }[] } } }).syconiumMap.getStyle().layers.map((l) => l.id));
+    expect(order.indexOf('season-surface')).toBeLessThan(order.indexOf('sea'));
+    expect(order.indexOf('land')).toBeLessThan(order.indexOf('season-surface'));
+    await expect.poll(() => renderedAround(page, [-71.0, 41.0], ['sea']).then((f) => f.length), { timeout: 30_000 }).toBeGreaterThan(0);
+    expect(await renderedAround(page, [-73.8, 42.7], ['sea'])).toHaveLength(0);
     // Clicking an empty spot reads the value there with its stations and distance.
     const canvas = page.locator('.maplibregl-canvas');
     const box = (await canvas.boundingBox())!;

@@ -1,6 +1,7 @@
 import { VectorTile } from '@mapbox/vector-tile';
 import { GeoJSONVT } from '@maplibre/geojson-vt';
 import { area } from '@turf/turf';
+import type { GeoJSONVTTile } from '@maplibre/geojson-vt';
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
@@ -9,7 +10,7 @@ import { feature } from 'topojson-client';
 import type { GeometryCollection, Topology } from 'topojson-specification';
 import { describe, expect, it } from 'vitest';
 import { crossesAntimeridian, splitAtAntimeridian } from '../../scripts/tiles/antimeridian';
-import { encodeTile } from '../../scripts/tiles/build-tiles';
+import { encodeTile, seaOfTile } from '../../scripts/tiles/build-tiles';
 import { childTiles, lonLatToTile, tileToLonLat } from '../../scripts/tiles/tile-math';
 
 const require = createRequire(import.meta.url);
@@ -118,5 +119,37 @@ describe('encoding tiles', () => {
     expect(encodeTile(layers, { ...at, x: at.x + 1 })).toBeNull();
     // Below the label's zoom the tile stays empty.
     expect(encodeTile(layers, lonLatToTile(-73.7562, 42.6526, 4))).toBeNull();
+  });
+});
+
+describe('the sea layer', () => {
+  // Tile coordinates: 4096 units a side, 64 of buffer around (geojson-vt's settings in build-tiles.ts).
+  const SIDE = 4096 + 2 * 64;
+  const shoelace = (ring: number[][]) => ring.slice(0, -1).reduce((sum, [x, y], i) => sum + x! * ring[i + 1]![1]! - ring[i + 1]![0]! * y!, 0) / 2;
+  const landTile = (ring: number[][]) => ({ features: [{ type: 3, tags: {}, geometry: [ring] }] }) as unknown as GeoJSONVTTile;
+
+  it('is the whole tile where there is no land', () => {
+    const sea = seaOfTile(null)!;
+    const rings = sea.features[0]!.geometry as number[][][];
+    expect(rings).toHaveLength(1);
+    expect(shoelace(rings[0]!)).toBe(SIDE * SIDE);
+  });
+
+  it('is the tile less its land, outer rings written the way geojson-vt writes land (positive area), and reads back as one polygon', () => {
+    // Land over the west half of the tile (x up to 2048): the sea is the east half, 2112 x 4224.
+    const sea = seaOfTile(landTile([[-64, -64], [2048, -64], [2048, 4160], [-64, 4160], [-64, -64]]))!;
+    const rings = sea.features[0]!.geometry as number[][][];
+    expect(rings).toHaveLength(1);
+    expect(shoelace(rings[0]!)).toBe(2112 * SIDE);
+    // An island in the middle: the sea is the tile with a hole (outer positive, hole negative).
+    const island = seaOfTile(landTile([[1000, 1000], [3000, 1000], [3000, 3000], [1000, 3000], [1000, 1000]]))!;
+    const [outer, hole] = island.features[0]!.geometry as number[][][];
+    expect(shoelace(outer!)).toBe(SIDE * SIDE);
+    expect(shoelace(hole!)).toBe(-2000 * 2000);
+    // Encoded as a vector tile and read back (@mapbox/vector-tile classifies rings by their winding): one polygon with its hole.
+    const data = encodeTile([{ name: 'sea', byZoom: () => ({ getTile: () => island }) }], { z: 0, x: 0, y: 0 })!;
+    const read = new VectorTile(new PbfReader(data)).layers.sea!.feature(0).toGeoJSON(0, 0, 0);
+    expect(read.geometry.type).toBe('Polygon');
+    expect((read.geometry as Polygon).coordinates).toHaveLength(2);
   });
 });

@@ -70,15 +70,15 @@ export const WASP_OUTLINE_LAYER: Layer<LineLayerSpecification> = {
   paint: WASP_LINE_PAINT,
 };
 
-/** The season surface (season-surface.ts draws its tiles), under the water, borders and labels. */
+/** The season surface (season-surface.ts draws its tiles), on the land only: under the sea, lakes, borders and labels. */
 export const SEASON_SURFACE_LAYER: Layer<RasterLayerSpecification> = {
   id: 'season-surface',
   type: 'raster',
   source: SOURCE_IDS.season,
   paint: { 'raster-opacity': 0.9, 'raster-resampling': 'linear', 'raster-fade-duration': 0 },
 };
-/** The base-map layer the season surface is drawn beneath. */
-export const SEASON_SURFACE_BEFORE = 'lakes';
+/** The base-map layer the season surface is drawn beneath: the sea, so the surface stops at the coast. */
+export const SEASON_SURFACE_BEFORE = 'sea';
 
 /** The stations behind the season surface: small marks where its evidence stands. */
 export const FROST_STATION_LAYER: Layer<CircleLayerSpecification> = {

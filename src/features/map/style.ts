@@ -64,6 +64,15 @@ export function createBaseStyle(origin: string): StyleSpecification {
         paint: { 'fill-color': C.land, 'fill-outline-color': C.waterDeep, 'fill-antialias': true },
       },
       {
+        // The sea again, as polygons cut from each tile (the background is the open sea): whatever is
+        // drawn between the land and this layer (the season surface) stops at the coast.
+        id: 'sea',
+        type: 'fill',
+        source: 'base',
+        'source-layer': 'sea',
+        paint: { 'fill-color': C.water, 'fill-antialias': false },
+      },
+      {
         id: 'coast',
         type: 'line',
         source: 'base',
