@@ -1,3 +1,4 @@
+import sharp from 'sharp';
 import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 import { afterAll, beforeAll, inject } from 'vitest';
 import { CHROMIUM_ARGS } from '../../scripts/ensure-chromium';
@@ -53,4 +54,19 @@ export async function signIn(page: Page, url: string, email: string, password: s
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
+
+/**
+ * The report form after its tree and variety: an invented spot near Rapid City, SD (far from the demo's
+ * towns), in a container, season 2025, ripened on 3 September, with one photo named `photoName`.
+ */
+export async function fillRipenedContainerReport(page: Page, photoName: string): Promise<void> {
+  await page.getByLabel('Latitude').fill('44.08123');
+  await page.getByLabel('Longitude').fill('-103.23111');
+  await page.getByRole('radio', { name: 'In a container' }).check();
+  await page.getByLabel('Season year').fill('2025');
+  await page.getByRole('radio', { name: /^Ripened/ }).check();
+  await page.getByLabel('First ripe fig').fill('2025-09-03');
+  const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6b3a5b' } }).jpeg().toBuffer();
+  await page.getByLabel('Add photos').setInputFiles({ name: photoName, mimeType: 'image/jpeg', buffer: photo });
 }

@@ -1,8 +1,7 @@
-import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { openSite, signIn } from './harness';
+import { fillRipenedContainerReport, openSite, signIn } from './harness';
 
 /*
  * Offline drafts: a grower in the garden with no signal writes a report with a photo; it is kept on
@@ -41,14 +40,7 @@ describe('a report written with no signal', () => {
     await page.getByRole('combobox', { name: 'Variety' }).fill('Lantern');
     await page.getByRole('option', { name: /Lantern Amber/ }).click();
     await phone.setOffline(true);
-    await page.getByLabel('Latitude').fill('44.08123');
-    await page.getByLabel('Longitude').fill('-103.23111');
-    await page.getByRole('radio', { name: 'In a container' }).check();
-    await page.getByLabel('Season year').fill('2025');
-    await page.getByRole('radio', { name: /^Ripened/ }).check();
-    await page.getByLabel('First ripe fig').fill('2025-09-03');
-    const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6b3a5b' } }).jpeg().toBuffer();
-    await page.getByLabel('Add photos').setInputFiles({ name: 'garden-fig.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await fillRipenedContainerReport(page, 'garden-fig.jpg');
     await page.getByRole('button', { name: 'Post report' }).click();
 
     await eventually(() => page.getByText('Kept on this phone', { exact: true }).isVisible()).toBe(true);

@@ -1,7 +1,6 @@
-import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/seed/demo-scenario';
-import { openSite, recordRequests, signIn } from './harness';
+import { fillRipenedContainerReport, openSite, recordRequests, signIn } from './harness';
 
 describe('harvest reports in the browser', () => {
   const site = openSite();
@@ -17,15 +16,7 @@ describe('harvest reports in the browser', () => {
     await page.getByLabel('Label for the new tree').fill('Balcony pot (e2e)');
     await page.getByRole('combobox', { name: 'Variety' }).fill('Lantern');
     await page.getByRole('option', { name: /Lantern Amber/ }).click();
-    // An invented spot near Rapid City, SD, far from the demo's towns.
-    await page.getByLabel('Latitude').fill('44.08123');
-    await page.getByLabel('Longitude').fill('-103.23111');
-    await page.getByRole('radio', { name: 'In a container' }).check();
-    await page.getByLabel('Season year').fill('2025');
-    await page.getByRole('radio', { name: /^Ripened/ }).check();
-    await page.getByLabel('First ripe fig').fill('2025-09-03');
-    const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6b3a5b' } }).jpeg().toBuffer();
-    await page.getByLabel('Add photos').setInputFiles({ name: 'my-fig.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await fillRipenedContainerReport(page, 'my-fig.jpg');
     await expect.poll(() => page.getByAltText('Preview of my-fig.jpg').isVisible()).toBe(true);
 
     await page.getByRole('button', { name: 'Post report' }).click();

@@ -1,6 +1,7 @@
 import { useId, useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button';
 import { useBulkImport } from '../bulk-import';
+import { UploadProgress } from '../../../components/upload-progress';
 
 /**
  * The editors' bulk import: a whole file set at once (NOAA normals, or GHCN-Daily stations with
@@ -56,12 +57,7 @@ export function BulkImportForm() {
         <input id={`${id}-release`} name="release" placeholder="e.g. 1991-2020" className="rounded-md border border-fig-200 bg-white px-3 py-2 text-base shadow-sm" />
       </div>
 
-      {phase.state === 'uploading' && (
-        <div>
-          <p className="text-sm text-ink/80">Uploading… {Math.round(phase.fraction * 100)} %</p>
-          <progress className="mt-1 h-2 w-full accent-fig-600" max={1} value={phase.fraction} aria-label="Upload progress" />
-        </div>
-      )}
+      {phase.state === 'uploading' && <UploadProgress fraction={phase.fraction} />}
       {phase.state === 'reading' && (
         <div role="status" className="text-sm text-ink/80">
           {phase.last ? (

@@ -3,6 +3,7 @@ import { stationUploadFieldsSchema } from '@shared/schemas/stations';
 import { Button } from '../../../components/button';
 import { FormField, useFocusFirstInvalid } from '../../../components/form-field';
 import { useStationUpload } from '../api';
+import { UploadProgress } from '../../../components/upload-progress';
 
 type FieldErrors = Record<string, string[] | undefined>;
 
@@ -85,12 +86,7 @@ export function StationUploadForm({ onUploaded }: { onUploaded: (id: number) => 
         )}
       </div>
 
-      {phase.state === 'uploading' && (
-        <div>
-          <p className="text-sm text-ink/80">Uploading… {Math.round(phase.fraction * 100)} %</p>
-          <progress className="mt-1 h-2 w-full accent-fig-600" max={1} value={phase.fraction} aria-label="Upload progress" />
-        </div>
-      )}
+      {phase.state === 'uploading' && <UploadProgress fraction={phase.fraction} />}
       {phase.state === 'computing' && (
         <p role="status" className="text-sm text-ink/80">
           Computing freeze dates: checking every row and working out each year’s last spring and first fall freeze…
