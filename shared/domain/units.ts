@@ -59,15 +59,35 @@ function regionOf(locale: string): string | null {
   }
 }
 
-/** The units a browser's language suggests ("en-US" → °F and miles, "fr-FR" → °C and km). */
+function isWellFormedLocale(tag: string): boolean {
+  try {
+    return Intl.getCanonicalLocales(tag).length === 1;
+  } catch {
+    return false;
+  }
+}
+
+const defaultsByLocale = new Map<string, UnitPrefs>();
+
+/**
+ * The units a browser's language suggests ("en-US" → °F and miles, "fr-FR" → °C and km). Worked out
+ * once per language: every component that shows a unit asks on every render.
+ */
 export function defaultUnitsForLocale(locale: string): UnitPrefs {
-  const safe = isSupportedLocale(locale) ? locale : 'en-US';
-  const region = regionOf(safe);
-  return {
-    temperature: region && FAHRENHEIT_REGIONS.has(region) ? 'F' : 'C',
-    distance: region && MILE_REGIONS.has(region) ? 'mi' : 'km',
-    locale: safe,
-  };
+  let prefs = defaultsByLocale.get(locale);
+  if (!prefs) {
+    // A browser's own language is a well-formed tag, checked here by syntax alone: asking for
+    // date-format support as well would load that data for the first screen, which shows no date.
+    const safe = isWellFormedLocale(locale) ? locale : 'en-US';
+    const region = regionOf(safe);
+    prefs = {
+      temperature: region && FAHRENHEIT_REGIONS.has(region) ? 'F' : 'C',
+      distance: region && MILE_REGIONS.has(region) ? 'mi' : 'km',
+      locale: safe,
+    };
+    defaultsByLocale.set(locale, prefs);
+  }
+  return prefs;
 }
 
 const trimZero = (v: number, digits: number) => {
