@@ -180,7 +180,8 @@ export default defineConfig({
   },
   build: {
     outDir: 'dist',
-    chunkSizeWarningLimit: 1100,
+    // MapLibre alone is 1.12 MB minified (250 KB sent); it loads only with a map, never for the first paint.
+    chunkSizeWarningLimit: 1200,
   },
   test: {
     projects: [

@@ -211,7 +211,7 @@ const CASES: Case[] = [
   { route: 'GET /api/audit', expected: editors(200), call: () => get('/api/audit') },
   { route: 'GET /uploads/reports/:name', note: 'published', expected: everyone(200), call: async (w) => get(`/uploads/reports/${(await w.photo()).fileName}`) },
   { route: 'GET /uploads/reports/:name', note: 'draft', expected: ownerOnly(200), call: async (w) => get(`/uploads/reports/${(await w.photo('draft')).fileName}`) },
-  { route: 'GET /tiles/*', expected: everyone(204), note: 'a tile with no data is an empty 204', call: () => get('/tiles/base/6/0/0.pbf') },
+  { route: 'GET /tiles/*', expected: everyone(204), note: 'a tile with no data is an empty 204 (no town near 85° N, 180° W)', call: () => get('/tiles/places/7/0/0.pbf') },
 ];
 
 const ctx = createTestContext({ signInLimit: { windowMs: 60_000, perAddress: 10_000, freeFailures: 10_000 }, signUpLimit: { windowMs: 60_000, perAddress: 10_000 }, forgotLimit: { windowMs: 60_000, perAddress: 10_000, perEmail: 10_000 }, photoUploadLimit: { windowMs: 60_000, limit: 10_000 } });
