@@ -58,6 +58,9 @@ function preloadAtlas(): Plugin {
   };
 }
 
+/** `@shared/...` imports: the app's and the early pins script's builds resolve them alike. */
+const ALIASES = { '@shared': path.resolve(import.meta.dirname, 'shared') };
+
 const EARLY_PINS_ENTRY = path.resolve(import.meta.dirname, 'src/features/map/early-pins.ts');
 
 /** The inline script's text and the source files it is built from. */
@@ -77,7 +80,7 @@ export async function buildEarlyPinsScript(): Promise<EarlyPinsScript> {
     logLevel: 'silent',
     publicDir: false,
     root: import.meta.dirname,
-    resolve: { alias: { '@shared': path.resolve(import.meta.dirname, 'shared') } },
+    resolve: { alias: ALIASES },
     build: { write: false, minify: true, lib: { entry: EARLY_PINS_ENTRY, formats: ['iife'], name: 'syconiumEarlyPins' } },
   });
   const chunk = (Array.isArray(result) ? result : [result]).flatMap((r) => ('output' in r ? r.output : [])).find((o) => o.type === 'chunk');
@@ -169,7 +172,7 @@ export default defineConfig({
     compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|svg|json|webmanifest)$/, threshold: 1024 }),
   ],
   resolve: {
-    alias: { '@shared': path.resolve(import.meta.dirname, 'shared') },
+    alias: ALIASES,
   },
   server: {
     proxy: {

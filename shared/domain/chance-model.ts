@@ -294,6 +294,11 @@ export function localEvidence(
   return { observed, expected, weight, trees: count };
 }
 
+/** A fitted curve's logit at margin x and its variance from the coefficients' covariance (delta method). */
+function logitAt(fit: { coef: [number, number]; cov: LogisticFit['cov'] }, x: number): { eta: number; etaVariance: number } {
+  return { eta: fit.coef[0] + fit.coef[1] * x, etaVariance: fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1] };
+}
+
 /**
  * The Beta-binomial update: the model's p₀ as a Beta prior worth m trees (m from the variance of
  * p₀, bounded by PRIOR_TREES), moved by the local trees' observed-minus-expected; the 80 % interval
@@ -345,8 +350,7 @@ export function chanceAt(model: ChanceModel, variety: ModelVariety, nearby: read
   const local = localEvidence(fit.coef, variety, nearby, ctx.point, ctx.bandwidthKm, fit.meanMargin);
   const trees = Math.max(fit.trees, local.trees);
   const x = seasonMargin(ctx.localDays, ctx.form, variety, ctx.headStartDays) ?? fit.meanMargin;
-  const eta = fit.coef[0] + fit.coef[1] * x;
-  const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
+  const { eta, etaVariance } = logitAt(fit, x);
   const p0 = sigmoid(eta);
   const { probability, low, high } = updateWithLocal(p0, etaVariance, local, model.placeSpread);
   return {
@@ -477,8 +481,7 @@ export function leaveOneGrowerOut(records: readonly TreeRecord[], varieties: Map
       const fit = fits.get(v.id)!;
       const meanMargin = all.nX - mine.nX > 0 ? (all.sumX - mine.sumX) / (all.nX - mine.nX) : 0;
       const x = seasonMargin(r.localDays, r.form, v) ?? meanMargin;
-      const eta = fit.coef[0] + fit.coef[1] * x;
-      const etaVariance = fit.cov[0][0] + 2 * x * fit.cov[0][1] + x * x * fit.cov[1][1];
+      const { eta, etaVariance } = logitAt(fit, x);
       const local = localEvidence(fit.coef, v, neighbours, point, bandwidthKm, meanMargin);
       const { probability } = updateWithLocal(sigmoid(eta), etaVariance, local, spread);
       out.push({ chance: probability, overallRate, adjustedShare: adjusted, edible: r.edible, seasons: r.seasons });

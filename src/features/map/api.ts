@@ -8,7 +8,6 @@ import { waspAreaCollectionSchema } from '@shared/schemas/wasp-areas';
 import { ApiError, apiFetch } from '../../lib/api-client';
 import { filterParams, pinsUrl } from './pins-url';
 
-
 /** The atlas map's reads. Keys sit under ['map'] so they never collide with other features' caches. */
 export const mapQueries = {
   all: ['map'] as const,
