@@ -122,6 +122,7 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
 
     // Sign in.
     await page.goto(`${site.url}/sign-in`);
+    await page.getByLabel('E-mail').waitFor();
     await tabTo(page, /E-mail/);
     await page.keyboard.type('grower@demo.syconium.test');
     await page.keyboard.press('Tab');
@@ -143,6 +144,8 @@ describe('accessibility: axe-core on every screen, in every role, and the keyboa
 
     // Why no figs, through to the likely causes.
     await page.goto(`${site.url}/why-no-figs`);
+    // The page is its own chunk: tab once it is drawn, not through its "Loading…" line.
+    await page.getByText('Fruit formed, then dropped').first().waitFor();
     await tabTo(page, /Fruit formed, then dropped/);
     await page.keyboard.press('Enter');
     const stepTitle = () => page.locator('main h2').first().textContent();
